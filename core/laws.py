@@ -1,0 +1,276 @@
+"""Material laws for the ultimate limit state, written once for floats and arrays.
+
+Sign convention throughout the core: strain and stress are positive in
+shortening (compression). Strain at depth ``y`` below the compression face is
+``eps_cu * (c - y) / c`` with the extreme fibre at the ultimate strain.
+
+Every parameter may be a float or a numpy array that broadcasts against the
+batch (shape ``(N,)``); concrete-law methods receive ``c`` of shape ``(N,)`` and
+strip edges of shape ``(N, k)``.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, fields
+from typing import Any, Protocol, TypeVar
+
+import numpy as np
+from numpy.typing import ArrayLike, NDArray
+
+from clausewise.core.errors import SectionError
+
+Array = NDArray[np.float64]
+_Law = TypeVar("_Law")
+
+
+def _col(value: ArrayLike) -> Array:
+    """A per-section parameter as a column that broadcasts over strips."""
+    arr = np.asarray(value, dtype=float)
+    return arr[:, None] if arr.ndim == 1 else arr
+
+
+def _require_positive(law: object, *names: str) -> None:
+    for name in names:
+        value = np.asarray(getattr(law, name), dtype=float)
+        if not np.all(np.isfinite(value)) or np.any(value <= 0):
+            raise SectionError(
+                f"{type(law).__name__}.{name} must be positive and finite, got {value.tolist()}"
+            )
+
+
+class ConcreteLaw(Protocol):
+    """What the solver needs of a concrete law."""
+
+    @property
+    def ultimate_strain(self) -> ArrayLike: ...
+
+    def zone_depth(self, c: Array) -> Array:
+        """Depth below the compression face over which the concrete is stressed."""
+        ...
+
+    def strip_resultants(self, c: Array, top: Array, bottom: Array) -> tuple[Array, Array]:
+        """Force per unit width of each strip, and its first moment about the compression face."""
+        ...
+
+    def stress_at(self, c: Array, y: Array) -> Array:
+        """Concrete stress at depth ``y`` (used for the concrete displaced by bars)."""
+        ...
+
+
+@dataclass(frozen=True)
+class RectangularBlock:
+    """Uniform stress ``stress`` over a depth ``depth_factor * c``.
+
+    ``stress`` is the block intensity already multiplied out (0.85 f'c, η fcd,
+    α1 φc f'c ...): the core does not know which standard produced it.
+    """
+
+    stress: ArrayLike
+    depth_factor: ArrayLike
+    ultimate_strain: ArrayLike
+
+    def __post_init__(self) -> None:
+        _require_positive(self, "stress", "depth_factor", "ultimate_strain")
+        if np.any(np.asarray(self.depth_factor, dtype=float) > 1.0):
+            raise SectionError(f"RectangularBlock.depth_factor must not exceed 1, got "
+                               f"{np.asarray(self.depth_factor).tolist()}")
+
+    def zone_depth(self, c: Array) -> Array:
+        return np.asarray(self.depth_factor) * c
+
+    def strip_resultants(self, c: Array, top: Array, bottom: Array) -> tuple[Array, Array]:
+        a = _col(self.zone_depth(c))
+        lo = np.clip(top, 0.0, a)
+        hi = np.clip(bottom, 0.0, a)
+        stress = _col(self.stress)
+        return stress * (hi - lo), stress * 0.5 * (hi * hi - lo * lo)
+
+    def stress_at(self, c: Array, y: Array) -> Array:
+        a = _col(self.zone_depth(c))
+        return np.where(y < a, _col(self.stress), 0.0)
+
+
+@dataclass(frozen=True)
+class ParabolaRectangle:
+    """Parabola ``peak_stress * (1 - (1 - eps/strain_at_peak)**exponent)`` up to the peak
+    strain, constant beyond it to the ultimate strain; integrated in closed form."""
+
+    peak_stress: ArrayLike
+    strain_at_peak: ArrayLike
+    ultimate_strain: ArrayLike
+    exponent: ArrayLike = 2.0
+
+    def __post_init__(self) -> None:
+        _require_positive(self, "peak_stress", "strain_at_peak", "ultimate_strain", "exponent")
+        if np.any(np.asarray(self.strain_at_peak) > np.asarray(self.ultimate_strain)):
+            raise SectionError("ParabolaRectangle.strain_at_peak must not exceed ultimate_strain")
+
+    def zone_depth(self, c: Array) -> Array:
+        return np.asarray(c, dtype=float)
+
+    def _split(self, c: Array) -> tuple[Array, Array]:
+        """Depth where the parabola starts, and the parabola's height."""
+        ratio = np.asarray(self.strain_at_peak) / np.asarray(self.ultimate_strain)
+        return c * (1.0 - ratio), c * ratio
+
+    def strip_resultants(self, c: Array, top: Array, bottom: Array) -> tuple[Array, Array]:
+        y_r, length = (_col(v) for v in self._split(c))
+        cc = _col(c)
+        fcd = _col(self.peak_stress)
+        n = _col(self.exponent)
+        lo = np.clip(top, 0.0, y_r)
+        hi = np.clip(bottom, 0.0, y_r)
+        force = fcd * (hi - lo)
+        moment = fcd * 0.5 * (hi * hi - lo * lo)
+        tp = (np.clip(top, y_r, cc) - y_r) / length
+        tq = (np.clip(bottom, y_r, cc) - y_r) / length
+        linear = tq - tp
+        p1 = (tq ** (n + 1) - tp ** (n + 1)) / (n + 1)
+        p2 = (tq ** (n + 2) - tp ** (n + 2)) / (n + 2)
+        force = force + fcd * length * (linear - p1)
+        moment = moment + fcd * length * (
+            y_r * (linear - p1) + length * (0.5 * (tq * tq - tp * tp) - p2)
+        )
+        return force, moment
+
+    def stress_at(self, c: Array, y: Array) -> Array:
+        cc = _col(c)
+        eps = _col(self.ultimate_strain) * (cc - y) / cc
+        ratio = np.clip(eps / _col(self.strain_at_peak), 0.0, 1.0)
+        return _col(self.peak_stress) * (1.0 - (1.0 - ratio) ** _col(self.exponent))
+
+
+class SteelLaw(Protocol):
+    """What the solver needs of a steel law: the same law in tension and compression."""
+
+    @property
+    def yield_strain(self) -> ArrayLike: ...
+
+    @property
+    def strain_limit(self) -> ArrayLike: ...
+
+    def stress(self, strain: Array) -> Array: ...
+
+
+@dataclass(frozen=True)
+class ElasticPlastic:
+    """Elastic to ``yield_stress``, then a horizontal plateau (no strain limit by default)."""
+
+    modulus: ArrayLike
+    yield_stress: ArrayLike
+    strain_limit: ArrayLike = np.inf
+
+    def __post_init__(self) -> None:
+        _require_positive(self, "modulus", "yield_stress")
+
+    @property
+    def yield_strain(self) -> ArrayLike:
+        return np.asarray(self.yield_stress) / np.asarray(self.modulus)
+
+    def stress(self, strain: Array) -> Array:
+        fy = np.asarray(self.yield_stress)
+        return np.clip(np.asarray(self.modulus) * strain, -fy, fy)
+
+
+@dataclass(frozen=True)
+class BilinearHardening:
+    """Elastic to ``yield_stress``, then an inclined branch of slope ``hardening_modulus``
+    up to ``strain_limit``. Beyond the limit the branch is continued only so that
+    the solver stays monotone; the response flags any layer past the limit."""
+
+    modulus: ArrayLike
+    yield_stress: ArrayLike
+    hardening_modulus: ArrayLike
+    strain_limit: ArrayLike
+
+    def __post_init__(self) -> None:
+        _require_positive(self, "modulus", "yield_stress", "strain_limit")
+        if np.any(np.asarray(self.hardening_modulus) < 0):
+            raise SectionError("BilinearHardening.hardening_modulus must not be negative")
+
+    @property
+    def yield_strain(self) -> ArrayLike:
+        return np.asarray(self.yield_stress) / np.asarray(self.modulus)
+
+    def stress(self, strain: Array) -> Array:
+        magnitude = np.abs(strain)
+        eps_y = self.yield_strain
+        elastic = np.asarray(self.modulus) * magnitude
+        plastic = np.asarray(self.yield_stress) + np.asarray(self.hardening_modulus) * (
+            magnitude - eps_y
+        )
+        return np.sign(strain) * np.where(magnitude <= eps_y, elastic, plastic)
+
+
+@dataclass(frozen=True)
+class PiecewiseLinear:
+    """A design curve through ``points`` (strain, stress), starting at the origin and
+    flat after the last point. ``yield_strain`` defaults to the last point's strain."""
+
+    points: tuple[tuple[ArrayLike, ArrayLike], ...]
+    strain_limit: ArrayLike = np.inf
+    knee_strain: ArrayLike | None = None
+
+    def __post_init__(self) -> None:
+        if not self.points:
+            raise SectionError("PiecewiseLinear needs at least one (strain, stress) point")
+        previous = np.asarray(0.0)
+        for strain, stress in self.points:
+            s = np.asarray(strain, dtype=float)
+            if np.any(s <= previous) or np.any(np.asarray(stress, dtype=float) < 0):
+                raise SectionError(
+                    "PiecewiseLinear points must have increasing positive strains "
+                    "and non-negative stresses"
+                )
+            previous = s
+
+    @property
+    def yield_strain(self) -> ArrayLike:
+        return self.points[-1][0] if self.knee_strain is None else self.knee_strain
+
+    def stress(self, strain: Array) -> Array:
+        magnitude = np.abs(strain)
+        strains = [np.asarray(0.0)] + [np.asarray(p[0], dtype=float) for p in self.points]
+        stresses = [np.asarray(0.0)] + [np.asarray(p[1], dtype=float) for p in self.points]
+        result = np.broadcast_to(stresses[-1], np.shape(magnitude)).astype(float)
+        for i in range(len(strains) - 1, 0, -1):
+            e0, e1, s0, s1 = strains[i - 1], strains[i], stresses[i - 1], stresses[i]
+            on_segment = s0 + (s1 - s0) * (magnitude - e0) / (e1 - e0)
+            result = np.where(magnitude <= e1, on_segment, result)
+        return np.sign(strain) * result
+
+
+def stack_laws(laws: list[_Law]) -> _Law:
+    """One law of the same type whose parameters are arrays over the given laws,
+    so that many sections can be solved together."""
+    kind = type(laws[0])
+    if any(type(law) is not kind for law in laws):
+        raise SectionError("laws stacked into one batch must all be of the same type")
+
+    def stacked(values: list[Any]) -> Any:
+        if isinstance(values[0], tuple):
+            return tuple(stacked([v[i] for v in values]) for i in range(len(values[0])))
+        if values[0] is None:
+            return None
+        return np.array([np.asarray(v, dtype=float) for v in values])
+
+    return kind(**{f.name: stacked([getattr(law, f.name) for law in laws])
+                   for f in fields(kind)})  # type: ignore[call-arg, arg-type]
+
+
+def take_rows(law: _Law, rows: NDArray[np.int_], size: int) -> _Law:
+    """The same law restricted to the given rows of a batch of ``size`` sections
+    (parameters that do not vary by row are kept as they are)."""
+
+    def taken(value: Any) -> Any:
+        if isinstance(value, tuple):
+            return tuple(taken(v) for v in value)
+        if isinstance(value, np.ndarray) and value.ndim >= 1 and value.shape[0] == size:
+            return value[rows]
+        return value
+
+    if not any(isinstance(getattr(law, f.name), np.ndarray | tuple)
+               for f in fields(law)):  # type: ignore[arg-type]
+        return law
+    return type(law)(**{f.name: taken(getattr(law, f.name))
+                        for f in fields(law)})  # type: ignore[arg-type]

@@ -1,0 +1,326 @@
+"""Neutral-axis depth by strain compatibility and force equilibrium.
+
+The extreme compression fibre is at the concrete law's ultimate strain; every
+steel layer takes the stress its own law gives at its strain, yielded or not.
+Net compression grows monotonically with the neutral-axis depth ``c`` (the laws
+are monotone), so the root is unique once bracketed between a vanishing ``c``
+and the depth of the deepest layer. The root is polished by regula falsi with
+the Illinois modification, falling back to bisection whenever the bracket
+stops halving, until the force residual is below ``rtol`` of the total force.
+
+One implementation serves a single section and a batch: ``solve`` wraps
+``solve_arrays`` on a batch of one.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+import numpy as np
+from numpy.typing import NDArray
+
+from clausewise.core.laws import ConcreteLaw, _col, take_rows
+from clausewise.core.section import Section, SectionArrays
+
+Array = NDArray[np.float64]
+
+OK = 0
+NOT_BRACKETED = 1
+STRAIN_LIMIT = 2
+NOT_CONVERGED = 3
+
+STATUS_TEXT = {
+    OK: "equilibrium found with the extreme fibre at the ultimate concrete strain",
+    NOT_BRACKETED: "no equilibrium: the steel cannot balance the concrete at any depth",
+    STRAIN_LIMIT: "no equilibrium within the laws' limits: a steel layer passes its strain "
+    "limit before the concrete reaches its ultimate strain",
+    NOT_CONVERGED: "equilibrium iteration did not converge",
+}
+
+
+@dataclass(frozen=True)
+class _Forces:
+    net: Array
+    scale: Array
+    strain: Array
+    stress: Array
+    displaced: Array
+    strip_force: Array
+    strip_moment: Array
+
+
+def _forces(sec: SectionArrays, concrete: ConcreteLaw, c: Array) -> _Forces:
+    strain = _col(concrete.ultimate_strain) * (c[:, None] - sec.depths) / c[:, None]
+    stress = np.column_stack([law.stress(strain[:, j]) for j, law in enumerate(sec.steel)])
+    displaced = concrete.stress_at(c, sec.depths)
+    force_per_width, moment_per_width = concrete.strip_resultants(
+        c, sec.edges[:, :-1], sec.edges[:, 1:])
+    strip_force = sec.widths * force_per_width
+    strip_moment = sec.widths * moment_per_width
+    concrete_force = strip_force.sum(axis=1)
+    net = concrete_force + np.sum(sec.areas * (stress - displaced), axis=1)
+    scale = concrete_force + np.sum(sec.areas * np.abs(stress), axis=1)
+    return _Forces(net, scale, strain, stress, displaced, strip_force, strip_moment)
+
+
+def _net(sec: SectionArrays, concrete: ConcreteLaw, c: Array) -> tuple[Array, Array]:
+    f = _forces(sec, concrete, c)
+    return f.net, f.scale
+
+
+def find_neutral_axis(sec: SectionArrays, concrete: ConcreteLaw, *, rtol: float = 1e-12,
+                      max_iter: int = 200) -> tuple[Array, Array, Array]:
+    """Neutral-axis depth ``c`` (NaN where none exists), a status code and the
+    iteration count for every section of the batch.
+
+    Converged sections drop out of the working set, so a batch costs about the
+    average iteration count rather than the worst one.
+    """
+    n = sec.size
+    hi = sec.depths.max(axis=1)
+    lo = hi * 1e-9
+    f_lo, _ = _net(sec, concrete, lo)
+    f_hi, _ = _net(sec, concrete, hi)
+    bracketed = (f_lo < 0) & (f_hi > 0)
+    c = np.full(n, np.nan)
+    iterations = np.zeros(n, dtype=int)
+    status = np.where(bracketed, NOT_CONVERGED, NOT_BRACKETED)
+
+    rows = np.flatnonzero(bracketed)  # the working set, as indices into the batch
+    work, law = sec.take(rows), take_rows(concrete, rows, n)
+    a, fa, b, fb = lo[rows], f_lo[rows], hi[rows], f_hi[rows]  # N(a) < 0 < N(b)
+    side = np.zeros(rows.size)
+    for _ in range(max_iter):
+        if rows.size == 0:
+            break
+        secant = a - fa * (b - a) / (fb - fa)
+        x = np.where(np.isfinite(secant) & (secant > a) & (secant < b), secant, 0.5 * (a + b))
+        fx, scale = _net(work, law, x)
+        iterations[rows] += 1
+        converged = (np.abs(fx) <= rtol * scale) | (b - a <= 4e-16 * b)
+        c[rows[converged]] = x[converged]
+        status[rows[converged]] = OK
+        negative = fx < 0
+        # Illinois: halve the stale end's value when the same end moves twice running
+        fb = np.where(negative & (side < 0), 0.5 * fb, fb)
+        fa = np.where(~negative & (side > 0), 0.5 * fa, fa)
+        a, fa = np.where(negative, x, a), np.where(negative, fx, fa)
+        b, fb = np.where(negative, b, x), np.where(negative, fb, fx)
+        side = np.where(negative, -1.0, 1.0)
+        if np.any(converged):
+            keep = ~converged
+            rows, a, fa, b, fb, side = rows[keep], a[keep], fa[keep], b[keep], fb[keep], side[keep]
+            if rows.size:
+                local = np.flatnonzero(keep)
+                work, law = work.take(local), take_rows(law, local, keep.size)
+    c[rows] = 0.5 * (a + b)
+    return c, status, iterations
+
+
+@dataclass(frozen=True)
+class LayerResponse:
+    """One steel layer at the ultimate state (compression positive)."""
+
+    depth: float
+    area: float
+    strain: float
+    stress: float
+    force: float  # net of the concrete it displaces
+    displaced_concrete_stress: float
+    yielded: bool
+    within_strain_limit: bool
+
+
+@dataclass(frozen=True)
+class Response:
+    """A solved section. Forces in N, moments in N·mm, lengths in mm, compression positive."""
+
+    c: float
+    zone_depth: float
+    zone_reaches: str
+    block_in_flange: bool
+    block_case: str
+    layers: tuple[LayerResponse, ...]
+    concrete_force: float
+    concrete_depth: float
+    overhang_force: float
+    overhang_depth: float
+    web_force: float
+    web_depth: float
+    nominal_moment: float
+    net_tensile_strain: float
+    extreme_tension_depth: float
+    effective_depth: float
+    c_over_dt: float
+    c_over_d: float
+    residual: float
+    iterations: int
+    status: int
+    message: str
+
+    @property
+    def equilibrium(self) -> bool:
+        return self.status == OK
+
+
+def _centroid(moment: Array, force: Array) -> Array:
+    with np.errstate(invalid="ignore", divide="ignore"):
+        return np.where(force > 0, moment / np.where(force > 0, force, 1.0), np.nan)
+
+
+@dataclass(frozen=True)
+class ResponseArrays:
+    """The same quantities as ``Response`` for a batch, as arrays of shape (N,) — or
+    (N, m) for the per-layer ``layer_*`` fields."""
+
+    c: Array
+    zone_depth: Array
+    zone_strip: NDArray[np.int_]
+    labels: tuple[str, ...]
+    depths: Array
+    areas: Array
+    layer_strain: Array
+    layer_stress: Array
+    layer_force: Array
+    layer_displaced_stress: Array
+    layer_yielded: NDArray[np.bool_]
+    layer_within_limit: NDArray[np.bool_]
+    concrete_force: Array
+    concrete_depth: Array
+    overhang_force: Array
+    overhang_depth: Array
+    web_force: Array
+    web_depth: Array
+    nominal_moment: Array
+    net_tensile_strain: Array
+    extreme_tension_depth: Array
+    effective_depth: Array
+    c_over_dt: Array
+    c_over_d: Array
+    residual: Array
+    iterations: NDArray[np.int_]
+    status: NDArray[np.int_]
+
+    @property
+    def size(self) -> int:
+        return int(self.c.shape[0])
+
+    @property
+    def equilibrium(self) -> NDArray[np.bool_]:
+        return self.status == OK
+
+    @property
+    def block_in_flange(self) -> NDArray[np.bool_]:
+        return (self.zone_strip == 0) & (self.labels[0] == "flange")
+
+    def block_case(self, i: int) -> str:
+        if len(self.labels) == 1:
+            return "rectangular section"
+        reached = int(self.zone_strip[i])
+        if reached == 0:
+            return f"block inside the {self.labels[0]}"
+        return f"block enters the {self.labels[reached]}"
+
+    def row(self, i: int) -> Response:
+        layers = tuple(
+            LayerResponse(
+                depth=float(self.depths[i, j]), area=float(self.areas[i, j]),
+                strain=float(self.layer_strain[i, j]), stress=float(self.layer_stress[i, j]),
+                force=float(self.layer_force[i, j]),
+                displaced_concrete_stress=float(self.layer_displaced_stress[i, j]),
+                yielded=bool(self.layer_yielded[i, j]),
+                within_strain_limit=bool(self.layer_within_limit[i, j]),
+            )
+            for j in range(self.depths.shape[1])
+        )
+        status = int(self.status[i])
+        return Response(
+            c=float(self.c[i]), zone_depth=float(self.zone_depth[i]),
+            zone_reaches=self.labels[int(self.zone_strip[i])],
+            block_in_flange=bool(self.block_in_flange[i]), block_case=self.block_case(i),
+            layers=layers,
+            concrete_force=float(self.concrete_force[i]),
+            concrete_depth=float(self.concrete_depth[i]),
+            overhang_force=float(self.overhang_force[i]),
+            overhang_depth=float(self.overhang_depth[i]),
+            web_force=float(self.web_force[i]), web_depth=float(self.web_depth[i]),
+            nominal_moment=float(self.nominal_moment[i]),
+            net_tensile_strain=float(self.net_tensile_strain[i]),
+            extreme_tension_depth=float(self.extreme_tension_depth[i]),
+            effective_depth=float(self.effective_depth[i]),
+            c_over_dt=float(self.c_over_dt[i]), c_over_d=float(self.c_over_d[i]),
+            residual=float(self.residual[i]), iterations=int(self.iterations[i]),
+            status=status, message=STATUS_TEXT[status],
+        )
+
+
+def solve_arrays(sec: SectionArrays, concrete: ConcreteLaw, *, rtol: float = 1e-12,
+                 max_iter: int = 200) -> ResponseArrays:
+    """Solve every section of the batch under one concrete law (whose parameters may be
+    arrays of shape (N,))."""
+    c, status, iterations = find_neutral_axis(sec, concrete, rtol=rtol, max_iter=max_iter)
+    c_eval = np.where(np.isfinite(c), c, sec.depths.max(axis=1))
+    f = _forces(sec, concrete, c_eval)
+
+    strain_limit = np.column_stack([np.broadcast_to(np.asarray(law.strain_limit, float),
+                                                    sec.size) for law in sec.steel])
+    yield_strain = np.column_stack([np.broadcast_to(np.asarray(law.yield_strain, float),
+                                                    sec.size) for law in sec.steel])
+    within = np.abs(f.strain) <= strain_limit
+    status = np.where((status == OK) & ~np.all(within, axis=1), STRAIN_LIMIT, status)
+
+    layer_force = sec.areas * (f.stress - f.displaced)
+    web_width = sec.widths.min(axis=1, keepdims=True)
+    per_width_force = f.strip_force / sec.widths
+    per_width_moment = f.strip_moment / sec.widths
+    web_force = np.sum(web_width * per_width_force, axis=1)
+    web_moment = np.sum(web_width * per_width_moment, axis=1)
+    overhang_force = np.sum((sec.widths - web_width) * per_width_force, axis=1)
+    overhang_moment = np.sum((sec.widths - web_width) * per_width_moment, axis=1)
+    concrete_force = f.strip_force.sum(axis=1)
+    concrete_moment = f.strip_moment.sum(axis=1)
+
+    nominal_moment = -(concrete_moment + np.sum(layer_force * sec.depths, axis=1))
+    deepest = np.argmax(sec.depths, axis=1)
+    rows = np.arange(sec.size)
+    dt = sec.depths[rows, deepest]
+    in_tension = f.strain < 0
+    tension_area = np.sum(np.where(in_tension, sec.areas, 0.0), axis=1)
+    with np.errstate(invalid="ignore", divide="ignore"):
+        d_eff = np.sum(np.where(in_tension, sec.areas * sec.depths, 0.0), axis=1) / tension_area
+    zone = concrete.zone_depth(c_eval)
+    zone_strip = np.minimum(
+        np.sum(sec.edges[:, 1:-1] < zone[:, None] * (1 - 1e-12), axis=1), len(sec.labels) - 1)
+
+    invalid = status == NOT_BRACKETED
+
+    def valid(values: Array) -> Array:
+        return np.where(invalid, np.nan, values)
+
+    return ResponseArrays(
+        c=valid(c_eval), zone_depth=valid(zone), zone_strip=zone_strip, labels=sec.labels,
+        depths=sec.depths, areas=sec.areas,
+        layer_strain=f.strain, layer_stress=f.stress, layer_force=layer_force,
+        layer_displaced_stress=f.displaced,
+        layer_yielded=np.abs(f.strain) >= yield_strain * (1 - 1e-12),
+        layer_within_limit=within,
+        concrete_force=valid(concrete_force),
+        concrete_depth=valid(_centroid(concrete_moment, concrete_force)),
+        overhang_force=valid(overhang_force),
+        overhang_depth=valid(_centroid(overhang_moment, overhang_force)),
+        web_force=valid(web_force), web_depth=valid(_centroid(web_moment, web_force)),
+        nominal_moment=valid(nominal_moment),
+        net_tensile_strain=valid(-f.strain[rows, deepest]),
+        extreme_tension_depth=dt,
+        effective_depth=d_eff,
+        c_over_dt=valid(c_eval / dt),
+        c_over_d=valid(c_eval / d_eff),
+        residual=valid(np.abs(f.net) / f.scale),
+        iterations=iterations,
+        status=status,
+    )
+
+
+def solve(section: Section, concrete: ConcreteLaw, *, rtol: float = 1e-12) -> Response:
+    """Solve one section (a batch of one, so single and batch results are the same code)."""
+    return solve_arrays(section.to_arrays(), concrete, rtol=rtol).row(0)
