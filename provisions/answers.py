@@ -1,0 +1,79 @@
+"""What the topic hooks hand back to the engine, besides the plain vocabulary."""
+
+from __future__ import annotations
+
+from collections.abc import Iterator, Mapping
+from dataclasses import dataclass
+from typing import Any
+
+from clausewise.provisions.vocabulary import Clause, Factor, Parameter, Regime
+
+
+@dataclass(frozen=True)
+class EditionInfo:
+    """Who an edition is. ``extends`` names the edition it layers over; ``forms`` the
+    published forms it implements (the first is the default)."""
+
+    id: str
+    title: str
+    year: int
+    extends: str | None = None
+    forms: tuple[str, ...] = ("SI",)
+    summary: str = ""
+
+    def clause(self, ref: str, title: str) -> Clause:
+        """A clause of this edition (so that every value names its supplier)."""
+        return Clause(ref, title, self.id)
+
+
+@dataclass(frozen=True)
+class MaterialModel:
+    """A core material law together with the factors that produced it.
+
+    ``law`` is one of the laws re-exported by ``clausewise.provisions``
+    (RectangularBlock, ParabolaRectangle, ElasticPlastic, BilinearHardening,
+    PiecewiseLinear).
+    """
+
+    law: Any
+    factors: tuple[Factor, ...]
+
+
+@dataclass(frozen=True)
+class Resistance:
+    """The member factor applied to the nominal moment, the regime that set it, and
+    the clause that requires design strength at least the factored demand."""
+
+    factor: Factor
+    regime: Regime
+    requirement: Clause
+
+
+class Parameters(Mapping[str, Parameter]):
+    """An edition's named parameters after layering: the topmost edition that sets a
+    name wins, and each ``Parameter`` keeps the clause of whoever set it."""
+
+    def __init__(self, parameters: Mapping[str, Parameter]) -> None:
+        self._items = dict(parameters)
+
+    def __getitem__(self, name: str) -> Parameter:
+        try:
+            return self._items[name]
+        except KeyError:
+            known = ", ".join(sorted(self._items)) or "none"
+            raise KeyError(f"no parameter {name!r}; this edition has: {known}") from None
+
+    def __iter__(self) -> Iterator[str]:
+        return iter(self._items)
+
+    def __len__(self) -> int:
+        return len(self._items)
+
+    def value(self, name: str) -> Any:
+        return self[name].value
+
+    def cite(self, name: str) -> str:
+        """``name = value (supplier clause)``, for a Factor's basis line."""
+        p = self[name]
+        return f"{name} = {p.value:g} [{p.clause.edition} {p.clause.ref}]" if isinstance(
+            p.value, float | int) else f"{name} = {p.value} [{p.clause.edition} {p.clause.ref}]"

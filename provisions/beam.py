@@ -1,0 +1,172 @@
+"""The beam as every edition sees it: geometry, floor layout, materials, steel, actions.
+
+Units inside are N, mm and MPa (moments in N·mm). Numeric fields are floats for
+one beam or numpy arrays of shape (N,) for a batch of beams of the same kind
+(same shape, bending, layer counts); the rules read them the same way.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+from enum import Enum
+from typing import Any
+
+import numpy as np
+
+Value = Any  # float, or numpy array over a batch
+
+
+class Shape(str, Enum):
+    TEE = "T"
+    ELL = "L"
+    RECTANGLE = "rectangular"
+
+
+class Bending(str, Enum):
+    SAGGING = "sagging"  # compression on the slab (top) face
+    HOGGING = "hogging"  # compression on the soffit: the web is compressed, the slab in tension
+
+
+class Continuity(str, Enum):
+    """Where the span sits in the floor, as the effective-width rules need it."""
+
+    SIMPLE = "simple"  # simply supported, single span
+    END = "end"  # end span of a continuous beam
+    INTERIOR = "interior"  # interior span of a continuous beam
+    CANTILEVER = "cantilever"
+
+
+class StrengthBasis(str, Enum):
+    CYLINDER = "cylinder"
+    CUBE = "cube"
+
+
+class UnitSystem(str, Enum):
+    SI = "SI"
+    US = "US"  # US customary: inch-pound
+
+
+@dataclass(frozen=True)
+class Layer:
+    """Bars at one depth: ``area`` (mm²) at ``depth`` (mm) from the compression face."""
+
+    area: Value
+    depth: Value
+
+
+@dataclass(frozen=True)
+class FloorLayout:
+    """What effective-width rules need from the floor plan (lengths in mm).
+
+    ``clear_left`` / ``clear_right``: clear distance from this web's face to the
+    face of the next web on that side; ``None`` where there is no slab on that
+    side (an edge beam's free side). ``zero_moment_length``: distance between
+    points of zero moment where the engineer knows it. ``adjacent_span``: for a
+    section over a support, the span on the other side.
+    """
+
+    span: Value
+    continuity: Continuity = Continuity.SIMPLE
+    clear_span: Value | None = None
+    clear_left: Value | None = None
+    clear_right: Value | None = None
+    zero_moment_length: Value | None = None
+    adjacent_span: Value | None = None
+
+
+@dataclass(frozen=True)
+class Actions:
+    """Moments in N·mm in the beam's bending sense: service dead and live, or a factored one."""
+
+    dead: Value | None = None
+    live: Value | None = None
+    factored: Value | None = None
+
+
+@dataclass(frozen=True)
+class Beam:
+    """A flanged (or rectangular) beam in internal units, ready for any edition."""
+
+    id: str
+    shape: Shape
+    bending: Bending
+    web_width: Value
+    depth: Value
+    concrete_strength: Value  # specified (characteristic) strength in MPa, on ``strength_basis``
+    yield_strength: Value  # specified yield strength of the reinforcement, MPa
+    tension: tuple[Layer, ...]
+    compression: tuple[Layer, ...] = ()
+    flange_thickness: Value | None = None
+    flange_width: Value | None = None  # an effective width the engineer gives outright
+    layout: FloorLayout | None = None
+    strength_basis: StrengthBasis = StrengthBasis.CYLINDER
+    steel_modulus: Value | None = None  # None: the edition's value
+    steel_kind: str = "hot-rolled"  # or "cold-worked" (IS 456 Fig. 23 curve), "mild"
+    ductility_class: str = "N"
+    actions: Actions = field(default_factory=Actions)
+    unit_system: UnitSystem = UnitSystem.SI
+    statically_determinate: bool = False
+    title: str = ""
+
+    @property
+    def flanged(self) -> bool:
+        return self.shape is not Shape.RECTANGLE
+
+    @property
+    def flange_in_compression(self) -> bool:
+        return self.flanged and self.bending is Bending.SAGGING
+
+    @property
+    def size(self) -> int:
+        """1 for a single beam, N for a batch."""
+        return int(np.size(self.web_width)) if np.ndim(self.web_width) else 1
+
+    @property
+    def is_batch(self) -> bool:
+        return bool(np.ndim(self.web_width))
+
+    @property
+    def tension_area(self) -> Value:
+        return _sum(layer.area for layer in self.tension)
+
+    @property
+    def compression_area(self) -> Value:
+        return _sum(layer.area for layer in self.compression) if self.compression else 0.0
+
+    @property
+    def effective_depth(self) -> Value:
+        """Centroid of the tension reinforcement from the compression face (d)."""
+        moment = _sum(layer.area * np.asarray(layer.depth, float) for layer in self.tension)
+        return _scalar(moment / np.asarray(self.tension_area, float))
+
+    @property
+    def extreme_tension_depth(self) -> Value:
+        """Depth of the tension layer farthest from the compression face (dt)."""
+        return _scalar(np.maximum.reduce([np.asarray(layer.depth, float)
+                                          for layer in self.tension]))
+
+    def slab_sides(self) -> int:
+        """How many sides carry a slab overhang: 2 for a T, 1 for an L, 0 for a rectangle."""
+        return {Shape.TEE: 2, Shape.ELL: 1, Shape.RECTANGLE: 0}[self.shape]
+
+
+def _sum(values: Any) -> Value:
+    total = sum(np.asarray(v, float) for v in values)
+    return _scalar(np.asarray(total, float))
+
+
+def _scalar(value: np.ndarray) -> Value:
+    return value if np.ndim(value) else float(value)
+
+
+@dataclass(frozen=True)
+class Context:
+    """Choices of the run that are not properties of the beam.
+
+    ``form``: which published form of an edition to use ("SI", "inch-pound"),
+    resolved by the engine before any rule runs. ``situation``: design
+    situation for partial factors ("persistent" or "accidental").
+    """
+
+    form: str = "SI"
+    situation: str = "persistent"

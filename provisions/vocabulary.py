@@ -1,0 +1,219 @@
+"""The rule vocabulary editions speak: every number carries where it comes from.
+
+Values may be floats (one audited beam) or numpy arrays (a batch of beams of the
+same shape); every class and helper here works unchanged on both.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Sequence
+from dataclasses import dataclass, field
+from enum import Enum
+from typing import Any
+
+import numpy as np
+from numpy.typing import ArrayLike
+
+Value = Any  # a float, or a numpy array over a batch of beams
+
+
+@dataclass(frozen=True)
+class Clause:
+    """Where a value comes from: a clause reference, our own short title, and the
+    edition (or file) that supplied it."""
+
+    ref: str
+    title: str
+    edition: str = ""
+
+    def __str__(self) -> str:
+        where = f"{self.edition} " if self.edition else ""
+        return f"{where}{self.ref} ({self.title})"
+
+
+@dataclass(frozen=True)
+class Factor:
+    """One derived value with its symbol, clause and a one-line basis."""
+
+    symbol: str
+    value: Value
+    clause: Clause
+    basis: str = ""
+    unit: str = ""
+
+
+@dataclass(frozen=True)
+class Parameter:
+    """A named, overridable value of an edition (a nationally determined parameter,
+    a firm's preferred limit). ``bounds`` are the values a file may set it to."""
+
+    name: str
+    value: float | str
+    clause: Clause
+    description: str = ""
+    bounds: tuple[float, float] | None = None
+    unit: str = ""
+
+
+@dataclass(frozen=True)
+class Candidate:
+    label: str
+    value: Value
+    clause: Clause
+
+
+class Bound(str, Enum):
+    SMALLEST = "smallest"
+    LARGEST = "largest"
+
+
+@dataclass(frozen=True)
+class Envelope:
+    """Several candidates of which the smallest (or largest) governs.
+
+    ``governing`` is the index of the governing candidate (an int array over a
+    batch); ``value`` its value.
+    """
+
+    name: str
+    symbol: str
+    bound: Bound
+    candidates: tuple[Candidate, ...]
+    unit: str = ""
+    governing: Any = field(init=False)
+    value: Value = field(init=False)
+
+    def __post_init__(self) -> None:
+        if not self.candidates:
+            raise ValueError(f"envelope {self.name!r} needs at least one candidate")
+        stack = np.array(np.broadcast_arrays(*[np.asarray(c.value, float)
+                                               for c in self.candidates]))
+        pick = np.argmin if self.bound is Bound.SMALLEST else np.argmax
+        index = pick(stack, axis=0)
+        value = np.take_along_axis(stack, index[None, ...], axis=0)[0]
+        object.__setattr__(self, "governing", index if index.ndim else int(index))
+        object.__setattr__(self, "value", value if value.ndim else float(value))
+
+    @classmethod
+    def smallest(cls, name: str, symbol: str, candidates: Sequence[Candidate],
+                 unit: str = "") -> Envelope:
+        return cls(name, symbol, Bound.SMALLEST, tuple(candidates), unit)
+
+    @classmethod
+    def largest(cls, name: str, symbol: str, candidates: Sequence[Candidate],
+                unit: str = "") -> Envelope:
+        return cls(name, symbol, Bound.LARGEST, tuple(candidates), unit)
+
+    @property
+    def governing_candidate(self) -> Candidate:
+        """The governing candidate of a single beam."""
+        return self.candidates[int(self.governing)]
+
+    def excess(self, candidate: Candidate) -> Value:
+        """How far a candidate lies beyond the governing value (0 for the governing one)."""
+        return np.abs(np.asarray(candidate.value, float) - self.value)
+
+
+class Sense(str, Enum):
+    AT_MOST = "at most"
+    AT_LEAST = "at least"
+
+
+@dataclass(frozen=True)
+class Check:
+    """A verification ``value`` at most (or at least) ``limit``.
+
+    Utilisation is value/limit for an upper bound and limit/value for a lower
+    bound, so in both senses a utilisation above 1 fails.
+    """
+
+    name: str
+    value: Value
+    limit: Value
+    sense: Sense
+    clause: Clause
+    symbol: str = ""
+    unit: str = ""
+    note: str = ""
+
+    @property
+    def utilisation(self) -> Value:
+        value = np.asarray(self.value, float)
+        limit = np.asarray(self.limit, float)
+        with np.errstate(divide="ignore", invalid="ignore"):
+            if self.sense is Sense.AT_MOST:
+                u = np.where(limit > 0, value / np.where(limit > 0, limit, 1.0),
+                             np.where(value > 0, np.inf, 0.0))
+            else:
+                u = np.where(value > 0, limit / np.where(value > 0, value, 1.0),
+                             np.where(limit > 0, np.inf, 0.0))
+        u = np.where(np.isnan(value) | np.isnan(limit), np.inf, u)
+        return u if u.ndim else float(u)
+
+    @property
+    def passed(self) -> Value:
+        ok = np.asarray(self.utilisation) <= 1.0 + 1e-12
+        return ok if ok.ndim else bool(ok)
+
+    @property
+    def margin(self) -> Value:
+        """Limit minus value for an upper bound, value minus limit for a lower bound."""
+        value, limit = np.asarray(self.value, float), np.asarray(self.limit, float)
+        m = limit - value if self.sense is Sense.AT_MOST else value - limit
+        return m if m.ndim else float(m)
+
+
+@dataclass(frozen=True)
+class Regime:
+    """A named state of the section with the clause that defines it."""
+
+    name: str
+    clause: Clause
+    description: str = ""
+
+
+# --- rule helpers: the same call on floats and on arrays ----------------------------
+
+def _out(value: np.ndarray) -> Value:
+    """Arrays stay arrays; a 0-d result becomes a plain Python value."""
+    return value if value.ndim else value.item()
+
+
+def clamp(value: ArrayLike, lower: ArrayLike, upper: ArrayLike) -> Value:
+    return _out(np.clip(np.asarray(value, float), lower, upper))
+
+
+def interpolate(x: ArrayLike, xs: Sequence[float], ys: Sequence[float]) -> Value:
+    """Linear interpolation in a table, held constant beyond its ends."""
+    return _out(np.interp(np.asarray(x, float), xs, ys))
+
+
+def smallest_of(*values: ArrayLike) -> Value:
+    return _out(np.minimum.reduce(np.broadcast_arrays(*[np.asarray(v, float) for v in values])))
+
+
+def largest_of(*values: ArrayLike) -> Value:
+    return _out(np.maximum.reduce(np.broadcast_arrays(*[np.asarray(v, float) for v in values])))
+
+
+def choose(condition: ArrayLike, if_true: ArrayLike, if_false: ArrayLike) -> Value:
+    """``if_true`` where ``condition`` holds, else ``if_false``: an ``if`` for rules."""
+    return _out(np.where(condition, if_true, if_false))
+
+
+def sqrt(value: ArrayLike) -> Value:
+    return _out(np.sqrt(np.asarray(value, float)))
+
+
+def power(value: ArrayLike, exponent: ArrayLike) -> Value:
+    return _out(np.power(np.asarray(value, float), exponent))
+
+
+def log(value: ArrayLike) -> Value:
+    return _out(np.log(np.asarray(value, float)))
+
+
+def is_within(value: ArrayLike, lower: ArrayLike, upper: ArrayLike) -> Value:
+    v = np.asarray(value, float)
+    inside = (v >= lower) & (v <= upper)
+    return inside if inside.ndim else bool(inside)
