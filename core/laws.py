@@ -255,7 +255,7 @@ def stack_laws(laws: list[_Law]) -> _Law:
         return np.array([np.asarray(v, dtype=float) for v in values])
 
     return kind(**{f.name: stacked([getattr(law, f.name) for law in laws])
-                   for f in fields(kind)})  # type: ignore[call-arg, arg-type]
+                   for f in fields(kind)})  # type: ignore[arg-type]
 
 
 def take_rows(law: _Law, rows: NDArray[np.int_], size: int) -> _Law:

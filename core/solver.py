@@ -69,7 +69,7 @@ def _net(sec: SectionArrays, concrete: ConcreteLaw, c: Array) -> tuple[Array, Ar
 
 
 def find_neutral_axis(sec: SectionArrays, concrete: ConcreteLaw, *, rtol: float = 1e-12,
-                      max_iter: int = 200) -> tuple[Array, Array, Array]:
+                      max_iter: int = 200) -> tuple[Array, NDArray[np.int_], NDArray[np.int_]]:
     """Neutral-axis depth ``c`` (NaN where none exists), a status code and the
     iteration count for every section of the batch.
 
@@ -84,7 +84,7 @@ def find_neutral_axis(sec: SectionArrays, concrete: ConcreteLaw, *, rtol: float 
     bracketed = (f_lo < 0) & (f_hi > 0)
     c = np.full(n, np.nan)
     iterations = np.zeros(n, dtype=int)
-    status = np.where(bracketed, NOT_CONVERGED, NOT_BRACKETED)
+    status: NDArray[np.int_] = np.where(bracketed, NOT_CONVERGED, NOT_BRACKETED)
 
     rows = np.flatnonzero(bracketed)  # the working set, as indices into the batch
     work, law = sec.take(rows), take_rows(concrete, rows, n)

@@ -8,7 +8,7 @@ one beam or numpy arrays of shape (N,) for a batch of beams of the same kind
 from __future__ import annotations
 
 from dataclasses import dataclass, field
-from enum import Enum
+from enum import StrEnum
 from typing import Any
 
 import numpy as np
@@ -16,18 +16,18 @@ import numpy as np
 Value = Any  # float, or numpy array over a batch
 
 
-class Shape(str, Enum):
+class Shape(StrEnum):
     TEE = "T"
     ELL = "L"
     RECTANGLE = "rectangular"
 
 
-class Bending(str, Enum):
+class Bending(StrEnum):
     SAGGING = "sagging"  # compression on the slab (top) face
     HOGGING = "hogging"  # compression on the soffit: the web is compressed, the slab in tension
 
 
-class Continuity(str, Enum):
+class Continuity(StrEnum):
     """Where the span sits in the floor, as the effective-width rules need it."""
 
     SIMPLE = "simple"  # simply supported, single span
@@ -36,12 +36,12 @@ class Continuity(str, Enum):
     CANTILEVER = "cantilever"
 
 
-class StrengthBasis(str, Enum):
+class StrengthBasis(StrEnum):
     CYLINDER = "cylinder"
     CUBE = "cube"
 
 
-class UnitSystem(str, Enum):
+class UnitSystem(StrEnum):
     SI = "SI"
     US = "US"  # US customary: inch-pound
 

@@ -118,7 +118,7 @@ def resolve_form(edition: Edition, beam: Beam, form: str | None) -> tuple[str, s
 def build_section(beam: Beam, width: Any, steel: MaterialModel) -> SectionArrays:
     """The core section of a beam with a given (effective) flange width."""
     layers = (*beam.tension, *beam.compression)
-    if beam.flanged:
+    if beam.flanged and beam.flange_thickness is not None:
         thicknesses, widths, labels = flanged_profile(
             width, beam.web_width, beam.flange_thickness, beam.depth,
             flange_in_compression=beam.flange_in_compression)

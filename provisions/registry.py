@@ -87,7 +87,7 @@ class Registry:
             for name in wanted:
                 ep = available[name]
                 dist = ep.dist
-                self._add(name, f"entry point {ep.value}", dist.name if dist else "?",
+                self._add(str(name), f"entry point {ep.value}", dist.name if dist else "?",
                           dist.version if dist else "?", ep.load)
             loaded = {r.name for r in self.records}
             bases = {r.info.extends for r in self.records if r.ok and r.info
@@ -97,7 +97,7 @@ class Registry:
     def register(self, plugin: Any, name: str | None = None, *, source: str = "registered "
                  "in code", distribution: str = "", version: str = "") -> PluginRecord:
         """Add a plugin object (module, class instance) that is not an entry point."""
-        label = name or getattr(plugin, "__name__", type(plugin).__name__)
+        label = str(name or getattr(plugin, "__name__", type(plugin).__name__))
         return self._add(label, source, distribution, version, lambda: plugin)
 
     def _add(self, name: str, source: str, distribution: str, version: str,

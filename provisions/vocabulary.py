@@ -8,7 +8,7 @@ from __future__ import annotations
 
 from collections.abc import Sequence
 from dataclasses import dataclass, field
-from enum import Enum
+from enum import StrEnum
 from typing import Any
 
 import numpy as np
@@ -62,7 +62,7 @@ class Candidate:
     clause: Clause
 
 
-class Bound(str, Enum):
+class Bound(StrEnum):
     SMALLEST = "smallest"
     LARGEST = "largest"
 
@@ -114,7 +114,7 @@ class Envelope:
         return np.abs(np.asarray(candidate.value, float) - self.value)
 
 
-class Sense(str, Enum):
+class Sense(StrEnum):
     AT_MOST = "at most"
     AT_LEAST = "at least"
 
