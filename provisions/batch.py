@@ -1,0 +1,349 @@
+"""Many beams under many editions through the same pipeline, on arrays.
+
+Beams are grouped by kind (everything a rule may branch on: shape, bending,
+layer counts, which optional inputs are given, unit system ...), each group is
+stacked into one array-valued ``Beam`` and run through ``engine.evaluate`` once
+per edition. Results stay columnar (:class:`BatchTable`) so a million rows cost
+numpy time, not Python time. Rows outside an edition's scope are cut out before
+the mechanics, exactly as the single-beam path stops after applicability.
+
+If a group raises (a plugin fault, a degenerate beam), its beams are retried one
+at a time so that one bad beam is reported and the rest go on.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Iterable, Iterator, Sequence
+from dataclasses import dataclass, fields, replace
+from operator import attrgetter
+from typing import Any
+
+import numpy as np
+from numpy.typing import NDArray
+
+from clausewise.core.errors import ClausewiseError
+from clausewise.provisions.beam import Actions, Beam, Context, FloorLayout, Layer
+from clausewise.provisions.engine import (
+    FAIL,
+    NO_EQUILIBRIUM,
+    OUT_OF_SCOPE,
+    PASS,
+    evaluate,
+    resolve_form,
+)
+from clausewise.provisions.registry import Edition, Registry, default_registry
+
+ERROR = "error"
+_NUMERIC_PARTS = (Beam, FloorLayout, Actions, Layer)
+
+
+# --- grouping and stacking -------------------------------------------------------------
+
+def kind_of(beam: Beam) -> tuple[Any, ...]:
+    """Everything about a beam that is not a number: beams of one kind stack together."""
+    layout, actions = beam.layout, beam.actions
+    return (
+        beam.shape, beam.bending, len(beam.tension), len(beam.compression),
+        beam.flange_thickness is None, beam.flange_width is None, beam.strength_basis,
+        beam.steel_modulus is None, beam.steel_kind, beam.ductility_class, beam.unit_system,
+        beam.statically_determinate,
+        None if layout is None else (
+            layout.continuity, layout.clear_span is None, layout.clear_left is None,
+            layout.clear_right is None, layout.zero_moment_length is None,
+            layout.adjacent_span is None),
+        actions.dead is None, actions.live is None, actions.factored is None,
+    )
+
+
+def _is_number(value: Any) -> bool:
+    return isinstance(value, int | float | np.floating | np.integer) and not isinstance(
+        value, bool)
+
+
+def _stack_numbers(template: Any, objs: list[Any]) -> Any:
+    """``template`` with each numeric field replaced by the array of that field over objs."""
+    changes: dict[str, Any] = {}
+    for f in fields(template):
+        value = getattr(template, f.name)
+        if _is_number(value):
+            changes[f.name] = np.fromiter(map(attrgetter(f.name), objs), float, len(objs))
+    return replace(template, **changes)
+
+
+def _stack_layers(layers: list[tuple[Layer, ...]]) -> tuple[Layer, ...]:
+    if not layers[0]:
+        return ()
+    return tuple(_stack_numbers(layers[0][j], [group[j] for group in layers])
+                 for j in range(len(layers[0])))
+
+
+def stack_beams(beams: Sequence[Beam]) -> Beam:
+    """One array-valued beam from beams of one kind."""
+    items = list(beams)
+    first = items[0]
+    batch = _stack_numbers(replace(first, id=f"batch of {len(items)}", title=""), items)
+    layout = None if first.layout is None else _stack_numbers(
+        first.layout, [b.layout for b in items])
+    return replace(batch, layout=layout,
+                   actions=_stack_numbers(first.actions, [b.actions for b in items]),
+                   tension=_stack_layers([b.tension for b in items]),
+                   compression=_stack_layers([b.compression for b in items]))
+
+
+def take_beam(batch: Beam, rows: NDArray[np.int_]) -> Beam:
+    """The rows of an array-valued beam, as a smaller batch."""
+
+    def taken(obj: Any) -> Any:
+        if isinstance(obj, _NUMERIC_PARTS):
+            return replace(obj, **{f.name: taken(getattr(obj, f.name)) for f in fields(obj)
+                                   if f.name not in ("id", "title")})
+        if isinstance(obj, tuple):
+            return tuple(taken(o) for o in obj)
+        if isinstance(obj, np.ndarray):
+            return obj[rows]
+        return obj
+
+    return taken(batch)
+
+
+# --- the columnar result ---------------------------------------------------------------
+
+@dataclass
+class BatchTable:
+    """Results of many beams under one edition; one entry per beam in every column."""
+
+    edition_id: str
+    beam_ids: list[str]
+    form: NDArray[np.str_]
+    status: NDArray[np.str_]
+    nominal_moment: NDArray[np.float64]
+    design_resistance: NDArray[np.float64]
+    demand: NDArray[np.float64]
+    resistance_factor: NDArray[np.float64]
+    neutral_axis: NDArray[np.float64]
+    net_tensile_strain: NDArray[np.float64]
+    effective_width: NDArray[np.float64]
+    regime: NDArray[np.str_]
+    block_case: NDArray[np.str_]
+    governing_check: NDArray[np.str_]
+    governing_clause: NDArray[np.str_]
+    governing_utilisation: NDArray[np.float64]
+    utilisation: dict[str, NDArray[np.float64]]
+    governing_candidate: dict[str, NDArray[np.str_]]
+    message: NDArray[np.str_]
+
+    @property
+    def size(self) -> int:
+        return len(self.beam_ids)
+
+    @classmethod
+    def empty(cls, edition_id: str, beam_ids: list[str]) -> BatchTable:
+        n = len(beam_ids)
+
+        def text(value: str = "") -> NDArray[np.str_]:
+            return np.full(n, value, dtype=object)
+
+        nan = np.full(n, np.nan)
+        return cls(edition_id, list(beam_ids), text(), text(ERROR), nan.copy(), nan.copy(),
+                   nan.copy(), nan.copy(), nan.copy(), nan.copy(), nan.copy(), text(),
+                   text(), text(), text(), nan.copy(), {}, {}, text())
+
+    def fill(self, rows: NDArray[np.int_], other: BatchTable) -> None:
+        """Write ``other``'s rows into ``rows`` of this table."""
+        for f in fields(self):
+            mine, theirs = getattr(self, f.name), getattr(other, f.name)
+            if isinstance(mine, np.ndarray):
+                mine[rows] = theirs
+            elif isinstance(mine, dict):
+                for key, column in theirs.items():
+                    if key not in mine:
+                        empty = np.full(self.size, np.nan) if column.dtype.kind == "f" else \
+                            np.full(self.size, "", dtype=object)
+                        mine[key] = empty
+                    mine[key][rows] = column
+
+    def row(self, i: int) -> dict[str, Any]:
+        """One beam's result as plain values (for JSON lines and reports)."""
+        return {
+            "beam": self.beam_ids[i], "edition": self.edition_id, "form": str(self.form[i]),
+            "status": str(self.status[i]),
+            "nominal_moment": _num(self.nominal_moment[i]),
+            "design_resistance": _num(self.design_resistance[i]),
+            "demand": _num(self.demand[i]),
+            "resistance_factor": _num(self.resistance_factor[i]),
+            "neutral_axis": _num(self.neutral_axis[i]),
+            "net_tensile_strain": _num(self.net_tensile_strain[i]),
+            "effective_width": _num(self.effective_width[i]),
+            "regime": str(self.regime[i]), "block_case": str(self.block_case[i]),
+            "governing_check": str(self.governing_check[i]),
+            "governing_clause": str(self.governing_clause[i]),
+            "governing_utilisation": _num(self.governing_utilisation[i]),
+            "utilisation": {k: _num(v[i]) for k, v in self.utilisation.items()
+                            if np.isfinite(v[i]) or np.isinf(v[i])},
+            "governing_candidate": {k: str(v[i]) for k, v in self.governing_candidate.items()
+                                    if v[i]},
+            "message": str(self.message[i]),
+        }
+
+
+def _num(value: Any) -> float | None:
+    v = float(value)
+    return None if np.isnan(v) else v
+
+
+# --- one group under one edition ------------------------------------------------------
+
+def _texts(value: Any, n: int) -> NDArray[np.str_]:
+    return np.asarray(np.broadcast_to(np.asarray(value, dtype=object), (n,)), dtype=object)
+
+
+def _floats(value: Any, n: int) -> NDArray[np.float64]:
+    return np.array(np.broadcast_to(np.asarray(value, dtype=float), (n,)), dtype=float)
+
+
+def _block_cases(response: Any) -> NDArray[np.str_]:
+    labels = response.labels
+    if len(labels) == 1:
+        return _texts("rectangular section", response.size)
+    names = np.array([f"block inside the {labels[0]}"]
+                     + [f"block enters the {label}" for label in labels[1:]], dtype=object)
+    return names[response.zone_strip]
+
+
+def _scope_table(edition: Edition, ids: list[str], form: str, checks: Sequence[Any],
+                 in_scope: NDArray[np.bool_]) -> BatchTable:
+    n = len(ids)
+    table = BatchTable.empty(edition.id, ids)
+    table.form[:] = form
+    table.status[:] = np.where(in_scope, PASS, OUT_OF_SCOPE)
+    if checks:
+        util = np.array([_floats(c.utilisation, n) for c in checks])
+        worst = np.argmax(util, axis=0)
+        table.governing_check[:] = np.array([c.name for c in checks], dtype=object)[worst]
+        table.governing_clause[:] = np.array([f"{c.clause.edition} {c.clause.ref}"
+                                              for c in checks], dtype=object)[worst]
+        table.governing_utilisation[:] = util[worst, np.arange(n)]
+        for c, u in zip(checks, util, strict=True):
+            table.utilisation[c.name] = u
+    table.message[:] = np.where(in_scope, "", "outside the edition's scope")
+    return table
+
+
+def _group_table(edition: Edition, batch: Beam, ids: list[str], context: Context) -> BatchTable:
+    """Evaluate one stacked group under one edition."""
+    n = len(ids)
+    params = edition.parameters(context)
+    scope_checks = edition.applicability(batch, params, context)
+    in_scope = np.ones(n, dtype=bool)
+    for c in scope_checks:
+        in_scope &= np.asarray(np.broadcast_to(c.passed, (n,)), dtype=bool)
+    table = _scope_table(edition, ids, context.form, scope_checks, in_scope)
+    rows = np.flatnonzero(in_scope)
+    if rows.size == 0:
+        return table
+    sub = take_beam(batch, rows) if rows.size < n else batch
+    ev = evaluate(sub, edition, context)
+    m = rows.size
+    resp = ev.response
+    part = BatchTable.empty(edition.id, [ids[i] for i in rows])
+    part.form[:] = context.form
+    part.nominal_moment[:] = resp.nominal_moment
+    part.design_resistance[:] = _floats(ev.design_resistance.value, m)  # type: ignore[union-attr]
+    part.demand[:] = _floats(ev.demand.value, m) if ev.demand is not None else np.nan
+    part.resistance_factor[:] = _floats(ev.resistance.factor.value, m)  # type: ignore[union-attr]
+    part.neutral_axis[:] = resp.c
+    part.net_tensile_strain[:] = resp.net_tensile_strain
+    if ev.effective_width is not None:
+        part.effective_width[:] = _floats(ev.effective_width.value, m)
+        part.governing_candidate[ev.effective_width.name] = _labels(ev.effective_width, m)
+    if ev.demand is not None:
+        part.governing_candidate[ev.demand.name] = _labels(ev.demand, m)
+    part.regime[:] = _texts(ev.resistance.regime.name, m)  # type: ignore[union-attr]
+    part.block_case[:] = _block_cases(resp)
+    checks = ev.checks
+    for c in scope_checks:
+        part.utilisation[c.name] = table.utilisation[c.name][rows]
+    if checks:
+        util = np.array([_floats(c.utilisation, m) for c in checks])
+        worst = np.argmax(util, axis=0)
+        part.governing_check[:] = np.array([c.name for c in checks], dtype=object)[worst]
+        part.governing_clause[:] = np.array([f"{c.clause.edition} {c.clause.ref}"
+                                             for c in checks], dtype=object)[worst]
+        part.governing_utilisation[:] = util[worst, np.arange(m)]
+        for c, u in zip(checks, util, strict=True):
+            part.utilisation[c.name] = u
+        passed = np.all(util <= 1.0 + 1e-12, axis=0)
+    else:
+        part.governing_check[:] = ""
+        passed = np.ones(m, dtype=bool)
+    equilibrium = resp.equilibrium
+    part.status[:] = np.where(~equilibrium, NO_EQUILIBRIUM, np.where(passed, PASS, FAIL))
+    part.message[:] = np.where(equilibrium, "", "no equilibrium within the laws' limits")
+    table.fill(rows, part)
+    return table
+
+
+def _labels(envelope: Any, n: int) -> NDArray[np.str_]:
+    labels = np.array([c.label for c in envelope.candidates], dtype=object)
+    return labels[np.asarray(np.broadcast_to(envelope.governing, (n,)), dtype=int)]
+
+
+def _single_table(edition: Edition, beam: Beam, form: str | None,
+                  situation: str) -> BatchTable:
+    """One beam through the batch path; a fault is recorded against that beam alone."""
+    try:
+        chosen, _ = resolve_form(edition, beam, form)
+        return _group_table(edition, stack_beams([beam]), [beam.id],
+                            Context(form=chosen, situation=situation))
+    except (ClausewiseError, ValueError, ArithmeticError) as exc:
+        table = BatchTable.empty(edition.id, [beam.id])
+        table.message[:] = f"{type(exc).__name__}: {exc}"
+        return table
+
+
+# --- the public entry points --------------------------------------------------------------
+
+def iter_assess_many(beams: Sequence[Beam], editions: Iterable[str | Edition], *,
+                     form: str | None = None, situation: str = "persistent",
+                     registry: Registry | None = None, chunk: int = 50_000
+                     ) -> Iterator[tuple[NDArray[np.int_], BatchTable]]:
+    """Yield ``(indices into beams, table)`` as each group chunk is done under each edition,
+    so results can be written while the rest is still computing."""
+    reg = registry or default_registry()
+    resolved = [reg.edition(e) if isinstance(e, str) else e for e in editions]
+    groups: dict[tuple[Any, ...], list[int]] = {}
+    for i, beam in enumerate(beams):
+        groups.setdefault(kind_of(beam), []).append(i)
+    for edition in resolved:
+        for members in groups.values():
+            for start in range(0, len(members), chunk):
+                index = np.array(members[start:start + chunk])
+                group = [beams[i] for i in index]
+                yield index, _chunk_table(edition, group, form, situation)
+
+
+def _chunk_table(edition: Edition, group: list[Beam], form: str | None,
+                 situation: str) -> BatchTable:
+    try:
+        chosen, _ = resolve_form(edition, group[0], form)
+        return _group_table(edition, stack_beams(group), [b.id for b in group],
+                            Context(form=chosen, situation=situation))
+    except (ClausewiseError, ValueError, ArithmeticError):
+        tables = [_single_table(edition, b, form, situation) for b in group]
+        merged = BatchTable.empty(edition.id, [b.id for b in group])
+        for i, t in enumerate(tables):
+            merged.fill(np.array([i]), t)
+        return merged
+
+
+def assess_many(beams: Sequence[Beam], editions: Iterable[str | Edition], *,
+                form: str | None = None, situation: str = "persistent",
+                registry: Registry | None = None) -> dict[str, BatchTable]:
+    """Assess every beam under every edition; one table per edition, rows in input order."""
+    ids = [b.id for b in beams]
+    out: dict[str, BatchTable] = {}
+    for index, table in iter_assess_many(beams, editions, form=form, situation=situation,
+                                         registry=registry):
+        target = out.setdefault(table.edition_id, BatchTable.empty(table.edition_id, ids))
+        target.fill(index, table)
+    return out
