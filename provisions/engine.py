@@ -14,6 +14,7 @@ import numpy as np
 
 from clausewise.core import (
     Response,
+    SectionError,
     ResponseArrays,
     SectionArrays,
     cracking_moment,
@@ -132,6 +133,9 @@ def build_section(beam: Beam, width: Any, steel: MaterialModel) -> SectionArrays
 def evaluate(beam: Beam, edition: Edition, context: Context) -> Evaluation:
     """Run every topic of ``edition`` on ``beam``; stop after applicability when a single
     beam is outside the edition's scope."""
+    if beam.flanged and beam.flange_thickness is None:
+        raise SectionError(f"beam {beam.id!r}: a {beam.shape.value} beam needs its flange "
+                           "(slab) thickness hf in mm")
     params = edition.parameters(context)
     applicability = tuple(edition.applicability(beam, params, context))
     in_scope = _all_passed(applicability)

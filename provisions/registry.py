@@ -186,6 +186,8 @@ class Edition:
 
     layers: tuple[PluginRecord, ...]
     _pm: pluggy.PluginManager = field(init=False, repr=False, compare=False)
+    _parameters: dict[Context, Parameters] = field(init=False, repr=False, compare=False,
+                                                   default_factory=dict)
 
     def __post_init__(self) -> None:
         pm = pluggy.PluginManager(hookspecs.PROJECT)
@@ -216,12 +218,17 @@ class Edition:
                               f"{type(exc).__name__}: {exc}") from exc
 
     def parameters(self, context: Context) -> Parameters:
+        """Named parameters after layering (they do not depend on the beam, so each
+        context is asked once)."""
+        if context in self._parameters:
+            return self._parameters[context]
         merged: dict[str, Parameter] = {}
         for answer in reversed(self._call("edition_parameters", context=context)):
             for parameter in answer:
                 _returned(self, "edition_parameters", parameter, Parameter)
                 merged[parameter.name] = parameter
-        return Parameters(merged)
+        self._parameters[context] = Parameters(merged)
+        return self._parameters[context]
 
     def applicability(self, beam: Beam, params: Parameters, context: Context) -> list[Check]:
         return self._checks("applicability", beam=beam, params=params, context=context)

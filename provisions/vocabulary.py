@@ -57,9 +57,13 @@ class Parameter:
 
 @dataclass(frozen=True)
 class Candidate:
+    """One contender of an envelope. ``label`` is the rule in words and symbols, the same
+    for every beam ("bw + 8hf on each side"); ``basis`` may carry this beam's numbers."""
+
     label: str
     value: Value
     clause: Clause
+    basis: str = ""
 
 
 class Bound(StrEnum):

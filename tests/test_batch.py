@@ -1,0 +1,118 @@
+"""The batch path gives the audited path's numbers for every beam and every edition."""
+
+from __future__ import annotations
+
+import math
+
+import numpy as np
+import pytest
+from hypothesis import HealthCheck, given, settings
+from hypothesis import strategies as st
+
+import clausewise
+from clausewise.provisions import (
+    Actions,
+    Beam,
+    Bending,
+    Continuity,
+    FloorLayout,
+    Layer,
+    Shape,
+    assess,
+)
+from clausewise.provisions.batch import assess_many, kind_of, stack_beams
+from clausewise.provisions.synthetic import synthetic_beams
+
+EDITIONS = [e.id for e in clausewise.editions()]
+
+
+def _close(a: float | None, b: float | None) -> bool:
+    if a is None or b is None or (isinstance(a, float) and math.isnan(a)):
+        return (a is None or math.isnan(a)) and (b is None or math.isnan(b))
+    return math.isclose(a, b, rel_tol=1e-9, abs_tol=1e-12)
+
+
+def _same(beam: Beam, edition: str, row: dict) -> None:
+    audited = assess(beam, edition)
+    assert row["status"] == audited.status, (beam.id, edition, row["message"])
+    if audited.design_resistance is not None:
+        assert _close(row["design_resistance"], audited.design_resistance.value)
+        assert _close(row["nominal_moment"], audited.nominal_moment)
+    if audited.demand is not None:
+        assert _close(row["demand"], audited.demand.value)
+        assert row["governing_candidate"][audited.demand.name] == \
+            audited.demand.governing_candidate.label
+    governing = audited.governing
+    if governing is not None:
+        assert row["governing_check"] == governing.name
+        assert _close(row["governing_utilisation"], governing.utilisation)
+    for check in audited.all_checks:
+        assert _close(row["utilisation"].get(check.name), check.utilisation), check.name
+    if audited.effective_width is not None:
+        assert _close(row["effective_width"], audited.effective_width.value)
+        assert row["governing_candidate"][audited.effective_width.name] == \
+            audited.effective_width.governing_candidate.label
+
+
+@pytest.mark.parametrize("edition", EDITIONS)
+def test_synthetic_schedule_matches_audited_path(edition: str) -> None:
+    beams = synthetic_beams(60, seed=11)
+    table = assess_many(beams, [edition])[edition]
+    assert table.size == len(beams)
+    for i, beam in enumerate(beams):
+        _same(beam, edition, table.row(i))
+
+
+@st.composite
+def beams(draw: st.DrawFn) -> Beam:
+    shape = draw(st.sampled_from(list(Shape)))
+    bw = draw(st.floats(200, 450))
+    h = draw(st.floats(350, 1000))
+    hf = draw(st.floats(80, 0.4 * h)) if shape is not Shape.RECTANGLE else None
+    d = h - draw(st.floats(40, 90))
+    area = draw(st.floats(0.002, 0.05)) * bw * d
+    layout = None
+    if shape is not Shape.RECTANGLE:
+        layout = FloorLayout(span=draw(st.floats(3000, 12000)),
+                             continuity=draw(st.sampled_from(list(Continuity)[:3])),
+                             clear_left=draw(st.floats(300, 4000)),
+                             clear_right=draw(st.floats(300, 4000)))
+    compression = (Layer(draw(st.floats(200, 2000)), 50.0),) if draw(st.booleans()) else ()
+    dead = draw(st.floats(1e6, 1e9))
+    return Beam(
+        id="H", shape=shape,
+        bending=draw(st.sampled_from(list(Bending))) if shape is not Shape.RECTANGLE
+        else Bending.SAGGING,
+        web_width=bw, depth=h, concrete_strength=draw(st.floats(10, 100)),
+        yield_strength=draw(st.sampled_from([250.0, 420.0, 500.0, 550.0, 600.0])),
+        tension=(Layer(area, d),), compression=compression, flange_thickness=hf,
+        layout=layout, actions=Actions(dead=dead, live=draw(st.floats(0, 1e9))))
+
+
+@settings(max_examples=40, deadline=None, suppress_health_check=[HealthCheck.too_slow])
+@given(st.lists(beams(), min_size=1, max_size=6))
+def test_random_beams_match_audited_path_under_every_edition(items: list[Beam]) -> None:
+    items = [Beam(**{**b.__dict__, "id": f"H{i}"}) for i, b in enumerate(items)]
+    tables = assess_many(items, EDITIONS)
+    for edition in EDITIONS:
+        for i, beam in enumerate(items):
+            _same(beam, edition, tables[edition].row(i))
+
+
+def test_beams_of_one_kind_stack_into_arrays() -> None:
+    group = [b for b in synthetic_beams(40, seed=2) if kind_of(b) == kind_of(
+        synthetic_beams(40, seed=2)[0])]
+    batch = stack_beams(group)
+    assert batch.is_batch and batch.size == len(group)
+    np.testing.assert_array_equal(batch.web_width, [b.web_width for b in group])
+    np.testing.assert_array_equal(batch.tension[0].area, [b.tension[0].area for b in group])
+
+
+def test_a_bad_beam_is_reported_and_the_others_go_on() -> None:
+    good = synthetic_beams(5, seed=4)
+    bad = Beam(**{**good[0].__dict__, "id": "BAD", "tension": (Layer(1000.0, 5000.0),)})
+    edition = EDITIONS[0]
+    table = assess_many([*good, bad], [edition])[edition]
+    assert table.status[-1] == "error"
+    assert "depth" in table.message[-1]
+    assert all(s != "error" for s in table.status[:-1])
