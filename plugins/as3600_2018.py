@@ -24,7 +24,6 @@ import numpy as np
 
 from clausewise.provisions import (
     Beam,
-    Candidate,
     Check,
     Clause,
     Context,
@@ -49,6 +48,7 @@ from clausewise.provisions import (
     largest_of,
     sqrt,
 )
+from clausewise.provisions.combinations import Combination, factored_moment
 from clausewise.provisions.widths import OverhangRule, half_clear_distance, overhang_envelope
 
 EDITION = EditionInfo(
@@ -233,19 +233,9 @@ def resistance_factor(beam: Beam, response: Any, params: Parameters,
 
 @hookimpl
 def design_actions(beam: Beam, params: Parameters, context: Context) -> Envelope | None:
-    a = beam.actions
-    if a.factored is not None:
-        return Envelope.largest("design moment", "M*", [
-            Candidate("as given", a.factored, LOADS)], "N·mm")
-    if a.dead is None:
-        return None
-    dead = np.asarray(a.dead, float)
-    live = np.asarray(a.live if a.live is not None else 0.0, float)
     d1, d2, l2 = (params.value(n) for n in ("dead_only_factor", "dead_factor", "live_factor"))
-    return Envelope.largest("design moment", "M*", [
-        Candidate(f"{d1:g}G", _out(d1 * dead), LOADS),
-        Candidate(f"{d2:g}G + {l2:g}Q", _out(d2 * dead + l2 * live), LOADS),
-    ], "N·mm")
+    return factored_moment(beam, [Combination(d1, 0.0, LOADS), Combination(d2, l2, LOADS)],
+                           LOADS, name="design moment", symbol="M*", symbols=("G", "Q"))
 
 
 # --- reinforcement limits ---------------------------------------------------------------

@@ -20,17 +20,18 @@ class Combination:
     live: float
     clause: Clause
 
-    @property
-    def label(self) -> str:
-        dead = f"{self.dead:g}D" if self.dead else ""
-        live = f"{self.live:g}L" if self.live else ""
-        return " + ".join(p for p in (dead, live) if p) or "0"
+    def label(self, symbols: tuple[str, str] = ("D", "L")) -> str:
+        parts = [f"{factor:g}{symbol}" for factor, symbol in zip(
+            (self.dead, self.live), symbols, strict=True) if factor]
+        return " + ".join(parts) or "0"
 
 
 def factored_moment(beam: Beam, combinations: Sequence[Combination], given: Clause, *,
-                    name: str = "factored moment", symbol: str = "M_Ed") -> Envelope | None:
+                    name: str = "factored moment", symbol: str = "M_Ed",
+                    symbols: tuple[str, str] = ("D", "L")) -> Envelope | None:
     """The largest combination of the beam's service moments (N·mm); a single "as given"
-    candidate when the engineer gave the factored moment; ``None`` without actions."""
+    candidate when the engineer gave the factored moment; ``None`` without actions.
+    ``symbols`` name the dead and live actions as the edition writes them (D/L, G/Q)."""
     actions = beam.actions
     if actions.factored is not None:
         return Envelope.largest(name, symbol, [Candidate("as given", actions.factored, given)],
@@ -39,9 +40,9 @@ def factored_moment(beam: Beam, combinations: Sequence[Combination], given: Clau
         return None
     dead = np.asarray(actions.dead, float)
     live = np.asarray(actions.live if actions.live is not None else 0.0, float)
-    return Envelope.largest(name, symbol, [
-        Candidate(c.label, _out(c.dead * dead + c.live * live), c.clause) for c in combinations
-    ], "N·mm")
+    candidates = [Candidate(c.label(symbols), _out(c.dead * dead + c.live * live), c.clause)
+                  for c in combinations]
+    return Envelope.largest(name, symbol, candidates, "N·mm")
 
 
 def _out(value: Any) -> Any:
