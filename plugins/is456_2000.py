@@ -1,0 +1,363 @@
+"""IS 456:2000, limit state of collapse in flexure.
+
+IS 456 works in the characteristic cube strength fck: a beam given in cylinder
+strength is converted (EN 1992-1-1 Table 3.1 class pairs, else the ratio 0.8) and
+the conversion is recorded. Safety sits in partial factors on the materials, so
+there is no member factor; ductility is a limit on the neutral-axis depth. Values
+from memory of the published code; clause titles are our own words.
+
+Contents
+  scope ............. Table 2 concrete grades, 5.6 reinforcement grades
+  flange width ...... 23.1.2 (a) T-beams, (b) L-beams, (c) isolated beams
+  concrete .......... 38.1(b) ultimate strain, 38.1(c) and Fig. 21 parabola-rectangle
+  steel ............. 38.1(e) and Fig. 23: mild steel, cold-worked bars; 5.6.3 Es
+  strength .......... 36.4.2 partial factors on materials; 38.1 note, xu,max
+  demand ............ 36.4.1 and Table 18 load factors
+  limits ............ 26.5.1.1 (a) minimum and (b) maximum tension steel, 38.1 xu ≤ xu,max
+"""
+
+from __future__ import annotations
+
+from collections.abc import Sequence
+from typing import Any
+
+import numpy as np
+
+from clausewise.provisions import (
+    Beam,
+    Candidate,
+    Check,
+    Context,
+    Continuity,
+    EditionInfo,
+    Envelope,
+    Factor,
+    FloorLayout,
+    MaterialModel,
+    ParabolaRectangle,
+    Parameter,
+    Parameters,
+    PiecewiseLinear,
+    Regime,
+    Resistance,
+    Sense,
+    Shape,
+    choose,
+    cube_strength,
+    hookimpl,
+)
+from clausewise.provisions.widths import given_width, half_clear_distance
+
+EDITION = EditionInfo(
+    "is456:2000", "IS 456:2000 plain and reinforced concrete, code of practice", 2000,
+    summary="Indian code; cube strength, partial factors on the materials, xu ≤ xu,max",
+)
+clause = EDITION.clause
+
+STEEL_KINDS = ("hot-rolled", "cold-worked", "mild")
+
+# Fig. 23B design curve of cold-worked bars: stress as a fraction of fy/γm at an
+# inelastic strain; total strain = stress/Es + inelastic strain (38.1(e), from memory)
+FIG23_STRESS = (0.80, 0.85, 0.90, 0.95, 0.975, 1.0)
+FIG23_INELASTIC = (0.0, 0.0001, 0.0003, 0.0007, 0.0010, 0.0020)
+
+# Note to 38.1: xu,max/d for the three grades the code tabulates (from memory)
+XU_MAX_TABLE = {250.0: 0.53, 415.0: 0.48, 500.0: 0.46}
+
+
+@hookimpl
+def edition_info() -> EditionInfo:
+    return EDITION
+
+
+@hookimpl
+def edition_parameters(context: Context) -> Sequence[Parameter]:
+    return [
+        Parameter("gamma_m_concrete", 1.5, clause("36.4.2", "partial factor for concrete"),
+                  "γm of concrete at the limit state of collapse", (1.0, 2.0)),
+        Parameter("gamma_m_steel", 1.15, clause("36.4.2", "partial factor for steel"),
+                  "γm of reinforcement at the limit state of collapse", (1.0, 1.5)),
+        Parameter("strength_ratio", 0.67, clause("38.1(c)", "in-member to cube strength"),
+                  "design peak stress as a fraction of fck before γm", (0.5, 1.0)),
+        Parameter("ultimate_strain", 0.0035, clause("38.1(b)", "ultimate concrete strain"),
+                  "strain at the extreme compression fibre in bending", (0.002, 0.004)),
+        Parameter("strain_at_peak", 0.002, clause("38.1(c)", "strain at the end of the "
+                  "parabola (Fig. 21)"), "strain where the design stress reaches its peak",
+                  (0.001, 0.003)),
+        Parameter("min_inelastic_strain", 0.002, clause("38.1(f)", "least steel strain at "
+                  "failure beyond fy/(γm Es)"), "inelastic strain that sets xu,max",
+                  (0.0, 0.01)),
+        Parameter("steel_modulus", 200_000.0, clause("5.6.3", "modulus of reinforcement"),
+                  "200 kN/mm²", (150_000.0, 210_000.0), "MPa"),
+        Parameter("mild_steel_fy", 250.0, clause("38.1(e)", "mild steel, Fig. 23A"),
+                  "yield strength up to which bars are mild steel by default", (200.0, 300.0),
+                  "MPa"),
+        Parameter("min_steel_coefficient", 0.85, clause("26.5.1.1(a)", "least tension steel"),
+                  "As,min = coefficient × bw d / fy", (0.5, 2.0), "MPa"),
+        Parameter("max_steel_ratio", 0.04, clause("26.5.1.1(b)", "greatest tension steel"),
+                  "As,max as a fraction of bw D", (0.01, 0.08)),
+        Parameter("fck_min", 15.0, clause("6.1, Table 2", "least concrete grade M15"),
+                  "least characteristic cube strength", (10.0, 30.0), "MPa"),
+        Parameter("fck_max", 80.0, clause("6.1, Table 2", "greatest concrete grade M80"),
+                  "greatest characteristic cube strength", (40.0, 100.0), "MPa"),
+        Parameter("fy_min", 250.0, clause("5.6", "reinforcement grades: mild steel Fe 250"),
+                  "least yield strength", (200.0, 300.0), "MPa"),
+        Parameter("fy_max", 550.0, clause("5.6", "reinforcement grades: deformed bars up to "
+                  "Fe 550"), "greatest yield strength", (415.0, 600.0), "MPa"),
+        Parameter("load_factor", 1.5, clause("36.4.1, Table 18", "load factor D + L"),
+                  "partial factor on dead plus imposed load", (1.0, 2.0)),
+    ]
+
+
+# --- scope ----------------------------------------------------------------------------
+
+@hookimpl
+def applicability(beam: Beam, params: Parameters, context: Context) -> Sequence[Check]:
+    fck = cube_strength(beam)
+    fy = beam.yield_strength
+    note = f"fck,cube {fck.basis}"
+    return [
+        Check("cube strength at least the least grade", fck.value, params.value("fck_min"),
+              Sense.AT_LEAST, params["fck_min"].clause, "fck", "MPa", note),
+        Check("cube strength at most the greatest grade", fck.value, params.value("fck_max"),
+              Sense.AT_MOST, params["fck_max"].clause, "fck", "MPa", note),
+        Check("yield strength at least mild steel", fy, params.value("fy_min"),
+              Sense.AT_LEAST, params["fy_min"].clause, "fy", "MPa"),
+        Check("yield strength at most the greatest grade", fy, params.value("fy_max"),
+              Sense.AT_MOST, params["fy_max"].clause, "fy", "MPa"),
+    ]
+
+
+# --- effective flange width -------------------------------------------------------------
+
+def zero_moment_length(beam: Beam, layout: FloorLayout) -> tuple[Any, str]:
+    """l0 (mm) and how it was found: as given, else from span and continuity."""
+    if layout.zero_moment_length is not None:
+        return layout.zero_moment_length, "l0 as given"
+    if layout.continuity is Continuity.CANTILEVER:
+        raise ValueError(f"beam {beam.id!r}: a cantilever needs layout.zero_moment_length "
+                         "(mm), the distance between points of zero moment")
+    if layout.continuity is Continuity.SIMPLE:
+        return np.asarray(layout.span, float), "l0 = span (simply supported)"
+    return 0.7 * np.asarray(layout.span, float), "l0 = 0.7 span (continuous)"
+
+
+@hookimpl
+def effective_flange_width(beam: Beam, params: Parameters, context: Context) -> Envelope:
+    if beam.flange_thickness is None:
+        raise ValueError(f"beam {beam.id!r}: a {beam.shape} beam needs flange_thickness (mm)")
+    bw, df = np.asarray(beam.web_width, float), np.asarray(beam.flange_thickness, float)
+    tee = beam.shape is Shape.TEE
+    given = given_width(beam)
+    layout = beam.layout
+    if layout is None:
+        if given is None:
+            raise ValueError(f"beam {beam.id!r}: give flange_width (mm) or the floor layout "
+                             "(span, clear distances to the next webs)")
+        return Envelope.smallest("effective flange width", "bf", [given], "mm")
+    l0, how = zero_moment_length(beam, layout)
+    l0 = np.asarray(l0, float)
+    halves = half_clear_distance(beam)
+    candidates: list[Candidate] = []
+    if all(h is None for h in halves):  # no neighbouring web: an isolated beam
+        if beam.flange_width is None:
+            raise ValueError(f"beam {beam.id!r}: an isolated {beam.shape} beam (no clear "
+                             "distance to a next web) needs flange_width (mm), its actual "
+                             "flange width")
+        b = np.asarray(beam.flange_width, float)
+        share, label = (1.0, "l0/(l0/b + 4) + bw") if tee else (0.5, "0.5 l0/(l0/b + 4) + bw")
+        isolated = clause("23.1.2(c)", "isolated beams, never wider than the actual flange")
+        candidates += [Candidate(f"{label} ({how})", _out(share * l0 / (l0 / b + 4) + bw),
+                                 isolated),
+                       Candidate("actual flange width", _out(b), isolated)]
+    else:
+        divisor, slab, ref = (6, 6, "23.1.2(a)") if tee else (12, 3, "23.1.2(b)")
+        kind = "T-beams" if tee else "L-beams"
+        candidates.append(Candidate(f"l0/{divisor} + bw + {slab}Df ({how})",
+                                    _out(l0 / divisor + bw + slab * df),
+                                    clause(ref, f"{kind} in a floor")))
+        known = [h for h in halves if h is not None]
+        if len(known) == len(halves):
+            candidates.append(Candidate(
+                "bw + half the clear distances to the next webs", _out(bw + sum(known)),
+                clause("23.1.2", "never wider than the web plus half the clear distances")))
+        if given is not None:
+            candidates.insert(0, given)
+    return Envelope.smallest("effective flange width", "bf", candidates, "mm")
+
+
+# --- materials --------------------------------------------------------------------------
+
+@hookimpl
+def concrete_law(beam: Beam, params: Parameters, context: Context) -> MaterialModel:
+    fck = cube_strength(beam)
+    gamma = params.value("gamma_m_concrete")
+    ratio = params.value("strength_ratio")
+    eps_cu, eps_c2 = params.value("ultimate_strain"), params.value("strain_at_peak")
+    peak = Factor(f"{ratio:g} fck/γm", _out(ratio * np.asarray(fck.value, float) / gamma),
+                  clause("38.1(c)", "design stress of concrete (Fig. 21)"),
+                  f"{params.cite('strength_ratio')}, {params.cite('gamma_m_concrete')} "
+                  f"(= {ratio / gamma:.3f} fck)", "MPa")
+    return MaterialModel(
+        ParabolaRectangle(peak_stress=peak.value, strain_at_peak=eps_c2,
+                          ultimate_strain=eps_cu, exponent=2.0),
+        (fck, Factor("γm", gamma, params["gamma_m_concrete"].clause, "concrete"), peak,
+         Factor("εcu", eps_cu, params["ultimate_strain"].clause),
+         Factor("εc2", eps_c2, params["strain_at_peak"].clause, "parabola of exponent 2")),
+    )
+
+
+def cold_worked(beam: Beam, params: Parameters) -> Any:
+    """Whether each beam's bars follow the Fig. 23B curve of cold-worked bars.
+
+    "mild" and "cold-worked" are taken as said. The beam's default kind
+    ("hot-rolled") cannot be told from an explicit choice, so it follows IS
+    practice: high-strength deformed bars (fy above the mild-steel grade) are
+    designed on the cold-worked curve, which never gives more stress than the
+    elastic-plastic one.
+    """
+    if beam.steel_kind not in STEEL_KINDS:
+        raise ValueError(f"beam {beam.id!r}: steel_kind {beam.steel_kind!r} is not one of "
+                         f"{', '.join(STEEL_KINDS)}")
+    by_grade = np.asarray(beam.yield_strength, float) > params.value("mild_steel_fy")
+    return choose(beam.steel_kind == "cold-worked", True,
+                  choose(beam.steel_kind == "mild", False, by_grade))
+
+
+def steel_modulus(beam: Beam, params: Parameters) -> Any:
+    return beam.steel_modulus if beam.steel_modulus is not None else \
+        params.value("steel_modulus")
+
+
+def design_strength(beam: Beam, params: Parameters) -> Factor:
+    gamma = params.value("gamma_m_steel")
+    return Factor("fyd", _out(np.asarray(beam.yield_strength, float) / gamma),
+                  clause("38.1(e)", "design strength of reinforcement"),
+                  f"fy/γm, {params.cite('gamma_m_steel')} (≈ 0.87 fy)", "MPa")
+
+
+@hookimpl
+def steel_law(beam: Beam, params: Parameters, context: Context) -> MaterialModel:
+    """Fig. 23 as one piecewise-linear law for every beam of a batch: the cold-worked
+    curve where it applies, and elsewhere the same points at full design strength,
+    which is the elastic-perfectly plastic law of mild steel (Fig. 23A)."""
+    es = steel_modulus(beam, params)
+    fyd = design_strength(beam, params)
+    cold = cold_worked(beam, params)
+    points = []
+    for fraction, inelastic in zip(FIG23_STRESS, FIG23_INELASTIC, strict=True):
+        stress = np.asarray(choose(cold, fraction, 1.0)) * fyd.value
+        points.append((_out(stress / es + inelastic), _out(stress)))
+    knee = choose(cold, points[-1][0], np.asarray(fyd.value) / es)
+    if np.ndim(cold):
+        curve = "per beam: Fig. 23B where cold-worked, else Fig. 23A"
+    elif cold:
+        curve = "Fig. 23B curve of cold-worked bars: fyd reached at fyd/Es + 0.002"
+    else:
+        curve = "Fig. 23A mild steel: elastic-perfectly plastic, fyd reached at fyd/Es"
+    return MaterialModel(
+        PiecewiseLinear(points=tuple(points), knee_strain=knee),
+        (Factor("fy", beam.yield_strength, clause("5.6", "characteristic yield strength"),
+                f"specified; bars {beam.steel_kind}", "MPa"),
+         Factor("γm", params.value("gamma_m_steel"), params["gamma_m_steel"].clause, "steel"),
+         fyd,
+         Factor("Es", es, params["steel_modulus"].clause, params["steel_modulus"].description,
+                "MPa"),
+         Factor("εyd", knee, clause("38.1(e)", "design stress-strain curve (Fig. 23)"), curve)),
+    )
+
+
+# --- strength ---------------------------------------------------------------------------
+
+def limiting_depth_ratio(beam: Beam, params: Parameters) -> Factor:
+    """xu,max/d: the note's table for Fe 250, 415 and 500, else the strain condition it
+    comes from, εcu/(εcu + 0.002 + fyd/Es) (38.1(f))."""
+    fy = np.asarray(beam.yield_strength, float)
+    eps_cu = params.value("ultimate_strain")
+    eps_s = params.value("min_inelastic_strain") + \
+        np.asarray(design_strength(beam, params).value) / steel_modulus(beam, params)
+    value: Any = eps_cu / (eps_cu + eps_s)
+    tabulated = np.zeros(fy.shape, bool)
+    for grade, ratio in XU_MAX_TABLE.items():
+        here = np.isclose(fy, grade, rtol=0.0, atol=1e-9)
+        value = np.where(here, ratio, value)
+        tabulated = tabulated | here
+    if np.ndim(fy):
+        basis = "per beam: the note's table for Fe 250/415/500, else εcu/(εcu + 0.002 + fyd/Es)"
+    elif tabulated:
+        basis = f"the note's table for Fe {float(fy):g}"
+    else:
+        basis = f"εcu/(εcu + 0.002 + fyd/Es) for fy = {float(fy):g} MPa (not a tabulated grade)"
+    return Factor("xu,max/d", _out(np.asarray(value, float)),
+                  clause("38.1 note", "limiting depth of the neutral axis"), basis)
+
+
+@hookimpl
+def resistance_factor(beam: Beam, response: Any, params: Parameters,
+                      context: Context) -> Resistance:
+    limit = limiting_depth_ratio(beam, params)
+    ratio = np.asarray(response.c, float) / np.asarray(beam.effective_depth, float)
+    name = choose(ratio <= np.asarray(limit.value) * (1 + 1e-12), "under-reinforced",
+                  "over-reinforced")
+    return Resistance(
+        Factor("member factor", 1.0, clause("36.4.2", "partial factors on the materials"),
+               "safety lies in γm of concrete and steel; no member factor"),
+        Regime(name, limit.clause, "xu/d against xu,max/d"),
+        clause("36.4, 38.1", "design moment of resistance at least the factored moment"))
+
+
+@hookimpl
+def design_actions(beam: Beam, params: Parameters, context: Context) -> Envelope | None:
+    a = beam.actions
+    if a.factored is not None:
+        return Envelope.largest("factored moment", "Mu", [
+            Candidate("as given", a.factored, clause("36.4.1", "factored moment as given"))],
+            "N·mm")
+    if a.dead is None and a.live is None:
+        return None
+    dead = np.asarray(a.dead if a.dead is not None else 0.0, float)
+    live = np.asarray(a.live if a.live is not None else 0.0, float)
+    factor = params.value("load_factor")
+    return Envelope.largest("factored moment", "Mu", [
+        Candidate(f"{factor:g}(D + L)", _out(factor * (dead + live)),
+                  params["load_factor"].clause)], "N·mm")
+
+
+# --- reinforcement limits ---------------------------------------------------------------
+
+@hookimpl
+def minimum_reinforcement(beam: Beam, section: Any, response: Any, params: Parameters,
+                          context: Context) -> Sequence[Check]:
+    coefficient = params.value("min_steel_coefficient")
+    required = coefficient * np.asarray(beam.web_width, float) * np.asarray(
+        beam.effective_depth, float) / np.asarray(beam.yield_strength, float)
+    return [Check("minimum tension reinforcement", beam.tension_area, _out(required),
+                  Sense.AT_LEAST, params["min_steel_coefficient"].clause, "As", "mm²",
+                  f"{coefficient:g} bw d / fy")]
+
+
+@hookimpl
+def ductility_limits(beam: Beam, response: Any, params: Parameters,
+                     context: Context) -> Sequence[Check]:
+    limit = limiting_depth_ratio(beam, params)
+    ratio = np.asarray(response.c, float) / np.asarray(beam.effective_depth, float)
+    area_limit = params.value("max_steel_ratio") * np.asarray(beam.web_width, float) * \
+        np.asarray(beam.depth, float)
+    checks = [
+        Check("neutral-axis depth", _out(ratio), limit.value, Sense.AT_MOST, limit.clause,
+              "xu/d", note=f"{limit.basis}; an over-reinforced section fails this check "
+              "(its moment is still the strain-compatibility value)"),
+        Check("maximum tension reinforcement", beam.tension_area, _out(area_limit),
+              Sense.AT_MOST, params["max_steel_ratio"].clause, "As", "mm²",
+              f"{params.value('max_steel_ratio'):g} bw D"),
+    ]
+    if beam.compression:
+        checks.append(Check("maximum compression reinforcement", beam.compression_area,
+                            _out(area_limit), Sense.AT_MOST,
+                            clause("26.5.1.2", "greatest compression steel"), "Asc", "mm²",
+                            f"{params.value('max_steel_ratio'):g} bw D"))
+    return checks
+
+
+def _out(value: Any) -> Any:
+    return value if np.ndim(value) else float(value)
