@@ -89,6 +89,11 @@ class RectangularBlock:
         a = _col(self.zone_depth(c))
         return np.where(y < a, _col(self.stress), 0.0)
 
+    def stress_steps(self, depths: Array) -> Array:
+        """Neutral-axis depths at which the block edge reaches each depth: there the
+        concrete displaced by a bar switches on, and net compression steps down."""
+        return depths / _col(self.depth_factor)
+
 
 @dataclass(frozen=True)
 class ParabolaRectangle:
@@ -256,6 +261,23 @@ def stack_laws(laws: list[_Law]) -> _Law:
 
     return kind(**{f.name: stacked([getattr(law, f.name) for law in laws])
                    for f in fields(kind)})  # type: ignore[arg-type]
+
+
+def law_size(law: Any) -> int:
+    """How many sections a law's parameters describe (1 when none is an array)."""
+
+    def sizes(value: Any) -> list[int]:
+        if isinstance(value, tuple):
+            return [s for v in value for s in sizes(v)]
+        if isinstance(value, np.ndarray) and value.ndim >= 1:
+            return [value.shape[0]]
+        return []
+
+    found = {s for f in fields(law) for s in sizes(getattr(law, f.name))} - {1}
+    if len(found) > 1:
+        raise SectionError(f"{type(law).__name__} has parameter arrays of different lengths "
+                           f"{sorted(found)}")
+    return found.pop() if found else 1
 
 
 def take_rows(law: _Law, rows: NDArray[np.int_], size: int) -> _Law:

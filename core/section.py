@@ -15,12 +15,13 @@ from __future__ import annotations
 import math
 from collections.abc import Sequence
 from dataclasses import InitVar, dataclass
+from numbers import Real
 
 import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
 from clausewise.core.errors import SectionError
-from clausewise.core.laws import SteelLaw, stack_laws, take_rows
+from clausewise.core.laws import SteelLaw, law_size, stack_laws, take_rows
 
 Array = NDArray[np.float64]
 
@@ -43,9 +44,10 @@ class SteelLayer:
     law: SteelLaw
 
 
-def _positive(name: str, value: float) -> float:
-    if not isinstance(value, int | float) or not math.isfinite(value) or value <= 0:
-        raise SectionError(f"{name} must be a positive finite length in mm, got {value!r}")
+def _positive(name: str, value: float, quantity: str = "length in mm") -> float:
+    if isinstance(value, bool) or not isinstance(value, Real) or not math.isfinite(value) \
+            or value <= 0:
+        raise SectionError(f"{name} must be a positive finite {quantity}, got {value!r}")
     return float(value)
 
 
@@ -79,7 +81,7 @@ class Section:
             raise SectionError("a section needs at least one steel layer")
         h = self.depth
         for i, layer in enumerate(self.layers):
-            _positive(f"steel layer {i} area (mm²)", layer.area)
+            _positive(f"steel layer {i} area", layer.area, "area in mm²")
             _positive(f"steel layer {i} depth", layer.depth)
             if layer.depth >= h:
                 raise SectionError(
@@ -162,6 +164,10 @@ class SectionArrays:
             raise SectionError("areas and depths must both have shape (N, layers)")
         if len(self.steel) != self.areas.shape[1] or len(self.labels) != k:
             raise SectionError("one steel law per layer and one label per strip are needed")
+        for j, law in enumerate(self.steel):
+            if law_size(law) not in (1, n):
+                raise SectionError(f"steel law of layer {j} has parameters for {law_size(law)} "
+                                   f"sections but the batch has {n}")
         if not validate:
             return
         bad = ~(np.all(np.isfinite(self.widths) & (self.widths > 0), axis=1)
@@ -192,7 +198,7 @@ class SectionArrays:
                      depths: Sequence[ArrayLike], steel: Sequence[SteelLaw]) -> SectionArrays:
         """Build from per-strip and per-layer columns (floats or arrays of shape (N,))."""
         columns = [np.asarray(v, dtype=float) for v in (*thicknesses, *widths, *areas, *depths)]
-        n = max((c.size for c in columns), default=1)
+        n = max([c.size for c in columns] + [law_size(law) for law in steel])
         t = np.column_stack([np.broadcast_to(np.asarray(v, float), n) for v in thicknesses])
         edges = np.concatenate([np.zeros((n, 1)), np.cumsum(t, axis=1)], axis=1)
         return cls(
@@ -211,10 +217,14 @@ class SectionArrays:
         if any(len(s.strips) != k or len(s.layers) != m for s in sections):
             raise SectionError("sections stacked into one batch need the same strip and "
                                "layer counts")
+        labels = tuple(s.label for s in first.strips)
+        if any(tuple(s.label for s in section.strips) != labels for section in sections):
+            raise SectionError("sections stacked into one batch need the same strip labels "
+                               "(do not mix sagging and hogging sections in one batch)")
         return cls.from_profile(
             thicknesses=[np.array([s.strips[i].thickness for s in sections]) for i in range(k)],
             widths=[np.array([s.strips[i].width for s in sections]) for i in range(k)],
-            labels=tuple(s.label for s in first.strips),
+            labels=labels,
             areas=[np.array([s.layers[j].area for s in sections]) for j in range(m)],
             depths=[np.array([s.layers[j].depth for s in sections]) for j in range(m)],
             steel=[stack_laws([s.layers[j].law for s in sections]) if len(sections) > 1

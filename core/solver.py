@@ -2,11 +2,14 @@
 
 The extreme compression fibre is at the concrete law's ultimate strain; every
 steel layer takes the stress its own law gives at its strain, yielded or not.
-Net compression grows monotonically with the neutral-axis depth ``c`` (the laws
-are monotone), so the root is unique once bracketed between a vanishing ``c``
-and the depth of the deepest layer. The root is polished by regula falsi with
-the Illinois modification, falling back to bisection whenever the bracket
-stops halving, until the force residual is below ``rtol`` of the total force.
+Net compression grows with the neutral-axis depth ``c`` (the laws are monotone)
+except where a uniform block's edge passes a bar and the concrete that bar
+displaces switches on; the bracket is cut before such a step when a root lies
+below it, so the shallowest equilibrium is the one returned and is unique in the
+bracket between a vanishing ``c`` and the depth of the deepest layer. The root
+is polished by regula falsi with the Illinois modification (bisection when the
+secant leaves the bracket) until the force residual is below ``rtol`` of the
+total force; converged sections leave the working set.
 
 One implementation serves a single section and a batch: ``solve`` wraps
 ``solve_arrays`` on a batch of one.
@@ -19,7 +22,8 @@ from dataclasses import dataclass
 import numpy as np
 from numpy.typing import NDArray
 
-from clausewise.core.laws import ConcreteLaw, _col, take_rows
+from clausewise.core.errors import SectionError
+from clausewise.core.laws import ConcreteLaw, _col, law_size, take_rows
 from clausewise.core.section import Section, SectionArrays
 
 Array = NDArray[np.float64]
@@ -77,8 +81,13 @@ def find_neutral_axis(sec: SectionArrays, concrete: ConcreteLaw, *, rtol: float 
     average iteration count rather than the worst one.
     """
     n = sec.size
+    if law_size(concrete) not in (1, n):
+        raise SectionError(f"concrete law has parameters for {law_size(concrete)} sections "
+                           f"but the batch has {n}")
     hi = sec.depths.max(axis=1)
     lo = hi * 1e-9
+    if hasattr(concrete, "stress_steps"):
+        hi = _before_first_step(sec, concrete, lo, hi)
     f_lo, _ = _net(sec, concrete, lo)
     f_hi, _ = _net(sec, concrete, hi)
     bracketed = (f_lo < 0) & (f_hi > 0)
@@ -115,6 +124,28 @@ def find_neutral_axis(sec: SectionArrays, concrete: ConcreteLaw, *, rtol: float 
                 work, law = work.take(local), take_rows(law, local, keep.size)
     c[rows] = 0.5 * (a + b)
     return c, status, iterations
+
+
+def _before_first_step(sec: SectionArrays, concrete: ConcreteLaw, lo: Array,
+                       hi: Array) -> Array:
+    """Keep the shallowest equilibrium where more than one exists.
+
+    With a uniform block, the concrete a bar displaces switches on as the block edge
+    passes the bar, so net compression steps down there and a second equilibrium
+    can appear deeper. Ending the bracket just before the first step at which net
+    compression is already positive leaves exactly one root: the shallowest.
+    """
+    steps = concrete.stress_steps(sec.depths) * (1.0 - 1e-12)  # type: ignore[attr-defined]
+    hi = hi.copy()
+    for j in range(steps.shape[1]):
+        edge = steps[:, j]
+        rows = np.flatnonzero((edge > lo) & (edge < hi))
+        if rows.size == 0:
+            continue
+        net, _ = _net(sec.take(rows), take_rows(concrete, rows, sec.size), edge[rows])
+        positive = rows[net > 0]
+        hi[positive] = edge[positive]
+    return hi
 
 
 @dataclass(frozen=True)

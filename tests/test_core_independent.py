@@ -183,10 +183,29 @@ def net_force(case, law, c):
     return concrete_resultant(case, law, c)[0] + sum(steel_forces(case, law, c))
 
 
+def shallowest_bracket_end(case, law):
+    """Upper end of a bracket holding only the shallowest equilibrium.
+
+    Net force rises with c except where the edge of a rectangular block passes a bar:
+    that bar then starts to displace concrete and the net force drops by As * stress.
+    Where the net force is already positive just before such a drop, a root lies
+    below it, and a second one may lie above.
+    """
+    deepest = max(d for _, d in case.layers)
+    end = deepest
+    if isinstance(law, RectangularBlock):  # the parabola's stress is continuous in c
+        for _, y in case.layers:
+            c_edge = y / law.depth_factor * (1 - 1e-12)
+            if c_edge < end and net_force(case, law, c_edge) > 0:
+                end = c_edge
+    return end
+
+
 def own_solution(case, law):
     deepest = max(y for _, y in case.layers)
-    c = brentq(lambda x: net_force(case, law, x), 1e-9 * deepest, deepest,
-               xtol=1e-13 * deepest, rtol=1e-14, maxiter=500)
+    c = brentq(lambda x: net_force(case, law, x), 1e-9 * deepest,
+               shallowest_bracket_end(case, law), xtol=1e-13 * deepest, rtol=1e-14,
+               maxiter=500)
     _, concrete_moment = concrete_resultant(case, law, c)
     moment = -(concrete_moment + sum(f * y for f, (_, y) in
                                      zip(steel_forces(case, law, c), case.layers, strict=True)))
@@ -210,7 +229,7 @@ def test_block_zone_matches_clipped_polygon(case, law):
         assert r.block_in_flange == (case.sagging and a < case.hf)
 
 
-@SETTINGS
+@settings(SETTINGS, max_examples=100)  # quadrature over shapely widths is the slow part
 @given(case=cases(), law=parabolas())
 def test_parabola_zone_matches_quadrature_over_clipped_polygon(case, law):
     r = solve(case.section(), law)
@@ -226,6 +245,7 @@ def test_parabola_zone_matches_quadrature_over_clipped_polygon(case, law):
 @SETTINGS
 @given(case=cases(), law=st.one_of(blocks, parabolas()))
 def test_brentq_equilibrium_gives_same_depth_and_moment(case, law):
+    # where a bar entering the block makes several equilibria, both pick the shallowest
     r = solve(case.section(), law)
     assert r.status == 0
     c, moment = own_solution(case, law)

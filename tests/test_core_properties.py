@@ -146,3 +146,38 @@ def test_cracked_rectangles_match_textbook_quadratic(b, h, cover, ratio, n):
     kd, icr = textbook_cracked(b, d, area, n)
     assert cr.neutral_axis[0] == pytest.approx(kd, rel=1e-12)
     assert cr.second_moment[0] == pytest.approx(icr, rel=1e-11)
+
+
+def test_cracked_tee_with_axis_in_web_matches_hand_quadratic():
+    bf, bw, hf, d, area, n = 800.0, 300.0, 80.0, 640.0, 6000.0, 8.0
+    section = Section.flanged(bf, bw, hf, 700.0,
+                              [SteelLayer(area, d, ElasticPlastic(200_000.0, 420.0))])
+    cr = cracked_properties(section.to_arrays(), n)
+    # first moment about the axis: bf hf (kd - hf/2) + bw (kd - hf)^2 / 2 = n As (d - kd),
+    # a quadratic in kd (common practice, no source)
+    qa = bw / 2
+    qb = bf * hf - bw * hf + n * area
+    qc = -bf * hf * hf / 2 + bw * hf * hf / 2 - n * area * d
+    kd = (-qb + math.sqrt(qb * qb - 4 * qa * qc)) / (2 * qa)
+    assert kd > hf
+    icr = (bf * hf**3 / 12 + bf * hf * (kd - hf / 2) ** 2 + bw * (kd - hf) ** 3 / 3
+           + n * area * (d - kd) ** 2)
+    assert cr.neutral_axis[0] == pytest.approx(kd, rel=1e-12)
+    assert cr.second_moment[0] == pytest.approx(icr, rel=1e-12)
+
+
+def test_cracked_doubly_reinforced_counts_compression_bars_as_n_minus_one():
+    b, d, d_top, area, area_top, n = 300.0, 540.0, 60.0, 2500.0, 1000.0, 7.0
+    steel = ElasticPlastic(200_000.0, 420.0)
+    section = Section.rectangle(b, 600.0, [SteelLayer(area_top, d_top, steel),
+                                           SteelLayer(area, d, steel)])
+    cr = cracked_properties(section.to_arrays(), n)
+    # b kd^2 / 2 + (n - 1) As' (kd - d') = n As (d - kd) (common practice, no source)
+    qa = b / 2
+    qb = (n - 1) * area_top + n * area
+    qc = -(n - 1) * area_top * d_top - n * area * d
+    kd = (-qb + math.sqrt(qb * qb - 4 * qa * qc)) / (2 * qa)
+    assert kd > d_top
+    icr = b * kd**3 / 3 + (n - 1) * area_top * (kd - d_top) ** 2 + n * area * (d - kd) ** 2
+    assert cr.neutral_axis[0] == pytest.approx(kd, rel=1e-12)
+    assert cr.second_moment[0] == pytest.approx(icr, rel=1e-12)

@@ -5,7 +5,15 @@ import math
 import numpy as np
 import pytest
 
-from clausewise.core import ElasticPlastic, RectangularBlock, Section, SteelLayer, solve
+from clausewise.core import (
+    ElasticPlastic,
+    RectangularBlock,
+    Section,
+    SectionArrays,
+    SteelLayer,
+    solve,
+    solve_arrays,
+)
 
 FC = 28.0  # MPa
 FY = 420.0  # MPa
@@ -179,3 +187,32 @@ def test_deepest_of_several_tension_layers_gives_net_tensile_strain():
     assert r.c_over_d == pytest.approx(c / centroid, rel=1e-12)
     lever = sum(layer.area * FY * (layer.depth - a / 2) for layer in r.layers)
     assert r.nominal_moment == pytest.approx(lever, rel=1e-12)
+
+
+def test_shallowest_equilibrium_where_block_edge_passes_compression_bar():
+    # With the concrete a bar displaces switched on as the block edge passes it, net force
+    # steps down there and two equilibria exist for As near 1423 mm^2 in this section; the
+    # core returns the shallowest (documented choice). The moment barely notices: the
+    # concrete displaced by 1200 mm^2 moves only a little (common practice, no source).
+    areas = np.linspace(1300.0, 1600.0, 3001)  # steps of 0.1 mm^2
+    batch = SectionArrays.from_profile(
+        thicknesses=[H], widths=[BW], labels=("web",), areas=[1200.0, areas],
+        depths=[70.0, D], steel=[STEEL, STEEL])
+    result = solve_arrays(batch, BLOCK)
+    assert np.all(result.status == 0)
+    assert result.zone_depth.min() < 70.0 < result.zone_depth.max()  # the edge passes the bar
+
+    def net(c, area):  # own strain compatibility: 0.003 at the top, EPP steel, 0.85f'c block
+        a = BETA1 * c
+        force = 0.85 * FC * BW * min(a, H)
+        for layer_area, depth in ((1200.0, 70.0), (area, D)):
+            stress = float(np.clip(200_000.0 * EPS_CU * (c - depth) / c, -FY, FY))
+            force += layer_area * (stress - (0.85 * FC if depth < a else 0.0))
+        return force
+
+    for area, c in zip(areas[::50], result.c[::50], strict=True):
+        assert abs(net(c, area)) < 1e-9 * 0.85 * FC * BW * BETA1 * c + 1e-6
+        below = np.linspace(1e-3 * c, c * (1 - 1e-9), 400)
+        assert all(net(x, area) < 0 for x in below)  # no shallower root exists
+    jumps = np.abs(np.diff(result.nominal_moment)) / result.nominal_moment[1:]
+    assert np.max(jumps) < 2e-3

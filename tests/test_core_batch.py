@@ -1,0 +1,140 @@
+"""One solver for one section and for a batch: scalar and batch results agree."""
+
+import math
+
+import numpy as np
+import pytest
+
+from clausewise.core import (
+    BilinearHardening,
+    ElasticPlastic,
+    ParabolaRectangle,
+    RectangularBlock,
+    Section,
+    SectionArrays,
+    SectionError,
+    SteelLayer,
+    solve,
+    solve_arrays,
+    stack_laws,
+)
+
+SCALARS = ("c", "zone_depth", "concrete_force", "concrete_depth", "overhang_force",
+           "overhang_depth", "web_force", "web_depth", "nominal_moment", "net_tensile_strain",
+           "extreme_tension_depth", "effective_depth", "c_over_dt", "c_over_d")
+LAYER_FIELDS = ("strain", "stress", "force", "displaced_concrete_stress")
+
+
+def close(x, y, rel=1e-9):
+    if math.isnan(x) or math.isnan(y):
+        return math.isnan(x) and math.isnan(y)
+    return x == pytest.approx(y, rel=rel, abs=1e-300)
+
+
+def assert_same(single, row):
+    for name in SCALARS:
+        assert close(getattr(single, name), getattr(row, name)), name
+    for a, b in zip(single.layers, row.layers, strict=True):
+        for name in LAYER_FIELDS:
+            assert close(getattr(a, name), getattr(b, name)), name
+        assert (a.yielded, a.within_strain_limit) == (b.yielded, b.within_strain_limit)
+    assert single.status == row.status
+    assert single.block_in_flange == row.block_in_flange
+    assert single.block_case == row.block_case
+    assert single.zone_reaches == row.zone_reaches
+    assert single.residual <= 1e-12 and row.residual <= 1e-12
+
+
+def random_tees(rng, n):
+    bw = rng.uniform(150.0, 500.0, n)
+    bf = bw + rng.choice([0.0, 1.0], n) * rng.uniform(0.0, 2500.0, n)  # some rectangles
+    h = rng.uniform(300.0, 1200.0, n)
+    hf = rng.uniform(0.08, 0.4, n) * h
+    d = h - rng.uniform(35.0, 90.0, n)
+    # light to heavily over-reinforced: blocks in the flange, in the web, elastic steel
+    area = np.exp(rng.uniform(np.log(0.0008), np.log(0.12), n)) * bw * d
+    return bf, bw, hf, h, d, area
+
+
+def test_from_profile_batch_with_array_laws_matches_scalar_solves():
+    rng = np.random.default_rng(20240601)
+    n = 80
+    bf, bw, hf, h, d, area = random_tees(rng, n)
+    fy = rng.uniform(250.0, 600.0, n)
+    es = rng.uniform(190_000.0, 210_000.0, n)
+    stress = rng.uniform(15.0, 80.0, n)
+    beta = rng.uniform(0.65, 1.0, n)
+    eps_cu = rng.uniform(0.0025, 0.0035, n)
+    batch = SectionArrays.from_profile(
+        thicknesses=[hf, h - hf], widths=[bf, bw], labels=("flange", "web"),
+        areas=[area], depths=[d], steel=[ElasticPlastic(modulus=es, yield_stress=fy)])
+    result = solve_arrays(batch, RectangularBlock(stress, beta, eps_cu))
+    assert result.size == n
+    kinds = {(bool(result.block_in_flange[i]), bool(result.layer_yielded[i, 0]))
+             for i in range(n)}
+    assert kinds == {(True, True), (False, True), (False, False)}  # the batch is mixed
+    for i in range(n):
+        section = Section.flanged(bf[i], bw[i], hf[i], h[i],
+                                  [SteelLayer(area[i], d[i], ElasticPlastic(es[i], fy[i]))])
+        single = solve(section, RectangularBlock(stress[i], beta[i], eps_cu[i]))
+        assert_same(single, result.row(i))
+
+
+@pytest.mark.parametrize("build", [Section.flanged, Section.hogging])
+def test_stacked_batch_with_parabola_and_hardening_matches_scalar_solves(build):
+    rng = np.random.default_rng(7)
+    n = 60
+    bf, bw, hf, h, d, area = random_tees(rng, n)
+    sections, laws = [], []
+    for i in range(n):
+        steel = BilinearHardening(modulus=200_000.0, yield_stress=rng.uniform(400.0, 550.0),
+                                  hardening_modulus=rng.uniform(0.0, 3000.0),
+                                  strain_limit=rng.uniform(0.02, 0.07))
+        layers = [SteelLayer(rng.uniform(0.05, 0.5) * area[i], rng.uniform(30.0, 80.0), steel),
+                  SteelLayer(area[i], d[i], steel)]
+        sections.append(build(bf[i], bw[i], hf[i], h[i], layers))
+        peak = rng.uniform(0.0018, 0.0025)
+        laws.append(ParabolaRectangle(peak_stress=rng.uniform(10.0, 55.0), strain_at_peak=peak,
+                                      ultimate_strain=rng.uniform(max(peak, 0.0026), 0.0035),
+                                      exponent=rng.uniform(1.4, 2.0)))
+    result = solve_arrays(SectionArrays.stack(sections), stack_laws(laws))
+    assert set(result.status.tolist()) == {0, 2}  # some light rows pass the strain limit
+    for i in range(n):
+        assert_same(solve(sections[i], laws[i]), result.row(i))
+
+
+def test_batch_results_do_not_depend_on_row_order():
+    rng = np.random.default_rng(3)
+    n = 50
+    bf, bw, hf, h, d, area = random_tees(rng, n)
+    steel = ElasticPlastic(200_000.0, 500.0)
+    law = RectangularBlock(0.85 * 30.0, 0.8, 0.003)
+
+    def batch(order):
+        return SectionArrays.from_profile([hf[order], (h - hf)[order]], [bf[order], bw[order]],
+                                          ("flange", "web"), [area[order]], [d[order]], [steel])
+
+    order = rng.permutation(n)
+    straight = solve_arrays(batch(np.arange(n)), law)
+    shuffled = solve_arrays(batch(order), law)
+    np.testing.assert_allclose(shuffled.c, straight.c[order], rtol=1e-12)
+    np.testing.assert_allclose(shuffled.nominal_moment, straight.nominal_moment[order],
+                               rtol=1e-12)
+
+
+def test_stacking_sagging_with_hogging_keeps_each_rows_strip_labels():
+    # a batch stores one label per strip column; sections whose strips mean different
+    # things must be refused, or each row must still report its own strips
+    steel = ElasticPlastic(200_000.0, 420.0)
+    law = RectangularBlock(0.85 * 28.0, 0.85, 0.003)
+    layers = [SteelLayer(1500.0, 540.0, steel)]
+    hogging = Section.hogging(800.0, 300.0, 100.0, 600.0, layers)
+    sagging = Section.flanged(800.0, 300.0, 100.0, 600.0, layers)
+    try:
+        batch = SectionArrays.stack([hogging, sagging])
+    except SectionError as error:
+        assert "label" in str(error)
+        return
+    result = solve_arrays(batch, law)
+    for i, section in enumerate([hogging, sagging]):
+        assert_same(solve(section, law), result.row(i))
