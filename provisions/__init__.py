@@ -13,7 +13,13 @@ from clausewise.core import (
     RectangularBlock,
     SectionError,
 )
-from clausewise.provisions.answers import EditionInfo, MaterialModel, Parameters, Resistance
+from clausewise.provisions.answers import (
+    EditionInfo,
+    MaterialModel,
+    ParameterError,
+    Parameters,
+    Resistance,
+)
 from clausewise.provisions.beam import (
     Actions,
     Beam,
@@ -67,8 +73,8 @@ __all__ = [
     "Actions", "Assessment", "Beam", "Bending", "BilinearHardening", "Bound", "Candidate",
     "Check", "Clause", "ClausewiseError", "Context", "Continuity", "Edition", "EditionError",
     "EditionInfo", "ElasticPlastic", "Envelope", "Factor", "FloorLayout", "Layer",
-    "MaterialModel", "ParabolaRectangle", "Parameter", "Parameters", "PiecewiseLinear",
-    "PluginError", "RectangularBlock", "Regime", "Registry", "Resistance", "SectionError",
+    "MaterialModel", "ParabolaRectangle", "Parameter", "ParameterError", "Parameters",
+    "PiecewiseLinear", "PluginError", "RectangularBlock", "Regime", "Registry", "Resistance", "SectionError",
     "Sense", "Shape", "StrengthBasis", "UnitSystem",
     "assess", "choose", "clamp", "cube_strength", "cylinder_strength", "default_registry",
     "evaluate", "hookimpl", "input_clause", "interpolate", "is_within", "largest_of", "log",

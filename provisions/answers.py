@@ -6,6 +6,7 @@ from collections.abc import Iterator, Mapping
 from dataclasses import dataclass
 from typing import Any
 
+from clausewise.core.errors import ClausewiseError
 from clausewise.provisions.vocabulary import Clause, Factor, Parameter, Regime
 
 
@@ -49,6 +50,10 @@ class Resistance:
     requirement: Clause
 
 
+class ParameterError(ClausewiseError, ValueError):
+    """A parameter set to a value its edition does not accept."""
+
+
 class Parameters(Mapping[str, Parameter]):
     """An edition's named parameters after layering: the topmost edition that sets a
     name wins, and each ``Parameter`` keeps the clause of whoever set it."""
@@ -71,6 +76,14 @@ class Parameters(Mapping[str, Parameter]):
 
     def value(self, name: str) -> Any:
         return self[name].value
+
+    def choice(self, name: str) -> str:
+        """A word-valued parameter, refused unless it is one of its ``choices``."""
+        p = self[name]
+        if p.choices is not None and p.value not in p.choices:
+            raise ParameterError(f"parameter {name} = {p.value!r} (set by {p.clause.edition}): "
+                                 f"expected one of {', '.join(p.choices)}")
+        return str(p.value)
 
     def cite(self, name: str) -> str:
         """``name = value (supplier clause)``, for a Factor's basis line."""

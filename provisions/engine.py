@@ -14,9 +14,9 @@ import numpy as np
 
 from clausewise.core import (
     Response,
-    SectionError,
     ResponseArrays,
     SectionArrays,
+    SectionError,
     cracking_moment,
     flanged_profile,
     gross_properties,
@@ -170,7 +170,7 @@ def evaluate(beam: Beam, edition: Edition, context: Context) -> Evaluation:
                             Sense.AT_MOST, resistance.requirement, "M_Ed", "N·mm",
                             f"governing combination: {_governing_label(demand)}"))
     checks += edition.minimum_reinforcement(beam, section, response, params, context)
-    checks += edition.ductility_limits(beam, response, params, context)
+    checks += edition.ductility_limits(beam, section, response, params, context)
     checks += edition.additional_checks(beam, section, response, params, context)
     return replace(result, concrete=concrete, steel=steel, section=section, response=response,
                    resistance=resistance, design_resistance=design_resistance, demand=demand,
@@ -180,7 +180,7 @@ def evaluate(beam: Beam, edition: Edition, context: Context) -> Evaluation:
 def _all_passed(checks: tuple[Check, ...]) -> Any:
     if not checks:
         return True
-    passed = np.logical_and.reduce([np.asarray(c.passed) for c in checks])
+    passed = np.logical_and.reduce(np.broadcast_arrays(*[np.asarray(c.passed) for c in checks]))
     return passed if np.ndim(passed) else bool(passed)
 
 

@@ -175,12 +175,13 @@ def minimum_reinforcement(beam: Beam, section: Any, response: Any, params: Param
 
 
 @hookspec(firstresult=True)
-def ductility_limits(beam: Beam, response: Any, params: Parameters,
+def ductility_limits(beam: Beam, section: Any, response: Any, params: Parameters,
                      context: Context) -> Sequence[Check]:
     """Return the maximum-reinforcement and ductility checks.
 
     Net tensile strain at least a limit, c/d or x/d at most a limit, steel area at
-    most a fraction of the concrete area: whatever the edition sets.
+    most a fraction of the concrete area (``section.area`` is the gross area):
+    whatever the edition sets.
     """
 
 

@@ -15,14 +15,20 @@ from __future__ import annotations
 
 import os
 from collections.abc import Callable
-from dataclasses import dataclass, field
+from dataclasses import dataclass, field, replace
 from typing import Any
 
 import pluggy
 
 from clausewise.core.errors import ClausewiseError
 from clausewise.provisions import hookspecs
-from clausewise.provisions.answers import EditionInfo, MaterialModel, Parameters, Resistance
+from clausewise.provisions.answers import (
+    EditionInfo,
+    MaterialModel,
+    ParameterError,
+    Parameters,
+    Resistance,
+)
 from clausewise.provisions.beam import Beam, Context
 from clausewise.provisions.vocabulary import Check, Envelope, Parameter
 
@@ -226,7 +232,9 @@ class Edition:
         for answer in reversed(self._call("edition_parameters", context=context)):
             for parameter in answer:
                 _returned(self, "edition_parameters", parameter, Parameter)
-                merged[parameter.name] = parameter
+                base = merged.get(parameter.name)
+                merged[parameter.name] = parameter if base is None else _override(base,
+                                                                                   parameter)
         self._parameters[context] = Parameters(merged)
         return self._parameters[context]
 
@@ -263,10 +271,10 @@ class Edition:
         return self._checks("minimum_reinforcement", beam=beam, section=section,
                             response=response, params=params, context=context)
 
-    def ductility_limits(self, beam: Beam, response: Any, params: Parameters,
+    def ductility_limits(self, beam: Beam, section: Any, response: Any, params: Parameters,
                          context: Context) -> list[Check]:
-        return self._checks("ductility_limits", beam=beam, response=response, params=params,
-                            context=context)
+        return self._checks("ductility_limits", beam=beam, section=section, response=response,
+                            params=params, context=context)
 
     def additional_checks(self, beam: Beam, section: Any, response: Any, params: Parameters,
                           context: Context) -> list[Check]:
@@ -283,6 +291,24 @@ class Edition:
         """Which layers implement a hook, topmost first (for the guide and the audit)."""
         return [impl.plugin_name for impl in reversed(getattr(self._pm.hook, hook)
                                                       .get_hookimpls())]
+
+
+def _override(base: Parameter, new: Parameter) -> Parameter:
+    """An upper layer's value for a base parameter: it keeps the base's contract (bounds,
+    choices, unit, meaning) and must respect it."""
+    merged = replace(new, bounds=new.bounds or base.bounds, choices=new.choices or base.choices,
+                     unit=new.unit or base.unit, description=new.description or base.description)
+    value, who = merged.value, new.clause.edition or "an upper layer"
+    if merged.choices is not None and value not in merged.choices:
+        raise ParameterError(f"parameter {new.name} = {value!r} (set by {who}): expected one "
+                             f"of {', '.join(merged.choices)}")
+    if merged.bounds is not None:
+        low, high = merged.bounds
+        if not isinstance(value, int | float) or not low <= value <= high:
+            unit = f" {merged.unit}" if merged.unit else ""
+            raise ParameterError(f"parameter {new.name} = {value!r} (set by {who}): expected a "
+                                 f"number from {low:g} to {high:g}{unit}")
+    return merged
 
 
 _DEFAULT: Registry | None = None

@@ -45,7 +45,8 @@ class Factor:
 @dataclass(frozen=True)
 class Parameter:
     """A named, overridable value of an edition (a nationally determined parameter,
-    a firm's preferred limit). ``bounds`` are the values a file may set it to."""
+    a firm's preferred limit). ``bounds`` (numbers) or ``choices`` (words) are the
+    values a parameter file may set it to."""
 
     name: str
     value: float | str
@@ -53,6 +54,7 @@ class Parameter:
     description: str = ""
     bounds: tuple[float, float] | None = None
     unit: str = ""
+    choices: tuple[str, ...] | None = None
 
 
 @dataclass(frozen=True)

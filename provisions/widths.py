@@ -29,6 +29,7 @@ class OverhangRule:
     label: str
     per_side: tuple[Value | None, ...]
     clause: Clause
+    basis: str = ""
 
 
 def slab_sides(beam: Beam) -> tuple[Value | None, ...]:
@@ -79,7 +80,7 @@ def overhang_envelope(beam: Beam, rules: Sequence[OverhangRule],
             uniform.append(total)
             where = "each side" if sides == 2 else "the slab side"
             candidates.append(Candidate(f"bw + {rule.label} on {where}", _out(total),
-                                        rule.clause))
+                                        rule.clause, rule.basis))
     separate = bw + sum(per_side_min)
     if np.all(np.isfinite(separate)) and (
             np.ndim(separate) or not uniform
