@@ -169,7 +169,8 @@ def evaluate(beam: Beam, edition: Edition, context: Context) -> Evaluation:
         checks.append(Check("flexural strength", demand.value, design_resistance.value,
                             Sense.AT_MOST, resistance.requirement, "M_Ed", "N·mm",
                             f"governing combination: {_governing_label(demand)}"))
-    checks += edition.minimum_reinforcement(beam, section, response, params, context)
+    checks += edition.minimum_reinforcement(beam, section, response, demand, resistance,
+                                            params, context)
     checks += edition.ductility_limits(beam, section, response, params, context)
     checks += edition.additional_checks(beam, section, response, params, context)
     return replace(result, concrete=concrete, steel=steel, section=section, response=response,

@@ -25,9 +25,10 @@ Topic hooks are ``firstresult``: the topmost edition of a layered stack that
 returns something other than ``None`` answers, the rest fall through to the
 base. An edition that ``extends`` another implements only the topics it changes.
 
-Assessment order (the engine calls the hooks in this order)::
+Assessment order (the engine calls the hooks in this order; ``edition_info`` is
+read once, when the edition is registered)::
 
-    edition_info -> edition_parameters -> applicability
+    edition_parameters -> applicability
       -> effective_flange_width (flanged beams only)
       -> concrete_law, steel_law -> [core solves the section]
       -> resistance_factor -> design_actions
@@ -163,14 +164,17 @@ def design_actions(beam: Beam, params: Parameters, context: Context) -> Envelope
 # --- reinforcement limits ------------------------------------------------------------
 
 @hookspec(firstresult=True)
-def minimum_reinforcement(beam: Beam, section: Any, response: Any, params: Parameters,
+def minimum_reinforcement(beam: Beam, section: Any, response: Any, demand: Envelope | None,
+                          resistance: Resistance, params: Parameters,
                           context: Context) -> Sequence[Check]:
     """Return the minimum-reinforcement checks (steel area mm², or strength N·mm).
 
     ``section`` gives gross properties of the section with its effective flange
-    (``section.gross.area``, ``.centroid``, ``.second_moment``) and
-    ``section.cracking_moment(fr)``. A waiver (e.g. provided steel ≥ 4/3 of that
-    required) belongs in the same check's limit and note.
+    (``section.area``, ``.centroid``, ``.second_moment``, ``.max_width``) and
+    ``section.cracking_moment(fr)``. ``demand`` (the factored-moment envelope, or
+    None) and ``resistance`` (the member factor) are those of this assessment, as
+    answered by the whole stack, so a waiver (e.g. provided steel ≥ 4/3 of that
+    required by analysis) uses the same numbers as the strength check.
     """
 
 

@@ -89,6 +89,9 @@ class Registry:
 
         available = {ep.name: ep for ep in entry_points(group=GROUP)}
         wanted = sorted(available) if self.only is None else sorted(self.only & available.keys())
+        for missing in sorted((self.only or set()) - available.keys()):
+            self.records.append(PluginRecord(missing, "CLAUSEWISE_EDITIONS", "", "",
+                                             error="EditionError: no such edition installed"))
         while wanted:
             for name in wanted:
                 ep = available[name]
@@ -267,9 +270,11 @@ class Edition:
             allow_none=True)
 
     def minimum_reinforcement(self, beam: Beam, section: Any, response: Any,
+                              demand: Envelope | None, resistance: Resistance,
                               params: Parameters, context: Context) -> list[Check]:
         return self._checks("minimum_reinforcement", beam=beam, section=section,
-                            response=response, params=params, context=context)
+                            response=response, demand=demand, resistance=resistance,
+                            params=params, context=context)
 
     def ductility_limits(self, beam: Beam, section: Any, response: Any, params: Parameters,
                          context: Context) -> list[Check]:
