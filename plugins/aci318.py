@@ -59,6 +59,7 @@ from clausewise.provisions import (
     smallest_of,
     sqrt,
 )
+from clausewise.provisions.combinations import Combination, factored_moment
 from clausewise.provisions.widths import OverhangRule, half_clear_distance, overhang_envelope
 
 INCH_POUND = "inch-pound"
@@ -325,22 +326,12 @@ class Aci318:
     @hookimpl
     def design_actions(self, beam: Beam, params: Parameters,
                        context: Context) -> Envelope | None:
-        a = beam.actions
         combos = self.clause("combinations", "factored load combinations")
-        if a.factored is not None:
-            return Envelope.largest("factored moment", "Mu", [
-                Candidate("as given", a.factored,
-                          self.clause("combinations", "factored moment as given"))], "N·mm")
-        if a.dead is None:
-            return None
-        dead = np.asarray(a.dead, float)
-        live = np.asarray(a.live if a.live is not None else 0.0, float)
         d1, d2, l2 = (params.value(n) for n in ("dead_only_factor", "dead_factor",
                                                 "live_factor"))
-        return Envelope.largest("factored moment", "Mu", [
-            Candidate(f"{d1:g}D", _out(d1 * dead), combos),
-            Candidate(f"{d2:g}D + {l2:g}L", _out(d2 * dead + l2 * live), combos),
-        ], "N·mm")
+        return factored_moment(beam, [Combination(d1, 0.0, combos), Combination(d2, l2, combos)],
+                               self.clause("combinations", "factored moment as given"),
+                               symbol="Mu")
 
     # --- reinforcement limits --------------------------------------------------------
 
