@@ -291,8 +291,10 @@ def take_rows(law: _Law, rows: NDArray[np.int_], size: int) -> _Law:
             return value[rows]
         return value
 
-    if not any(isinstance(getattr(law, f.name), np.ndarray | tuple)
-               for f in fields(law)):  # type: ignore[arg-type]
+    names = [f.name for f in fields(law)]  # type: ignore[arg-type]
+    if not any(isinstance(getattr(law, name), np.ndarray | tuple) for name in names):
         return law
-    return type(law)(**{f.name: taken(getattr(law, f.name))
-                        for f in fields(law)})  # type: ignore[arg-type]
+    subset = object.__new__(type(law))  # the rows of a checked law need no new checks
+    for name in names:
+        object.__setattr__(subset, name, taken(getattr(law, name)))
+    return subset

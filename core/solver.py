@@ -96,19 +96,22 @@ def find_neutral_axis(sec: SectionArrays, concrete: ConcreteLaw, *, rtol: float 
     status: NDArray[np.int_] = np.where(bracketed, NOT_CONVERGED, NOT_BRACKETED)
 
     rows = np.flatnonzero(bracketed)  # the working set, as indices into the batch
-    work, law = sec.take(rows), take_rows(concrete, rows, n)
+    work, law = (sec, concrete) if rows.size == n else (sec.take(rows),
+                                                         take_rows(concrete, rows, n))
     a, fa, b, fb = lo[rows], f_lo[rows], hi[rows], f_hi[rows]  # N(a) < 0 < N(b)
     side = np.zeros(rows.size)
+    done = np.zeros(rows.size, dtype=bool)
     for _ in range(max_iter):
-        if rows.size == 0:
+        if done.all():
             break
         secant = a - fa * (b - a) / (fb - fa)
         x = np.where(np.isfinite(secant) & (secant > a) & (secant < b), secant, 0.5 * (a + b))
         fx, scale = _net(work, law, x)
-        iterations[rows] += 1
-        converged = (np.abs(fx) <= rtol * scale) | (b - a <= 4e-16 * b)
+        iterations[rows[~done]] += 1
+        converged = ((np.abs(fx) <= rtol * scale) | (b - a <= 4e-16 * b)) & ~done
         c[rows[converged]] = x[converged]
         status[rows[converged]] = OK
+        done |= converged
         negative = fx < 0
         # Illinois: halve the stale end's value when the same end moves twice running
         fb = np.where(negative & (side < 0), 0.5 * fb, fb)
@@ -116,13 +119,13 @@ def find_neutral_axis(sec: SectionArrays, concrete: ConcreteLaw, *, rtol: float 
         a, fa = np.where(negative, x, a), np.where(negative, fx, fa)
         b, fb = np.where(negative, b, x), np.where(negative, fb, fx)
         side = np.where(negative, -1.0, 1.0)
-        if np.any(converged):
-            keep = ~converged
+        if 4 * done.sum() >= done.size and not done.all():  # shrink the working set
+            keep = np.flatnonzero(~done)
             rows, a, fa, b, fb, side = rows[keep], a[keep], fa[keep], b[keep], fb[keep], side[keep]
-            if rows.size:
-                local = np.flatnonzero(keep)
-                work, law = work.take(local), take_rows(law, local, keep.size)
-    c[rows] = 0.5 * (a + b)
+            work, law = work.take(keep), take_rows(law, keep, done.size)
+            done = done[keep]
+    unfinished = rows[~done]
+    c[unfinished] = 0.5 * (a + b)[~done]
     return c, status, iterations
 
 

@@ -237,15 +237,17 @@ def _group_table(edition: Edition, batch: Beam, ids: list[str], context: Context
     in_scope = np.ones(n, dtype=bool)
     for c in scope_checks:
         in_scope &= np.asarray(np.broadcast_to(c.passed, (n,)), dtype=bool)
-    table = _scope_table(edition, ids, context.form, scope_checks, in_scope)
     rows = np.flatnonzero(in_scope)
-    if rows.size == 0:
-        return table
+    table = None
+    if rows.size < n:
+        table = _scope_table(edition, ids, context.form, scope_checks, in_scope)
+        if rows.size == 0:
+            return table
     sub = take_beam(batch, rows) if rows.size < n else batch
     ev = evaluate(sub, edition, context)
     m = rows.size
     resp = ev.response
-    part = BatchTable.empty(edition.id, [ids[i] for i in rows])
+    part = BatchTable.empty(edition.id, [ids[i] for i in rows] if table else ids)
     part.form[:] = context.form
     part.nominal_moment[:] = resp.nominal_moment
     part.design_resistance[:] = _floats(ev.design_resistance.value, m)  # type: ignore[union-attr]
@@ -262,7 +264,7 @@ def _group_table(edition: Edition, batch: Beam, ids: list[str], context: Context
     part.block_case[:] = _block_cases(resp)
     checks = ev.checks
     for c in scope_checks:
-        part.utilisation[c.name] = table.utilisation[c.name][rows]
+        part.utilisation[c.name] = _floats(c.utilisation, n)[rows]
     if checks:
         util = np.array([_floats(c.utilisation, m) for c in checks])
         worst = np.argmax(util, axis=0)
@@ -279,6 +281,8 @@ def _group_table(edition: Edition, batch: Beam, ids: list[str], context: Context
     equilibrium = resp.equilibrium
     part.status[:] = np.where(~equilibrium, NO_EQUILIBRIUM, np.where(passed, PASS, FAIL))
     part.message[:] = np.where(equilibrium, "", "no equilibrium within the laws' limits")
+    if table is None:
+        return part
     table.fill(rows, part)
     return table
 
@@ -314,19 +318,22 @@ def iter_assess_many(beams: Sequence[Beam], editions: Iterable[str | Edition], *
     groups: dict[tuple[Any, ...], list[int]] = {}
     for i, beam in enumerate(beams):
         groups.setdefault(kind_of(beam), []).append(i)
+    chunks = [np.array(members[start:start + chunk]) for members in groups.values()
+              for start in range(0, len(members), chunk)]
+    stacked: dict[int, Beam] = {}
     for edition in resolved:
-        for members in groups.values():
-            for start in range(0, len(members), chunk):
-                index = np.array(members[start:start + chunk])
-                group = [beams[i] for i in index]
-                yield index, _chunk_table(edition, group, form, situation)
+        for number, index in enumerate(chunks):
+            group = [beams[i] for i in index]
+            if number not in stacked:
+                stacked[number] = stack_beams(group)
+            yield index, _chunk_table(edition, group, stacked[number], form, situation)
 
 
-def _chunk_table(edition: Edition, group: list[Beam], form: str | None,
+def _chunk_table(edition: Edition, group: list[Beam], batch: Beam, form: str | None,
                  situation: str) -> BatchTable:
     try:
         chosen, _ = resolve_form(edition, group[0], form)
-        return _group_table(edition, stack_beams(group), [b.id for b in group],
+        return _group_table(edition, batch, [b.id for b in group],
                             Context(form=chosen, situation=situation))
     except (ClausewiseError, ValueError, ArithmeticError):
         tables = [_single_table(edition, b, form, situation) for b in group]
@@ -344,6 +351,7 @@ def assess_many(beams: Sequence[Beam], editions: Iterable[str | Edition], *,
     out: dict[str, BatchTable] = {}
     for index, table in iter_assess_many(beams, editions, form=form, situation=situation,
                                          registry=registry):
-        target = out.setdefault(table.edition_id, BatchTable.empty(table.edition_id, ids))
-        target.fill(index, table)
+        if table.edition_id not in out:
+            out[table.edition_id] = BatchTable.empty(table.edition_id, ids)
+        out[table.edition_id].fill(index, table)
     return out
