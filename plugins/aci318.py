@@ -148,6 +148,11 @@ class Aci318:
             Parameter("fc_min", 2500 * MPA_PER_PSI if ip else 17.0,
                       c("concrete_minimum", "least specified concrete strength"),
                       "2500 psi" if ip else "17 MPa", (10.0, 30.0), "MPa"),
+            Parameter("fc_max", 14_500 * MPA_PER_PSI if ip else 100.0,
+                      c("stress_block", "no code upper limit: this plugin stops where the "
+                        "block's test basis ends"),
+                      "14 500 psi" if ip else "100 MPa; raise it only with evidence for the "
+                      "block at higher strength", (55.0, 200.0), "MPa"),
             Parameter("fy_max", 80_000 * MPA_PER_PSI if ip else 550.0,
                       c("steel_maximum", "greatest yield strength for flexure"),
                       "80 000 psi" if ip else "550 MPa", (300.0, 700.0), "MPa"),
@@ -180,6 +185,9 @@ class Aci318:
         return [
             Check("concrete strength at least the code minimum", fc, params.value("fc_min"),
                   Sense.AT_LEAST, params["fc_min"].clause, "f'c", "MPa"),
+            Check("concrete strength within the plugin's range", fc, params.value("fc_max"),
+                  Sense.AT_MOST, params["fc_max"].clause, "f'c", "MPa",
+                  params["fc_max"].description),
             Check("yield strength within the flexure limit", beam.yield_strength,
                   params.value("fy_max"), Sense.AT_MOST, params["fy_max"].clause, "fy", "MPa"),
         ]

@@ -25,7 +25,6 @@ import numpy as np
 from clausewise.provisions import (
     Beam,
     Check,
-    Clause,
     Context,
     Continuity,
     EditionInfo,
@@ -58,8 +57,8 @@ EDITION = EditionInfo(
 clause = EDITION.clause
 LOADS = clause("AS/NZS 1170.0 4.2.2", "strength load combinations of the loading standard")
 PHI_TABLE = clause("Table 2.2.2", "capacity reduction factor")
-ZERO_MOMENT_ESTIMATE = Clause("-", "distance between points of zero moment estimated from "
-                              "the span", "common practice")
+ZERO_MOMENT_ESTIMATE = clause("8.8.2 (estimate of a)", "distance between points of zero "
+                              "moment estimated from the span: common practice, not AS text")
 
 
 @hookimpl

@@ -50,17 +50,9 @@ from clausewise.provisions.testing import (
 ROOT = Path(__file__).resolve().parents[1]
 EDITIONS = {e.id: e for e in clausewise.editions()}
 
-# Findings reported to the edition owners; strict, so a fix turns these into failures
-# that ask for the mark to be removed.
-KNOWN = {
-    (edition, "scope_refuses_extrapolation"): "the ACI 318 family sets no upper limit on "
-    "f'c, so f'c = 200 MPa is assessed instead of refused (reported to the ACI owners)"
-    for edition in ("aci318-11", "aci318-14", "aci318-19", "tarnwick-beams:2025")
-} | {
-    ("as3600:2018", "parameters_declared"): "zero_moment_* parameters cite 'common "
-    "practice' as their edition, so the audit cannot name as3600:2018 as their supplier "
-    "(reported to the AS 3600 owner)",
-}
+# Findings reported to the edition owners, as (edition, property): reason; strict, so a fix
+# turns these into failures that ask for the mark to be removed.
+KNOWN: dict[tuple[str, str], str] = {}
 
 
 @cache
