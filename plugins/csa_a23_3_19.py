@@ -41,6 +41,7 @@ from clausewise.provisions import (
     cylinder_strength,
     hookimpl,
     largest_of,
+    smallest_of,
     sqrt,
 )
 from clausewise.provisions.combinations import Combination, factored_moment
@@ -79,6 +80,10 @@ def edition_parameters(context: Context) -> Sequence[Parameter]:
         Parameter("min_steel_coefficient", 0.2,
                   clause("10.5.1.2", "minimum tension reinforcement"),
                   "coefficient of √f'c/fy·bt·h", (0.1, 0.5)),
+        Parameter("tension_flange_limit", 1.5,
+                  clause("10.5.1.2", "bt of a flange in tension need not exceed 1.5bw"),
+                  "multiple of bw beyond which a tension flange does not add to bt "
+                  "(single web, from memory)", (1.0, 10.0)),
         Parameter("ductility_constant", 700.0, clause("10.5.2", "limit on c/d"),
                   "c/d at most k/(k + fy); k = εcu·Es = 700 MPa", (400.0, 1000.0), "MPa"),
         Parameter("dead_only_factor", 1.4, LOADS, "load case 1: 1.4D", (1.0, 2.0)),
@@ -214,9 +219,9 @@ def minimum_reinforcement(beam: Beam, section: Any, response: Any, params: Param
                           context: Context) -> Sequence[Check]:
     fc, fy = cylinder_strength(beam).value, np.asarray(beam.yield_strength, float)
     if beam.flanged and not beam.flange_in_compression:
-        # The whole effective flange in tension; the cap on bt that the standard allows for
-        # a tension flange (recalled as a multiple of bw) is not applied: that errs safe.
-        bt, note = section.max_width, "bt = effective flange width (flange in tension)"
+        cap = params.value("tension_flange_limit")
+        bt = smallest_of(section.max_width, cap * np.asarray(beam.web_width, float))
+        note = f"bt = effective flange width in tension, at most {cap:g}bw"
     else:
         bt, note = np.asarray(beam.web_width, float), "bt = bw (tension zone in the web)"
     coefficient = params.value("min_steel_coefficient")

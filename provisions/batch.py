@@ -24,6 +24,7 @@ from numpy.typing import NDArray
 from clausewise.core.errors import ClausewiseError
 from clausewise.provisions.beam import Actions, Beam, Context, FloorLayout, Layer
 from clausewise.provisions.engine import (
+    ERROR,
     FAIL,
     NO_EQUILIBRIUM,
     OUT_OF_SCOPE,
@@ -33,7 +34,6 @@ from clausewise.provisions.engine import (
 )
 from clausewise.provisions.registry import Edition, Registry, default_registry
 
-ERROR = "error"
 _NUMERIC_PARTS = (Beam, FloorLayout, Actions, Layer)
 
 

@@ -33,6 +33,7 @@ CAUTION = (
 )
 
 PASS, FAIL, OUT_OF_SCOPE, NO_EQUILIBRIUM = "pass", "fail", "outside scope", "no equilibrium"
+ERROR = "error"  # an edition could not assess the beam (in batch and command-line results)
 
 
 @dataclass(frozen=True)
@@ -222,6 +223,9 @@ class Assessment:
     design_resistance: Factor | None
     demand: Envelope | None
     checks: tuple[Check, ...]
+    situation: str = "persistent"
+    concrete_law: Any = None  # the core law solved (for figures and further study)
+    section: SectionView | None = None
     caution: str = CAUTION
 
     @property
@@ -295,6 +299,8 @@ def assess(beam: Beam, edition: str | Edition, *, form: str | None = None,
         steel_factors=ev.steel.factors if ev.steel else (),
         response=ev.response, resistance=ev.resistance,
         design_resistance=ev.design_resistance, demand=ev.demand, checks=ev.checks,
+        situation=situation, concrete_law=ev.concrete.law if ev.concrete else None,
+        section=ev.section,
     )
 
 

@@ -1,0 +1,181 @@
+"""Whole schedules through the batch path, with results written as they are computed.
+
+Rows go to CSV or JSON Lines chunk by chunk and are flushed at once, so a run
+that is interrupted keeps every row already written. Beams the input refused
+are written too (status "refused"), so nothing is lost. A summary is kept on the
+way: counts by status per edition and the worst beams.
+"""
+
+from __future__ import annotations
+
+import csv
+import heapq
+import json
+import time
+from collections import Counter
+from collections.abc import Callable, Sequence
+from dataclasses import dataclass, field
+from typing import IO, TYPE_CHECKING, Any
+
+import numpy as np
+
+from clausewise.provisions.batch import BatchTable, iter_assess_many
+from clausewise.provisions.engine import CAUTION
+from clausewise.provisions.registry import Edition
+
+if TYPE_CHECKING:
+    from clausewise.provisions.inputs import Schedule
+
+REFUSED = "refused"
+KN_M = 1e6  # N·mm per kN·m
+COLUMNS = (
+    "beam", "edition", "form", "status", "M_Rd_kNm", "M_Ed_kNm", "Mn_kNm", "phi",
+    "utilisation", "governing_check", "governing_clause", "effective_width_mm",
+    "width_governed_by", "combination", "c_mm", "net_tensile_strain", "regime",
+    "block_case", "message",
+)
+
+
+@dataclass
+class Summary:
+    """Counts by status per edition, and the beams with the highest utilisation."""
+
+    counts: dict[str, Counter[str]] = field(default_factory=dict)
+    worst: list[tuple[float, str, str, str]] = field(default_factory=list)
+    rows: int = 0
+    keep: int = 10
+
+    def add(self, table: BatchTable) -> None:
+        counts = self.counts.setdefault(table.edition_id, Counter())
+        values, tally = np.unique(table.status.astype(str), return_counts=True)
+        counts.update(dict(zip(values.tolist(), tally.tolist(), strict=True)))
+        self.rows += table.size
+        util = np.where(np.isfinite(table.governing_utilisation),
+                        table.governing_utilisation, np.inf)
+        for i in np.argsort(-util, kind="stable")[: self.keep]:
+            item = (float(util[i]), table.beam_ids[i], table.edition_id,
+                    str(table.governing_check[i]))
+            if len(self.worst) < self.keep:
+                heapq.heappush(self.worst, item)
+            else:
+                heapq.heappushpop(self.worst, item)
+
+    def refused(self, edition_ids: Sequence[str], count: int) -> None:
+        for edition_id in edition_ids:
+            self.counts.setdefault(edition_id, Counter())[REFUSED] += count
+
+    def worst_first(self) -> list[tuple[float, str, str, str]]:
+        return sorted(self.worst, reverse=True)
+
+
+def _numbers(values: Any, scale: float = 1.0, digits: int = 6) -> list[str]:
+    """A column of numbers as text, blank where there is none."""
+    spec = f".{digits}g"
+    return ["" if v != v else format(v, spec)  # v != v: NaN
+            for v in (np.asarray(values, float) / scale).tolist()]
+
+
+def _words(values: Any) -> list[str]:
+    return [str(v) for v in values]
+
+
+def table_rows(table: BatchTable) -> list[tuple[str, ...]]:
+    """One CSV row per beam of a batch table (SI units: kN·m, mm), built column-wise."""
+    width_key = next((k for k in table.governing_candidate if "width" in k), "")
+    demand_key = next((k for k in table.governing_candidate if k != width_key), "")
+    blank = [""] * table.size
+
+    def candidates(key: str) -> list[str]:
+        column = table.governing_candidate.get(key)
+        return blank if column is None else _words(column)
+
+    columns = [
+        table.beam_ids, [table.edition_id] * table.size, _words(table.form),
+        _words(table.status), _numbers(table.design_resistance, KN_M),
+        _numbers(table.demand, KN_M), _numbers(table.nominal_moment, KN_M),
+        _numbers(table.resistance_factor, digits=4),
+        _numbers(table.governing_utilisation, digits=4), _words(table.governing_check),
+        _words(table.governing_clause), _numbers(table.effective_width, digits=5),
+        candidates(width_key), candidates(demand_key), _numbers(table.neutral_axis, digits=5),
+        _numbers(table.net_tensile_strain, digits=5), _words(table.regime),
+        _words(table.block_case), _words(table.message),
+    ]
+    return list(zip(*columns, strict=True))
+
+
+class RowWriter:
+    """CSV (caution as the first line, then a header) or JSON Lines (one object a row)."""
+
+    def __init__(self, out: IO[str], kind: str) -> None:
+        self.out, self.kind = out, kind
+        if kind == "csv":
+            self.csv = csv.writer(out, lineterminator="\n")
+            self.csv.writerow([f"# {CAUTION}"])
+            self.csv.writerow(COLUMNS)
+        else:
+            out.write(json.dumps({"caution": CAUTION, "columns": COLUMNS}) + "\n")
+        out.flush()
+
+    def write(self, rows: Sequence[Sequence[str]]) -> None:
+        if self.kind == "csv":
+            self.csv.writerows(rows)
+        else:
+            self.out.write("".join(json.dumps(dict(zip(COLUMNS, r, strict=True))) + "\n"
+                                   for r in rows))
+        self.out.flush()
+
+
+def stream_schedule(schedule: Schedule, editions: Sequence[Edition], form: str | None,
+                    situation: str, writer: RowWriter | None,
+                    progress: Callable[[int, int], None] | None = None,
+                    chunk: int = 5_000) -> Summary:
+    """Assess every beam under every edition through the batch path; write and count."""
+    beams = [entry.beam for entry in schedule.entries]
+    summary = Summary()
+    total = len(beams) * len(editions)
+    done = 0
+    for _, table in iter_assess_many(beams, editions, form=form, situation=situation,
+                                     chunk=chunk):
+        if writer is not None:
+            writer.write(table_rows(table))
+        summary.add(table)
+        done += table.size
+        if progress is not None:
+            progress(done, total)
+    if schedule.problems:
+        ids = [e.id for e in editions]
+        summary.refused(ids, len({p.beam for p in schedule.problems}))
+        if writer is not None:
+            writer.write([[p.beam or "?", edition_id, "", REFUSED, *[""] * 14, p.message]
+                          for p in schedule.problems for edition_id in ids])
+    return summary
+
+
+class LazyProgress:
+    """A progress bar that appears only once a run has taken more than ``delay`` seconds."""
+
+    def __init__(self, enabled: bool, delay: float = 1.0) -> None:
+        self.enabled, self.delay = enabled, delay
+        self.start = time.perf_counter()
+        self.bar: Any = None
+        self.task: Any = None
+
+    def __call__(self, done: int, total: int) -> None:
+        if not self.enabled:
+            return
+        if self.bar is None:
+            if time.perf_counter() - self.start < self.delay:
+                return
+            from rich.console import Console
+            from rich.progress import BarColumn, MofNCompleteColumn, Progress, TimeRemainingColumn
+
+            self.bar = Progress("assessing", BarColumn(), MofNCompleteColumn(),
+                                TimeRemainingColumn(), transient=True,
+                                console=Console(stderr=True))
+            self.bar.start()
+            self.task = self.bar.add_task("assess", total=total)
+        self.bar.update(self.task, completed=done)
+
+    def close(self) -> None:
+        if self.bar is not None:
+            self.bar.stop()
