@@ -13,13 +13,14 @@ from clausewise.provisions.vocabulary import Clause, Factor, Parameter, Regime
 @dataclass(frozen=True)
 class EditionInfo:
     """Who an edition is. ``extends`` names the edition it layers over; ``forms`` the
-    published forms it implements (the first is the default)."""
+    published forms it implements (the first is the default). Left out, ``forms`` is
+    the base's for an extending edition and ("SI",) for a base."""
 
     id: str
     title: str
     year: int
     extends: str | None = None
-    forms: tuple[str, ...] = ("SI",)
+    forms: tuple[str, ...] | None = None
     summary: str = ""
 
     def clause(self, ref: str, title: str) -> Clause:

@@ -163,6 +163,13 @@ class Registry:
             current = record.info.extends  # type: ignore[union-attr]
         return Edition(tuple(reversed(chain)))
 
+    def forms(self, record: PluginRecord) -> tuple[str, ...]:
+        """The published forms of a loaded record's edition, inherited where not declared."""
+        try:
+            return self.edition(record.info.id).info.forms  # type: ignore[union-attr,return-value]
+        except EditionError:
+            return record.info.forms or ("SI",)  # type: ignore[union-attr]
+
     def editions(self) -> list[Edition]:
         """Every edition whose whole stack is available."""
         found = []
@@ -197,8 +204,13 @@ class Edition:
     _pm: pluggy.PluginManager = field(init=False, repr=False, compare=False)
     _parameters: dict[Context, Parameters] = field(init=False, repr=False, compare=False,
                                                    default_factory=dict)
+    _info: EditionInfo = field(init=False, repr=False, compare=False)
 
     def __post_init__(self) -> None:
+        declared = [r.info.forms for r in reversed(self.layers)  # type: ignore[union-attr]
+                    if r.info.forms is not None]  # type: ignore[union-attr]
+        object.__setattr__(self, "_info", replace(self.layers[-1].info,  # type: ignore[type-var]
+                                                  forms=declared[0] if declared else ("SI",)))
         pm = pluggy.PluginManager(hookspecs.PROJECT)
         pm.add_hookspecs(hookspecs)
         for record in self.layers:  # later registrations are called first
@@ -207,7 +219,8 @@ class Edition:
 
     @property
     def info(self) -> EditionInfo:
-        return self.layers[-1].info  # type: ignore[return-value]
+        """The top layer's identity, with the published forms it inherits resolved."""
+        return self._info
 
     @property
     def id(self) -> str:
