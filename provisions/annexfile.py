@@ -101,7 +101,7 @@ def declarations(edition: Edition) -> dict[str, Declaration]:
     found: dict[str, list[Parameter]] = {}
     for record in edition.layers:
         layer = Edition((record,))
-        for form in edition.info.forms:
+        for form in edition.forms:
             for parameter in layer.parameters(Context(form=form)).values():
                 found.setdefault(parameter.name, []).append(parameter)
     return {name: Declaration(name, tuple(ps)) for name, ps in found.items()}

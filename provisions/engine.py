@@ -104,7 +104,7 @@ class Evaluation:
 
 def resolve_form(edition: Edition, beam: Beam, form: str | None) -> tuple[str, str]:
     """The published form to use and why: the user's choice, else the beam's units."""
-    forms = edition.info.forms
+    forms = edition.forms
     if form and form != "auto":
         if form not in forms:
             raise EditionError(f"edition {edition.id!r} has no form {form!r} "

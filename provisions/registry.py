@@ -166,7 +166,7 @@ class Registry:
     def forms(self, record: PluginRecord) -> tuple[str, ...]:
         """The published forms of a loaded record's edition, inherited where not declared."""
         try:
-            return self.edition(record.info.id).info.forms  # type: ignore[union-attr,return-value]
+            return self.edition(record.info.id).forms  # type: ignore[union-attr]
         except EditionError:
             return record.info.forms or ("SI",)  # type: ignore[union-attr]
 
@@ -225,6 +225,11 @@ class Edition:
     @property
     def id(self) -> str:
         return self.info.id
+
+    @property
+    def forms(self) -> tuple[str, ...]:
+        """The published forms this edition implements (the first is the default)."""
+        return self._info.forms or ("SI",)
 
     @property
     def base(self) -> EditionInfo:

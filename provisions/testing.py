@@ -251,7 +251,7 @@ def parameters_declared(sample: Sample) -> list[Finding]:
     edition, name = sample.edition, "parameters declared"
     stack = {r.info.id for r in edition.layers if r.info}
     found = []
-    for form in edition.info.forms:
+    for form in edition.forms:
         for p in edition.parameters(Context(form=form)).values():
             if not (p.clause.ref and p.clause.edition in stack):
                 found.append(_finding(sample, name, f"{p.name}: clause {p.clause} must have a "
@@ -434,7 +434,7 @@ def unit_system_neutral(sample: Sample) -> list[Finding]:
     """The beam's unit system changes no result of a one-form edition, and changes a
     two-form edition's results within FORM_TOLERANCE (checks within LIMIT_TOLERANCE)."""
     found, name = [], "unit system neutral"
-    two_forms = "inch-pound" in sample.edition.info.forms
+    two_forms = "inch-pound" in sample.edition.forms
     main, limits = (FORM_TOLERANCE, LIMIT_TOLERANCE) if two_forms else (1e-12, 1e-12)
     for beam, si in sample.assessments():
         us = sample.assessed(beam, UnitSystem.US)

@@ -1,0 +1,464 @@
+"""The ``clausewise`` command: list editions, check, compare and explain beams of a file.
+
+Output: a report for people by default (colour only on a terminal); ``--format
+json|toml|csv`` for programs. Without ``--format``, an ``--out`` name ending in
+.json, .toml or .csv picks that format, and a report goes to .txt, .svg or .html.
+Files are written whole or not at all.
+
+Exit status: 0 every check passes; 1 a check fails, or a beam is outside an
+edition's scope or has no equilibrium; 2 bad input or usage, which includes any
+beam of the file refused for its input (the good beams are still checked and
+reported) and any beam an edition could not assess.
+
+Heavy libraries (rich, matplotlib, the input reader) are imported inside the
+commands that need them, so ``clausewise --help`` starts quickly.
+"""
+
+from __future__ import annotations
+
+import argparse
+import io
+import re
+import sys
+import textwrap
+from collections.abc import Callable, Sequence
+from dataclasses import replace
+from pathlib import Path
+from typing import TYPE_CHECKING, Any
+
+from clausewise.core.errors import ClausewiseError
+from clausewise.provisions import results
+from clausewise.provisions.engine import CAUTION, PASS
+from clausewise.provisions.registry import Edition, EditionError, Registry, default_registry
+from clausewise.provisions.results import ERROR, Outcome, run, write_atomic
+
+if TYPE_CHECKING:
+    from clausewise.provisions.inputs import Schedule
+
+PROGRAM = "clausewise"
+FORMATS = ("rich", "json", "toml", "csv")
+BY_SUFFIX = {".json": "json", ".toml": "toml", ".csv": "csv"}
+REPORT_WIDTH = 110  # columns of a report that does not go to a terminal
+BATCH_FROM = 2_000  # beam-editions beyond which check takes the batch path (rich or CSV)
+
+EXIT_STATUS = """exit status:
+  0  every check passes
+  1  a check fails, or a beam is outside an edition's scope or has no equilibrium
+  2  bad input or usage; also when some beams of the file were refused or an edition
+     could not assess a beam (the others are still checked and reported)
+
+environment:
+  CLAUSEWISE_EDITIONS  comma-separated edition ids: load only these (and their bases)
+  CLAUSEWISE_STRICT    1: a broken edition plugin stops every command
+"""
+
+
+class UsageError(ClausewiseError, ValueError):
+    """A command line that names something that does not exist."""
+
+
+# --- arguments ------------------------------------------------------------------------------
+
+def _output_options(parser: argparse.ArgumentParser) -> None:
+    parser.add_argument("--format", choices=FORMATS,
+                        help="rich: a report for people (the default); json, toml, csv: "
+                             "results for programs")
+    parser.add_argument("--out", type=Path, metavar="PATH",
+                        help="write to this file instead of the screen; without --format "
+                             "its extension picks the format: .json, .toml, .csv, or a "
+                             "report as .txt, .svg, .html")
+
+
+def _run_options(parser: argparse.ArgumentParser) -> None:
+    parser.add_argument("file", type=Path, metavar="FILE", help="the beam file (TOML)")
+    parser.add_argument("--form", choices=("auto", "SI", "inch-pound"),
+                        help="published form of the editions (default: the file's, else "
+                             "auto: each beam's own units)")
+    parser.add_argument("--situation", choices=("persistent", "accidental"),
+                        help="design situation (default: the file's, else persistent)")
+    parser.add_argument("--annex", type=Path, action="append", default=[], metavar="FILE",
+                        help="load a parameter file as an extra edition (repeatable)")
+    _output_options(parser)
+
+
+def _figure_options(parser: argparse.ArgumentParser, what: str) -> None:
+    parser.add_argument("--figures", type=Path, metavar="DIR", help=f"draw {what} into DIR")
+    parser.add_argument("--figure-format", choices=("svg", "png"), default="svg",
+                        help="file type of the figures (default svg)")
+
+
+def build_parser() -> argparse.ArgumentParser:
+    from clausewise import __version__
+
+    parser = argparse.ArgumentParser(
+        prog=PROGRAM, epilog=EXIT_STATUS, formatter_class=argparse.RawDescriptionHelpFormatter,
+        description="Flexural strength of reinforced-concrete flanged beams under\n"
+                    "interchangeable design standards, with the clause that governs.\n\n"
+                    + textwrap.fill(CAUTION, 72))
+    parser.add_argument("--version", action="version", version=f"{PROGRAM} {__version__}")
+    commands = parser.add_subparsers(dest="command", metavar="COMMAND", required=True)
+
+    editions = commands.add_parser("editions", help="list the installed editions",
+                                   epilog=EXIT_STATUS,
+                                   formatter_class=argparse.RawDescriptionHelpFormatter)
+    editions.add_argument("--strict", action="store_true",
+                          help="exit with status 2 when any edition plugin is broken")
+    editions.add_argument("--annex", type=Path, action="append", default=[], metavar="FILE",
+                          help="also load a parameter file as an edition (repeatable)")
+    _output_options(editions)
+    editions.set_defaults(handler=editions_command)
+
+    check = commands.add_parser("check", help="check every beam of a file",
+                                epilog=EXIT_STATUS,
+                                formatter_class=argparse.RawDescriptionHelpFormatter)
+    _run_options(check)
+    check.add_argument("--edition", action="append", metavar="ID",
+                       help="edition to check against (repeatable; default: the file's "
+                            "editions, else every installed one)")
+    _figure_options(check, "the section, strains and stresses of every beam")
+    check.set_defaults(handler=check_command)
+
+    compare = commands.add_parser("compare", help="the beams of a file under editions side "
+                                  "by side", epilog=EXIT_STATUS,
+                                  formatter_class=argparse.RawDescriptionHelpFormatter)
+    _run_options(compare)
+    compare.add_argument("--edition", action="append", metavar="ID",
+                         help="edition to compare (repeatable; default: every installed one)")
+    _figure_options(compare, "the utilisation per edition of every beam")
+    compare.set_defaults(handler=compare_command)
+
+    explain = commands.add_parser("explain", help="the full audit trail of one beam",
+                                  epilog=EXIT_STATUS,
+                                  formatter_class=argparse.RawDescriptionHelpFormatter)
+    _run_options(explain)
+    explain.add_argument("beam", metavar="BEAM", help="id of the beam in the file")
+    explain.add_argument("--edition", required=True, metavar="ID", help="edition to explain")
+    _figure_options(explain, "the section, strains and stresses")
+    explain.set_defaults(handler=explain_command)
+
+    batch = commands.add_parser(
+        "batch", help="check a large schedule fast; rows streamed to CSV or JSON Lines",
+        epilog=EXIT_STATUS, formatter_class=argparse.RawDescriptionHelpFormatter,
+        description="Every beam under every edition through the array path: the same "
+                    "numbers as check, written row by row as they are computed (an "
+                    "interrupted run keeps what was written), then a summary.")
+    batch.add_argument("file", type=Path, metavar="FILE", help="the beam file (TOML)")
+    batch.add_argument("--edition", action="append", metavar="ID",
+                       help="edition to check against (repeatable; default: the file's "
+                            "editions, else every installed one)")
+    batch.add_argument("--form", choices=("auto", "SI", "inch-pound"),
+                       help="published form of the editions (default: the file's, else auto)")
+    batch.add_argument("--situation", choices=("persistent", "accidental"),
+                       help="design situation (default: the file's, else persistent)")
+    batch.add_argument("--annex", type=Path, action="append", default=[], metavar="FILE",
+                       help="load a parameter file as an extra edition (repeatable)")
+    batch.add_argument("--out", type=Path, metavar="PATH",
+                       help="the rows: .csv (default) or .jsonl; without it only the summary "
+                            "is shown")
+    batch.set_defaults(handler=batch_command)
+
+    schema = commands.add_parser("schema", help="JSON Schema of the beam file (for editors)")
+    schema.add_argument("--results", action="store_true",
+                        help="the schema of the JSON results instead")
+    schema.add_argument("--out", type=Path, metavar="PATH", help="write to this file")
+    schema.set_defaults(handler=schema_command)
+    return parser
+
+
+# --- shared steps -----------------------------------------------------------------------------
+
+def _registry(annexes: Sequence[Path]) -> Registry:
+    """A registry of this run: the installed editions plus the given parameter files,
+    without touching the process-wide one."""
+    base = default_registry()
+    registry = Registry(strict=base.strict, only=base.only, records=list(base.records))
+    if annexes:
+        from clausewise.provisions.annexfile import load_annex
+
+        for path in annexes:
+            load_annex(path, registry)
+    return registry
+
+
+def _require(registry: Registry, requirements: Sequence[str]) -> None:
+    """Refuse to run unless every required edition is installed at an accepted version
+    (``"en1992-1-1:2004"`` or ``"en1992-1-1:2004 >= 1.2"``)."""
+    if not requirements:
+        return
+    from packaging.specifiers import InvalidSpecifier, SpecifierSet
+
+    installed = {r.info.id: r for r in registry.records if r.ok and r.info}
+    for requirement in requirements:
+        match = re.fullmatch(r"\s*([^\s<>=!~]+)\s*(.*?)\s*", requirement)
+        edition_id, spec = match.groups() if match else (requirement, "")
+        if edition_id not in installed:
+            raise EditionError(f"the file requires edition {edition_id!r}, which is not "
+                               f"installed (installed: {', '.join(sorted(installed))})")
+        try:
+            accepted = SpecifierSet(spec)
+        except InvalidSpecifier as exc:
+            raise UsageError(f"required edition {requirement!r}: {exc}") from None
+        version = installed[edition_id].version
+        if spec and version not in accepted:
+            raise EditionError(f"the file requires {edition_id} {spec}, but version "
+                               f"{version} is installed")
+
+
+def _load(args: argparse.Namespace) -> tuple[Schedule, Registry, str | None, str]:
+    from clausewise.provisions.inputs import load_schedule
+
+    schedule = load_schedule(args.file)
+    registry = _registry([*args.annex, *schedule.project.annexes])
+    _require(registry, schedule.project.required)
+    form = args.form or schedule.project.form or "auto"
+    situation = args.situation or schedule.project.situation or "persistent"
+    return schedule, registry, None if form == "auto" else form, situation
+
+
+def _editions(registry: Registry, ids: Sequence[str]) -> list[Edition]:
+    if not ids:
+        raise UsageError("no edition is installed" + (
+            f"; broken plugins: {', '.join(r.name for r in registry.broken)}"
+            if registry.broken else ""))
+    return [registry.edition(i) for i in dict.fromkeys(ids)]
+
+
+def exit_status(outcomes: Sequence[Outcome], schedule: Schedule) -> int:
+    if schedule.problems or any(o.status == ERROR for o in outcomes):
+        return 2
+    return 0 if all(o.status == PASS for o in outcomes) else 1
+
+
+def _chosen_format(args: argparse.Namespace) -> str:
+    if args.format:
+        return str(args.format)
+    if args.out is not None:
+        return BY_SUFFIX.get(args.out.suffix.lower(), "rich")
+    return "rich"
+
+
+def _emit_text(text: str, out: Path | None) -> None:
+    if out is None:
+        sys.stdout.write(text)
+    else:
+        write_atomic(out, text)
+
+
+def _emit_report(renderable: Any, width: int = REPORT_WIDTH, out: Path | None = None) -> None:
+    """Print a rich report (``width`` columns unless on a terminal), or write it to a
+    file as text, SVG or HTML."""
+    from rich.console import Console
+
+    if out is None:
+        terminal = sys.stdout.isatty()
+        Console(width=None if terminal else width, highlight=False).print(renderable)
+        return
+    kind = out.suffix.lower()
+    styled = kind in (".svg", ".html")
+    console = Console(file=io.StringIO(), record=True, width=width, highlight=False,
+                      force_terminal=styled, color_system="truecolor" if styled else None)
+    console.print(renderable)
+    if kind == ".svg":
+        write_atomic(out, console.export_svg(title=f"{PROGRAM} report"))
+    elif kind == ".html":
+        write_atomic(out, console.export_html())
+    else:
+        write_atomic(out, console.export_text())
+
+
+def _emit_document(data: dict[str, Any], kind: str, out: Path | None,
+                   csv_writer: Any = None) -> None:
+    writers = {"json": results.to_json, "toml": results.to_toml,
+               "csv": csv_writer or results.to_csv}
+    _emit_text(writers[kind](data), out)
+
+
+def _safe(name: str) -> str:
+    return re.sub(r"[^A-Za-z0-9._-]+", "_", name).strip("_") or "beam"
+
+
+def _beam_figures(folder: Path, outcomes: Sequence[Outcome], kind: str) -> None:
+    from clausewise.provisions import figures
+
+    folder.mkdir(parents=True, exist_ok=True)
+    written = 0
+    for o in outcomes:
+        a = o.assessment
+        if a is None or a.response is None or not a.response.equilibrium:
+            print(f"{PROGRAM}: no figure for beam {o.entry.beam.id} under {o.edition} "
+                  f"({o.status})", file=sys.stderr)
+            continue
+        figure = figures.beam_figure(a)
+        figures.save(figure, folder / f"{_safe(o.entry.beam.id)}_{_safe(o.edition)}.{kind}")
+        written += 1
+    print(f"{PROGRAM}: {written} figure(s) written to {folder}", file=sys.stderr)
+
+
+def _comparison_figures(folder: Path, outcomes: Sequence[Outcome], kind: str) -> None:
+    from clausewise.provisions import figures
+
+    folder.mkdir(parents=True, exist_ok=True)
+    by_beam: dict[str, list[Outcome]] = {}
+    for o in outcomes:
+        by_beam.setdefault(o.entry.beam.id, []).append(o)
+    written = 0
+    for beam_id, group in by_beam.items():
+        if any(o.assessment for o in group):
+            figures.save(figures.utilisation_figure(group),
+                         folder / f"{_safe(beam_id)}_editions.{kind}")
+            written += 1
+    print(f"{PROGRAM}: {written} figure(s) written to {folder}", file=sys.stderr)
+
+
+# --- commands ---------------------------------------------------------------------------------
+
+def editions_command(args: argparse.Namespace) -> int:
+    registry = _registry(args.annex)
+    kind = _chosen_format(args)
+    if kind == "rich":
+        from clausewise.provisions.report import editions_report
+
+        _emit_report(editions_report(registry), out=args.out)
+    else:
+        _emit_document(results.editions_document(registry), kind, args.out,
+                       results.editions_csv)
+    for record in registry.broken:
+        print(f"{PROGRAM}: broken edition plugin {record.name} ({record.source}): "
+              f"{record.error}", file=sys.stderr)
+    return 2 if args.strict and registry.broken else 0
+
+
+def _assess(args: argparse.Namespace, default_ids: Callable[[Schedule, Registry], list[str]]
+            ) -> tuple[Schedule, list[Edition], list[Outcome]]:
+    schedule, registry, form, situation = _load(args)
+    editions = _editions(registry, args.edition or default_ids(schedule, registry))
+    return schedule, editions, list(run(schedule, editions, form, situation))
+
+
+def _publish(args: argparse.Namespace, schedule: Schedule, outcomes: Sequence[Outcome],
+             build: Callable[[Any], tuple[Any, int]]) -> None:
+    """The results in the chosen format; ``build`` makes the report and its width from the
+    report module, which is imported only when a report is wanted."""
+    kind = _chosen_format(args)
+    if kind == "rich":
+        from clausewise.provisions import report
+
+        _emit_report(*build(report), out=args.out)
+    else:
+        _emit_document(results.document(schedule, outcomes), kind, args.out)
+
+
+def batch_command(args: argparse.Namespace) -> int:
+    schedule, registry, form, situation = _load(args)
+    editions = _editions(registry, args.edition or list(schedule.project.editions)
+                         or registry.ids())
+    return _run_batch(schedule, editions, form, situation, args.out)
+
+
+def _run_batch(schedule: Schedule, editions: Sequence[Edition], form: str | None,
+               situation: str, out: Path | None) -> int:
+    """The batch path: rows streamed to ``out`` (CSV, or JSON Lines for .jsonl), progress
+    on a terminal for runs longer than a second, and a summary at the end."""
+    from clausewise.provisions.stream import LazyProgress, RowWriter, stream_schedule
+
+    progress = LazyProgress(sys.stderr.isatty())
+    try:
+        if out is None:
+            summary = stream_schedule(schedule, editions, form, situation, None, progress)
+        else:
+            kind = "jsonl" if out.suffix.lower() in (".jsonl", ".ndjson") else "csv"
+            with out.open("w", encoding="utf-8", newline="") as handle:
+                summary = stream_schedule(schedule, editions, form, situation,
+                                          RowWriter(handle, kind), progress)
+    finally:
+        progress.close()
+    from clausewise.provisions.report import batch_summary
+
+    _emit_report(batch_summary(schedule, summary, out))
+    statuses = {s for counts in summary.counts.values() for s in counts}
+    if schedule.problems or ERROR in statuses:
+        return 2
+    return 0 if statuses <= {PASS} else 1
+
+
+def check_command(args: argparse.Namespace) -> int:
+    schedule, registry, form, situation = _load(args)
+    editions = _editions(registry, args.edition or list(schedule.project.editions)
+                         or registry.ids())
+    if (len(schedule.entries) * len(editions) > BATCH_FROM and not args.figures
+            and _chosen_format(args) in ("rich", "csv")):
+        return _run_batch(schedule, editions, form, situation, args.out)
+    outcomes = list(run(schedule, editions, form, situation))
+    _publish(args, schedule, outcomes,
+             lambda report: (report.check_report(schedule, outcomes), REPORT_WIDTH))
+    if args.figures:
+        _beam_figures(args.figures, outcomes, args.figure_format)
+    return exit_status(outcomes, schedule)
+
+
+def compare_command(args: argparse.Namespace) -> int:
+    schedule, editions, outcomes = _assess(args, lambda s, r: r.ids())
+    ids = [e.id for e in editions]
+    _publish(args, schedule, outcomes, lambda report: (
+        report.comparison_report(schedule, outcomes, ids),
+        max(REPORT_WIDTH, report.comparison_width(len(ids)))))
+    if args.figures:
+        _comparison_figures(args.figures, outcomes, args.figure_format)
+    return exit_status(outcomes, schedule)
+
+
+def explain_command(args: argparse.Namespace) -> int:
+    schedule, registry, form, situation = _load(args)
+    entries = [e for e in schedule.entries if e.beam.id == args.beam]
+    if not entries:
+        refused = [p for p in schedule.problems if p.beam == args.beam]
+        if refused:
+            raise UsageError(f"beam {args.beam!r} was refused: "
+                             + "; ".join(p.message for p in refused))
+        known = ", ".join(e.beam.id for e in schedule.entries) or "none"
+        raise UsageError(f"no beam {args.beam!r} in {args.file} (beams: {known})")
+    edition = registry.edition(args.edition)
+    beam_only = replace(schedule, entries=tuple(entries[:1]), problems=())
+    outcomes = list(run(beam_only, [edition], form, situation))
+
+    _publish(args, beam_only, outcomes,
+             lambda report: (report.explain_report(schedule, outcomes[0]), REPORT_WIDTH))
+    if args.figures:
+        _beam_figures(args.figures, outcomes, args.figure_format)
+    return exit_status(outcomes, beam_only)
+
+
+def schema_command(args: argparse.Namespace) -> int:
+    import json
+
+    if args.results:
+        schema = results.results_schema()
+    else:
+        from clausewise.provisions.inputs import json_schema
+
+        schema = json_schema()
+    _emit_text(json.dumps(schema, indent=2, ensure_ascii=False) + "\n", args.out)
+    return 0
+
+
+# --- entry point ------------------------------------------------------------------------------
+
+def main(argv: Sequence[str] | None = None) -> int:
+    """Run one command; user errors become a message on stderr and status 2, never a
+    traceback."""
+    parser = build_parser()
+    try:
+        args = parser.parse_args(argv)
+    except SystemExit as exc:  # --help, --version, or a usage error already printed
+        return exc.code if isinstance(exc.code, int) else 2
+    try:
+        return int(args.handler(args))
+    except (ClausewiseError, OSError, ValueError) as exc:
+        print(f"{PROGRAM}: error: {exc}", file=sys.stderr)
+        return 2
+    except KeyboardInterrupt:
+        return 130
+
+
+if __name__ == "__main__":
+    sys.exit(main())

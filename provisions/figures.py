@@ -1,0 +1,275 @@
+"""Figures (matplotlib, Agg): the section, its strains and its stresses; utilisation per edition.
+
+Drawn in the beam's own units with the slab on top, so a hogging section shows
+its compression zone at the soffit. The section is drawn to scale where its
+proportions allow. SVG or PNG by the file's extension. This module is imported
+only when figures are asked for.
+"""
+
+from __future__ import annotations
+
+import io
+from collections.abc import Sequence
+from dataclasses import dataclass
+from pathlib import Path
+from typing import Any
+
+import matplotlib
+import numpy as np
+
+matplotlib.use("Agg")
+from matplotlib.figure import Figure  # noqa: E402  (after choosing the backend)
+from matplotlib.patches import Rectangle  # noqa: E402
+from matplotlib.ticker import MaxNLocator  # noqa: E402
+
+from clausewise.provisions.beam import Bending, Shape  # noqa: E402
+from clausewise.provisions.engine import CAUTION, Assessment  # noqa: E402
+from clausewise.provisions.results import Outcome, Units, convert, write_atomic  # noqa: E402
+
+FORMATS = ("svg", "png")
+CONCRETE, ZONE, STEEL = "#d9d9d9", "#f4a259", "#1d3557"
+TENSION, COMPRESSION, STRAIN = "#c1121f", "#2a9d8f", "#bcd4e6"
+SMALL = 8
+
+# page geometry of the three-panel figure, inches
+HEIGHT, BOTTOM, PANEL_HEIGHT = 5.0, 0.9, 3.3
+LEFT, GAP, RIGHT, PANEL_WIDTH = 0.85, 0.4, 0.3, 3.3
+SECTION_WIDTH = (1.3, 7.0)  # narrowest and widest section panel before it stops being to scale
+
+
+def _format(path: Path) -> str:
+    kind = path.suffix.lower().lstrip(".")
+    if kind not in FORMATS:
+        raise ValueError(f"figure file {path.name!r}: expected a name ending in .svg or .png")
+    return kind
+
+
+def save(figure: Figure, path: Path) -> Path:
+    """Write a figure as SVG or PNG (by the extension), whole or not at all."""
+    buffer = io.BytesIO()
+    with matplotlib.rc_context({"svg.fonttype": "none"}):  # text stays text: searchable
+        figure.savefig(buffer, format=_format(path), dpi=150)
+    write_atomic(path, buffer.getvalue())
+    return path
+
+
+def _caption(figure: Figure, title: str) -> None:
+    figure.text(0.01, 1 - 0.12 / figure.get_figheight(), title, fontsize=10, ha="left",
+                va="top")
+    figure.text(0.01, 0.08 / figure.get_figheight(), CAUTION, fontsize=7, color="#555555",
+                ha="left", va="bottom")
+
+
+# --- one beam under one edition -------------------------------------------------------------
+
+@dataclass(frozen=True)
+class _Frame:
+    """Where things go: heights above the soffit in the beam's units."""
+
+    depth: float  # mm
+    sagging: bool
+    scale: float  # beam's length unit per mm
+    units: Units
+
+    def up(self, depth: Any) -> Any:
+        """Height above the soffit of a depth measured from the compression face."""
+        depth = np.asarray(depth, float)
+        return (self.depth - depth if self.sagging else depth) * self.scale
+
+    def y(self, depth: float) -> float:
+        return float(self.up(depth))
+
+    def beyond_face(self) -> dict[str, Any]:
+        """Placement of a label just outside the compression face."""
+        return {"xytext": (0, 3 if self.sagging else -3), "textcoords": "offset points",
+                "ha": "center", "va": "bottom" if self.sagging else "top"}
+
+    def limits(self) -> tuple[float, float]:
+        """Height limits with room for the labels at the compression face."""
+        low, high = (-0.06, 1.16) if self.sagging else (-0.16, 1.06)
+        return low * self.depth * self.scale, high * self.depth * self.scale
+
+
+def beam_figure(assessment: Assessment) -> Figure:
+    """Three panels at one height scale: the section with its effective flange, the
+    compression zone shaded and the steel layers; the strains; the stresses and forces.
+    """
+    a = assessment
+    r = a.response
+    if r is None or not r.equilibrium:
+        raise ValueError(f"beam {a.beam.id!r} under {a.edition_id}: no solved section to draw "
+                         f"({a.status})")
+    law = a.concrete_law
+    arrays = a.section.arrays  # type: ignore[union-attr]
+    units = Units(a.beam.unit_system)
+    frame = _Frame(float(arrays.edges[0, -1]), a.beam.bending is Bending.SAGGING,
+                   convert(1.0, "mm", units.system)[0], units)
+
+    x_range = _section_extent(a, arrays)
+    y_range = frame.limits()
+    wanted = PANEL_HEIGHT * (x_range[1] - x_range[0]) / (y_range[1] - y_range[0])
+    section_width = float(np.clip(wanted, *SECTION_WIDTH))
+    width = LEFT + section_width + 2 * (GAP + PANEL_WIDTH) + RIGHT
+    figure = Figure(figsize=(width, HEIGHT))
+    axes = []
+    x = LEFT
+    for panel_width in (section_width, PANEL_WIDTH, PANEL_WIDTH):
+        axes.append(figure.add_axes((x / width, BOTTOM / HEIGHT, panel_width / width,
+                                     PANEL_HEIGHT / HEIGHT)))
+        x += panel_width + GAP
+    section_ax, strain_ax, stress_ax = axes
+
+    _draw_section(section_ax, a, arrays, frame, to_scale=abs(wanted - section_width) < 1e-9)
+    section_ax.set_xlim(*x_range)
+    _draw_strains(strain_ax, a, float(law.ultimate_strain), frame)
+    _draw_stresses(stress_ax, a, law, frame)
+    for ax in axes:
+        ax.set_ylim(*y_range)
+        ax.axhline(frame.y(r.c), color="#555555", lw=0.8, ls="--")
+    for ax in (strain_ax, stress_ax):
+        ax.tick_params(labelleft=False)
+    section_ax.set_ylabel(f"height above the soffit ({units.unit('mm')})")
+    strain_ax.annotate("neutral axis", (0.02, frame.y(r.c)), xycoords=("axes fraction", "data"),
+                       xytext=(0, 3), textcoords="offset points", fontsize=SMALL,
+                       color="#555555")
+    _caption(figure, f"{a.beam.id} under {a.edition_id} ({a.form} form): {a.summary()}")
+    return figure
+
+
+def _left_edge(a: Assessment, width: float, web: float) -> float:
+    """An L beam's flange runs from the web's left face; the rest are symmetric."""
+    return -web / 2 if a.beam.shape is Shape.ELL else -width / 2
+
+
+def _section_extent(a: Assessment, arrays: Any) -> tuple[float, float]:
+    widths = arrays.widths[0]
+    web, widest = float(widths.min()), float(widths.max())
+    scale = convert(1.0, "mm", a.beam.unit_system)[0]
+    left = min(_left_edge(a, w, web) for w in widths)
+    right = max(_left_edge(a, w, web) + w for w in widths)
+    margin = 0.06 * widest
+    return ((left - margin) * scale, (right + margin + 0.35 * web) * scale)
+
+
+def _draw_section(ax: Any, a: Assessment, arrays: Any, frame: _Frame, to_scale: bool) -> None:
+    r = a.response
+    assert r is not None
+    units, s = frame.units, frame.scale
+    edges, widths = arrays.edges[0], arrays.widths[0]
+    web = float(widths.min())
+    for top, bottom, width, label in zip(edges[:-1], edges[1:], widths, arrays.labels,
+                                         strict=True):
+        left = _left_edge(a, width, web) * s
+        y0, y1 = sorted((frame.y(top), frame.y(bottom)))
+        ax.add_patch(Rectangle((left, y0), width * s, y1 - y0, facecolor=CONCRETE,
+                               edgecolor="black", lw=1.0))
+        zone_bottom = min(bottom, r.zone_depth)
+        if zone_bottom > top:
+            z0, z1 = sorted((frame.y(top), frame.y(zone_bottom)))
+            ax.add_patch(Rectangle((left, z0), width * s, z1 - z0, facecolor=ZONE,
+                                   edgecolor="none", alpha=0.85))
+        if label == "flange" and a.effective_width is not None:
+            ax.annotate(f"effective flange {units.length(width)}", (left + width * s / 2, y1),
+                        xytext=(0, 3), textcoords="offset points", ha="center", va="bottom",
+                        fontsize=SMALL)
+    for layer in r.layers:
+        xs = np.linspace(-0.3 * web, 0.3 * web, 3) * s
+        ax.plot(xs, [frame.y(layer.depth)] * 3, "o", color=STEEL, ms=5)
+        ax.annotate(units.value(layer.area, "mm²"), (float(xs[-1]), frame.y(layer.depth)),
+                    xytext=(7, 0), textcoords="offset points", va="center", fontsize=SMALL)
+    ax.set_title(f"section: {r.block_case}" + ("" if to_scale else " (not to scale)"),
+                 fontsize=9)
+    ax.set_xlabel(f"width ({units.unit('mm')}); shaded: compression zone", fontsize=SMALL)
+
+
+def _draw_strains(ax: Any, a: Assessment, eps_cu: float, frame: _Frame) -> None:
+    r = a.response
+    assert r is not None
+    depths = np.array([0.0, frame.depth])
+    strains = eps_cu * (r.c - depths) / r.c
+    ax.fill_betweenx(frame.up(depths), 0, strains, color=STRAIN, alpha=0.7)
+    ax.plot(strains, frame.up(depths), color="black", lw=1.0)
+    ax.axvline(0, color="black", lw=0.6)
+    ax.annotate(f"εcu = {eps_cu:.4g}", (eps_cu, frame.y(0.0)), fontsize=SMALL,
+                **frame.beyond_face())
+    for s in r.layers:
+        ax.plot([s.strain], [frame.y(s.depth)], "o", color=STEEL, ms=4)
+        side = "left" if s.strain < 0 else "right"
+        ax.annotate(f"{s.strain:.4g}", (s.strain, frame.y(s.depth)),
+                    xytext=(5 if side == "left" else -5, -2), textcoords="offset points",
+                    ha=side, va="top", fontsize=SMALL)
+    span = max(abs(strains).max(), eps_cu)
+    ax.set_xlim(-1.15 * span, 1.15 * span)
+    ax.xaxis.set_major_locator(MaxNLocator(5))
+    ax.set_title(f"strains: c = {frame.units.length(r.c)}, εt = {r.net_tensile_strain:.4g}",
+                 fontsize=9)
+    ax.set_xlabel("strain (shortening positive)", fontsize=SMALL)
+
+
+def _draw_stresses(ax: Any, a: Assessment, law: Any, frame: _Frame) -> None:
+    """Concrete stress over the depth; every resultant force as an arrow to one scale."""
+    r = a.response
+    assert r is not None
+    units = frame.units
+    ys = np.sort(np.concatenate([np.linspace(0.0, r.c, 201),
+                                 [r.zone_depth * (1 - 1e-9), r.zone_depth * (1 + 1e-9)]]))
+    stress = law.stress_at(np.array([r.c]), ys[None, :])[0]
+    shown = stress * convert(1.0, "MPa", units.system)[0]
+    ax.fill_betweenx(frame.up(ys), 0, shown, color=ZONE, alpha=0.85)
+    peak = max(float(shown.max()), 1e-9)
+    ax.annotate(units.value(stress.max(), "MPa"), (peak, frame.y(0.0)), fontsize=SMALL,
+                **frame.beyond_face())
+    forces = [(r.concrete_force, r.concrete_depth, "C")]
+    forces += [(s.force, s.depth, "T" if s.force < 0 else "Cs") for s in r.layers]
+    biggest = max(abs(f) for f, _, _ in forces) or 1.0
+    for force, depth, name in forces:
+        tip = 0.9 * peak * force / biggest
+        y = frame.y(depth)
+        color = COMPRESSION if force > 0 else TENSION
+        ax.annotate("", (tip, y), xytext=(0, y),
+                    arrowprops={"arrowstyle": "-|>", "color": color, "lw": 1.4})
+        label = f"{name} = {units.value(abs(force), 'N')}"
+        if name == "Cs":  # beside the axis, clear of the concrete resultant near it
+            ax.annotate(label, (0, y), xytext=(-4, 0), textcoords="offset points",
+                        ha="right", va="center", fontsize=SMALL, color=color)
+        else:
+            ax.annotate(label, (tip / 2, y), xytext=(0, 3), textcoords="offset points",
+                        ha="center", va="bottom", fontsize=SMALL, color=color)
+    ax.axvline(0, color="black", lw=0.6)
+    ax.set_xlim(-1.1 * peak, 1.25 * peak)
+    ax.set_title(f"stresses and forces: Mn = {units.moment(r.nominal_moment)}", fontsize=9)
+    ax.set_xlabel(f"concrete stress ({units.unit('MPa')}); arrows: forces to one scale",
+                  fontsize=SMALL)
+
+
+# --- editions compared ---------------------------------------------------------------------
+
+def utilisation_figure(outcomes: Sequence[Outcome]) -> Figure:
+    """The governing utilisation of one beam under each edition, with what governs."""
+    assessed = [(o, o.assessment) for o in outcomes if o.assessment is not None]
+    if not assessed:
+        raise ValueError("no assessed edition to draw")
+    beam = assessed[0][0].entry.beam
+    height = 1.3 + 0.45 * len(assessed)
+    figure = Figure(figsize=(8.5, height))
+    ax = figure.add_axes((1.6 / 8.5, 0.75 / height, 6.7 / 8.5, (height - 1.25) / height))
+    labels, values, colors, notes = [], [], [], []
+    for o, a in assessed:
+        check = a.governing
+        u = float(check.utilisation) if check is not None else 0.0
+        labels.append(o.edition)
+        values.append(u if np.isfinite(u) else 0.0)
+        colors.append(COMPRESSION if a.passed else TENSION)
+        notes.append(f"{u:.3f} {a.status}: {check.name}" if check else a.status)
+    positions = np.arange(len(labels))
+    ax.barh(positions, values, color=colors, height=0.6)
+    ax.axvline(1.0, color="black", lw=1.0, ls="--")
+    for y, value, note in zip(positions, values, notes, strict=True):
+        ax.annotate(note, (value, y), xytext=(4, 0), textcoords="offset points", va="center",
+                    fontsize=SMALL, bbox={"facecolor": "white", "edgecolor": "none", "pad": 1})
+    ax.set_yticks(positions, labels, fontsize=SMALL)
+    ax.invert_yaxis()
+    ax.set_xlim(0, max(1.2, max(values)) * 1.7)
+    ax.set_xlabel("governing utilisation (1.0 is the limit)", fontsize=SMALL)
+    _caption(figure, f"{beam.id}: governing utilisation per edition")
+    return figure

@@ -1,0 +1,326 @@
+"""Quantities with units at the input boundary: "650 mm", "5000 psi", "180 kN m", "3 #8".
+
+Inside, clausewise works in mm, mm², MPa and N·mm. A value from a file is a
+number followed by a unit, or a plain number that takes the unit system's
+default (SI: mm, mm², MPa, kN·m; US: in, in², psi, kip·ft).
+
+The hot path is lean: each string is split into a number and a unit text here,
+and only the unit text goes to pint, through a cache, so pint is touched once
+per distinct unit spelling however many values a file holds.
+"""
+
+from __future__ import annotations
+
+import math
+import re
+from dataclasses import dataclass
+from functools import lru_cache
+from typing import Any
+
+from clausewise.core.errors import ClausewiseError
+from clausewise.provisions.beam import UnitSystem
+
+
+class QuantityError(ClausewiseError, ValueError):
+    """A value that is not a quantity of the kind expected.
+
+    ``expected`` says what was expected and, where it helps, what was wrong
+    ("a length (e.g. '300 mm' or '12 in'); that is a stress").
+    """
+
+    def __init__(self, value: str, expected: str, detail: str = "") -> None:
+        super().__init__(f"expected {expected}, got {value!r}" + (f": {detail}" if detail else ""))
+        self.value = value
+        self.expected = f"{expected}; {detail}" if detail else expected
+
+
+@dataclass(frozen=True, eq=False)  # compared and hashed by identity: cheap cache keys
+class Kind:
+    """A physical kind of input: its internal unit and the defaults for plain numbers."""
+
+    name: str
+    article: str  # "a length"
+    internal: str  # pint spelling of the internal unit
+    defaults: tuple[tuple[str, str], tuple[str, str]]  # (pint spelling, label) for SI, US
+    examples: str
+
+    @property
+    def expected(self) -> str:
+        return f"{self.article} (e.g. {self.examples})"
+
+    def default(self, system: UnitSystem) -> tuple[str, str]:
+        return self.defaults[system is UnitSystem.US]
+
+
+LENGTH = Kind("length", "a length", "mm", (("mm", "mm"), ("inch", "in")),
+              "'300 mm' or '12 in'")
+AREA = Kind("area", "an area", "mm**2", (("mm**2", "mm²"), ("inch**2", "in²")),
+            "'1500 mm2' or '2.4 in^2'")
+STRESS = Kind("stress", "a stress", "MPa", (("MPa", "MPa"), ("psi", "psi")),
+              "'30 MPa' or '4000 psi'")
+MOMENT = Kind("moment", "a moment", "N*mm", (("kN*m", "kN m"), ("kip*ft", "kip ft")),
+              "'180 kN m' or '130 kip ft'")
+NUMBER = Kind("number", "a plain number", "", (("", ""), ("", "")), "'1.5'")
+KINDS = (LENGTH, AREA, STRESS, MOMENT, NUMBER)
+
+# Kinds a unit may belong to that are never an input here, named for the error message.
+_OTHER_KINDS = {"force": "newton", "volume": "mm**3"}
+
+
+# --- the one place that touches pint -------------------------------------------------
+
+@lru_cache(maxsize=1)
+def unit_registry() -> Any:
+    """The process-wide pint registry, built on first use (it takes a second or so)."""
+    import pint
+
+    return pint.UnitRegistry()
+
+
+@dataclass(frozen=True)
+class UnitInfo:
+    """What a unit spelling means: its kind (name) and the factor to the internal unit.
+
+    ``kind`` is "" for a spelling pint does not know; ``note`` then says why.
+    """
+
+    kind: str
+    factor: float
+    note: str = ""
+
+
+def _pint_unit(text: str) -> UnitInfo:
+    """Resolve a normalised unit text with pint (uncached: call :func:`unit_info`)."""
+    registry = unit_registry()
+    try:
+        units = registry.parse_units(text)
+        quantity = registry.Quantity(1.0, units)
+        dimensions = quantity.dimensionality
+        for kind in KINDS:
+            if dimensions == registry.Quantity(1.0, kind.internal).dimensionality:
+                return UnitInfo(kind.name, float(quantity.to(kind.internal).magnitude))
+        for name, example in _OTHER_KINDS.items():
+            if dimensions == registry.Quantity(1.0, example).dimensionality:
+                return UnitInfo(name, math.nan)
+        return UnitInfo("other", math.nan, f"a unit of {dimensions}")
+    except Exception as exc:  # pint raises many kinds; any of them means "not a unit"
+        return UnitInfo("", math.nan, f"unknown unit ({type(exc).__name__})")
+
+
+# Glued or ambiguous spellings that pint would misread (kNm is not kN·m to pint, k is the
+# Boltzmann constant, kn a knot, lb a pound of mass), mapped to what an engineer means.
+_ALIASES = {
+    "kNm": "kN*m", "KNm": "kN*m", "knm": "kN*m", "Nmm": "N*mm", "MNm": "MN*m", "Nm": "N*m",
+    "kn": "kN", "KN": "kN", "Kn": "kN", "k": "kip", "kips": "kip", "kipft": "kip*ft",
+    "kft": "kip*ft", "lb": "lbf", "lbs": "lbf", "mpa": "MPa", "Mpa": "MPa", "MPA": "MPa",
+    "gpa": "GPa", "Gpa": "GPa", "GPA": "GPa", "kpa": "kPa", "KPa": "kPa", "Ksi": "ksi",
+    "KSI": "ksi", "PSI": "psi", "Psi": "psi",
+}
+_WORD = re.compile(r"[A-Za-z]+")
+_JOINER = re.compile(r"(?<=[A-Za-z])\s*[-.·⋅•]\s*(?=[A-Za-z])")
+_EXPONENT = re.compile(r"(?<=[A-Za-z])([23])(?![\d.])")
+
+
+def normalise_unit(text: str) -> str:
+    """Unit text as pint reads it: "kip-ft" -> "kip*ft", "mm2" -> "mm**2", "N/mm²" ..."""
+    text = text.strip().rstrip(".").replace("²", "**2").replace("³", "**3").replace("^", "**")
+    text = _JOINER.sub("*", text)
+    text = _EXPONENT.sub(r"**\1", text)
+    return _WORD.sub(lambda m: _ALIASES.get(m.group(), m.group()), text)
+
+
+@lru_cache(maxsize=1024)
+def unit_info(text: str) -> UnitInfo:
+    """The meaning of a unit spelling, cached: pint sees each distinct spelling once."""
+    return _pint_unit(normalise_unit(text))
+
+
+# --- quantities --------------------------------------------------------------------------
+
+_GROUPED = r"\d{1,3}(?:[ _\u2009\u202f]\d{3})+"
+_SPLIT = re.compile(
+    rf"\s*([+-]?(?:(?:{_GROUPED}|\d+)(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?)(?![\d])\s*(.*?)\s*$",
+    re.DOTALL)
+_SEPARATORS = str.maketrans("", "", " _\u2009\u202f")
+
+
+def _number_text(value: Any) -> str:
+    return f"{value:.12g}" if isinstance(value, float) else str(value)
+
+
+def read_quantity(value: Any, kind: Kind, system: UnitSystem = UnitSystem.SI,
+                  sign: str = "positive") -> tuple[float, str]:
+    """A value from a file in internal units, and the text to show back to the user.
+
+    ``value`` is a string ("650 mm") or a plain number (taking ``system``'s default
+    unit). ``sign`` is "positive", "non-negative" or "any"; a value must be finite.
+    """
+    if isinstance(value, str):
+        return _read_text(str(value), kind, system, sign)
+    if not isinstance(value, int | float) or isinstance(value, bool):
+        raise QuantityError(str(value)[:80], kind.expected)
+    try:
+        number = float(value)
+    except OverflowError:  # an integer beyond any float
+        raise QuantityError(str(value)[:80], f"a finite {kind.name} (e.g. {kind.examples})"
+                            ) from None
+    factor, label = _default_unit(kind, system)
+    return _signed(number * factor, f"{_number_text(value)} {label}".rstrip(), kind, sign)
+
+
+@lru_cache(maxsize=64)
+def _default_unit(kind: Kind, system: UnitSystem) -> tuple[float, str]:
+    """Factor to the internal unit and label of the unit a plain number takes."""
+    spelling, label = kind.default(system)
+    return (unit_info(spelling).factor if spelling else 1.0), label
+
+
+@lru_cache(maxsize=8192)
+def _read_text(value: str, kind: Kind, system: UnitSystem, sign: str) -> tuple[float, str]:
+    """Schedules repeat the same few spellings ("650 mm", "30 MPa"): cache whole readings."""
+    match = _SPLIT.match(value)
+    if match is None:
+        raise QuantityError(value, kind.expected, "a number must come first, then the unit")
+    number_text, unit_text = match.groups()
+    try:
+        number = float(number_text)
+    except ValueError:  # digits grouped by spaces: "200 000"
+        number = float(number_text.translate(_SEPARATORS))
+    if not unit_text:
+        factor, label = _default_unit(kind, system)
+        return _signed(number * factor, f"{number_text} {label}".rstrip(), kind, sign)
+    shown = " ".join(value.split())
+    info = unit_info(unit_text)
+    if info.kind != kind.name:
+        raise QuantityError(shown, kind.expected, _wrong_unit(unit_text, info))
+    return _signed(number * info.factor, shown, kind, sign)
+
+
+def _signed(internal: float, shown: str, kind: Kind, sign: str) -> tuple[float, str]:
+    """The reading, once its sign and finiteness are as ``sign`` asks (NaN fails all)."""
+    if sign == "positive":
+        ok = 0.0 < internal < math.inf
+    elif sign == "non-negative":
+        ok = 0.0 <= internal < math.inf
+    else:
+        ok = math.isfinite(internal)
+    if not ok:
+        _check_sign(internal, sign, kind, shown)
+    return internal, shown
+
+
+def to_internal(value: Any, kind: Kind, system: UnitSystem = UnitSystem.SI,
+                sign: str = "positive") -> float:
+    """Like :func:`read_quantity`, without the text to show."""
+    return read_quantity(value, kind, system, sign)[0]
+
+
+def _wrong_unit(unit_text: str, info: UnitInfo) -> str:
+    if not info.kind:
+        if unit_text[:1] in ",0123456789":
+            return "write one number with a decimal point, then the unit"
+        return f"'{unit_text}' is not a unit known here"
+    article = "an" if info.kind[0] in "aeiou" else "a"
+    return f"that is {info.note or f'{article} {info.kind}'}"
+
+
+def _check_sign(value: float, sign: str, kind: Kind, shown: str) -> None:
+    if not math.isfinite(value):
+        raise QuantityError(shown, f"a finite {kind.name} (e.g. {kind.examples})")
+    if sign == "positive" and value <= 0:
+        raise QuantityError(shown, f"a positive {kind.name} (e.g. {kind.examples})")
+    if sign == "non-negative" and value < 0:
+        raise QuantityError(shown, f"a {kind.name} of zero or more (e.g. {kind.examples})")
+
+
+# --- bars --------------------------------------------------------------------------------
+
+MM2_PER_IN2 = 645.16  # (25.4 mm)², exact
+
+# ASTM A615 inch-pound bar sizes: nominal diameter (in) and area (in²), from memory
+US_BARS = {
+    3: (0.375, 0.11), 4: (0.500, 0.20), 5: (0.625, 0.31), 6: (0.750, 0.44), 7: (0.875, 0.60),
+    8: (1.000, 0.79), 9: (1.128, 1.00), 10: (1.270, 1.27), 11: (1.410, 1.56),
+    14: (1.693, 2.25), 18: (2.257, 4.00),
+}
+# CSA G30.18 metric bar designations: nominal diameter (mm) and area (mm²), from memory
+CANADIAN_BARS = {
+    10: (11.3, 100.0), 15: (16.0, 200.0), 20: (19.5, 300.0), 25: (25.2, 500.0),
+    30: (29.9, 700.0), 35: (35.7, 1000.0), 45: (43.7, 1500.0), 55: (56.4, 2500.0),
+}
+MAX_BARS = 200  # in one group; more is a typing slip
+DIAMETER_RANGE = (3.0, 60.0)  # mm: outside this a bar size is a slip of the unit
+BARS_EXPECTED = ("bars such as '4 x 25 mm', '3 #8', '2 N20 + 2 N16', '4 T16' or '3 25M' "
+                 "(a count, then the bar size)")
+
+
+@dataclass(frozen=True)
+class Bars:
+    """A group of bars: total area (mm²), the text to show, the largest diameter (mm)."""
+
+    area: float
+    text: str
+    largest_diameter: float
+    count: int
+
+
+_TERM = re.compile(
+    r"\s*(?P<count>\d{1,6})(?:\s*(?P<sep>[x×X*-])\s*|\s+|(?=[#NnTYHRØøφϕ]))(?:"
+    r"(?:#|[Nn]o\.?\s*)(?P<us>\d{1,3})"  # 3 #8, 3 No. 8
+    r"|(?P<ca>\d{1,3})\s*M"  # 3 25M
+    r"|(?:[NTYHR]|[Øøφϕ]\s*)(?P<dia>\d+(?:\.\d+)?)"  # 4 N20, 3 T16, 4 Ø20 (mm)
+    r"|(?P<length>[\d.].*?)"  # 4 x 25 mm (after a separator only)
+    r")\s*$", re.DOTALL)
+
+
+@lru_cache(maxsize=4096)
+def _bars(text: str, system: UnitSystem) -> Bars:
+    total, count, largest = 0.0, 0, 0.0
+    for term in text.split("+"):
+        match = _TERM.match(term)
+        if match is None or (match["length"] is not None and match["sep"] is None):
+            raise QuantityError(text, BARS_EXPECTED)
+        n = int(match["count"])
+        if not 1 <= n <= MAX_BARS:
+            raise QuantityError(text, BARS_EXPECTED, f"a count from 1 to {MAX_BARS}")
+        if match["us"] is not None:
+            size = int(match["us"])
+            if size not in US_BARS:
+                raise QuantityError(text, BARS_EXPECTED, "US sizes are "
+                                    + ", ".join(f"#{s}" for s in US_BARS))
+            diameter, area = US_BARS[size][0] * 25.4, US_BARS[size][1] * MM2_PER_IN2
+        elif match["ca"] is not None:
+            size = int(match["ca"])
+            if size not in CANADIAN_BARS:
+                raise QuantityError(text, BARS_EXPECTED, "metric M sizes are "
+                                    + ", ".join(f"{s}M" for s in CANADIAN_BARS))
+            diameter, area = CANADIAN_BARS[size]
+        else:
+            if match["dia"] is not None:
+                diameter = float(match["dia"])
+            else:
+                try:
+                    diameter = to_internal(match["length"], LENGTH, system)
+                except QuantityError as exc:
+                    raise QuantityError(text, BARS_EXPECTED, "the bar diameter must be "
+                                        f"{LENGTH.expected}") from exc
+            low, high = DIAMETER_RANGE
+            if not low <= diameter <= high:
+                raise QuantityError(text, BARS_EXPECTED, f"a bar diameter between {low:g} and "
+                                    f"{high:g} mm (this one is {diameter:.4g} mm)")
+            area = math.pi * diameter**2 / 4
+        total += n * area
+        count += n
+        largest = max(largest, diameter)
+    return Bars(total, " ".join(text.split()), largest, count)
+
+
+def read_bars(value: Any, system: UnitSystem = UnitSystem.SI) -> Bars:
+    """Bars in our notation: "4 x 25 mm", "4x25mm", "3 #8", "2 x 20 mm + 2 x 16 mm",
+    "4 N20", "3 T16" / "3 Y16" / "4 Ø20" (diameter in mm), "3 25M" (CSA sizes).
+
+    A diameter after "x" without a unit takes ``system``'s length unit.
+    """
+    if not isinstance(value, str):
+        raise QuantityError(str(value), BARS_EXPECTED)
+    return _bars(value.strip(), system)

@@ -1,0 +1,146 @@
+"""Figures: the drawn geometry against hand values, and files that parse as SVG and PNG.
+
+Hand values: ACI 318-19 rectangular block (from memory: 22.2.2.4.1 block 0.85 f'c over
+a = β1 c, 6.3.2.1 overhang limits); IS 456:2000 38.1 design peak 0.67 fck/1.5 on the
+cube strength (from memory), fck = 37 MPa for a C30/37 concrete (EN 1992-1-1 Table 3.1,
+from memory).
+"""
+
+from __future__ import annotations
+
+import xml.etree.ElementTree as ET
+
+import numpy as np
+import pytest
+from matplotlib.patches import Rectangle
+
+from clausewise.provisions import CAUTION, default_registry
+from clausewise.provisions import figures as figs
+from clausewise.provisions.inputs import parse_schedule
+from clausewise.provisions.results import run
+
+SCHEDULE = """
+[[beam]]
+id = "K-1"
+shape = "T"
+web_width = "300 mm"
+overall_depth = "600 mm"
+slab_thickness = "120 mm"
+concrete_strength = "30 MPa"
+yield_strength = "420 MPa"
+tension = [{ area = "2000 mm2", depth = "540 mm" }]
+floor = { span = "6000 mm", clear_left = "2500 mm", clear_right = "2500 mm" }
+moments = { dead = "150 kN m", live = "100 kN m" }
+
+[[beam]]
+id = "K-2"
+shape = "T"
+units = "US"
+bending = "hogging"
+web_width = "12 in"
+overall_depth = "24 in"
+slab_thickness = "5 in"
+concrete_strength = "4000 psi"
+yield_strength = "60000 psi"
+tension = [{ area = "2.37 in2", depth = "21.5 in" }]
+floor = { span = "240 in", continuity = "interior", clear_left = "96 in", clear_right = "96 in" }
+moments = { factored = "120 kip ft" }
+
+[[beam]]
+id = "K-3"
+shape = "rectangular"
+web_width = "300 mm"
+overall_depth = "500 mm"
+concrete_strength = "12 MPa"
+yield_strength = "420 MPa"
+tension = [{ area = "1500 mm2", depth = "450 mm" }]
+moments = { factored = "100 kN m" }
+"""
+
+ZONE = figs.ZONE
+
+
+@pytest.fixture(scope="module")
+def outcomes():
+    schedule = parse_schedule(SCHEDULE, "yard.toml")
+    registry = default_registry()
+    editions = [registry.edition(i) for i in ("aci318-19", "is456:2000")]
+    return {(o.entry.beam.id, o.edition): o for o in run(schedule, editions, None,
+                                                            "persistent")}
+
+
+def drawn(outcome):
+    return figs.beam_figure(outcome.assessment)
+
+
+def rectangles(ax, color=None):
+    found = [p for p in ax.patches if isinstance(p, Rectangle)]
+    if color is None:
+        return found
+    return [p for p in found if np.allclose(p.get_facecolor()[:3], _rgb(color))]
+
+
+def _rgb(hex_color: str) -> tuple[float, ...]:
+    return tuple(int(hex_color[i:i + 2], 16) / 255 for i in (1, 3, 5))
+
+
+def test_sagging_t_section_draws_the_effective_flange_and_the_block(outcomes):
+    figure = drawn(outcomes[("K-1", "aci318-19")])
+    section, strains, stresses = figure.axes
+    flange = max(rectangles(section), key=lambda p: p.get_width())
+    assert flange.get_width() == pytest.approx(300 + 2 * 6000 / 8)  # ln/8 governs: 1800 mm
+    [zone] = rectangles(section, ZONE)
+    a = 2000 * 420 / (0.85 * 30 * 1800)
+    assert zone.get_height() == pytest.approx(a)
+    assert zone.get_y() + zone.get_height() == pytest.approx(600)  # from the top face
+    assert strains.get_ylim() == section.get_ylim() == stresses.get_ylim()
+
+
+def test_hogging_section_has_its_compression_zone_at_the_soffit_in_inches(outcomes):
+    figure = drawn(outcomes[("K-2", "aci318-19")])
+    section = figure.axes[0]
+    [zone] = rectangles(section, ZONE)
+    a_in = 2.37 * 60000 / (0.85 * 4000 * 12)  # the 12 in web is compressed
+    assert zone.get_y() == pytest.approx(0, abs=1e-9)
+    assert zone.get_height() == pytest.approx(a_in, rel=1e-6)
+    assert zone.get_width() == pytest.approx(12)
+    assert "(in)" in section.get_ylabel()
+
+
+def test_stress_panel_shows_the_parabola_rectangle_peak(outcomes):
+    figure = drawn(outcomes[("K-1", "is456:2000")])
+    stresses = figure.axes[2]
+    labels = [t.get_text() for t in stresses.texts]
+    assert f"{0.67 * 37 / 1.5:.4g} MPa" in labels
+
+
+def test_svg_and_png_files_parse(outcomes, tmp_path):
+    figure = drawn(outcomes[("K-1", "aci318-19")])
+    svg = figs.save(figure, tmp_path / "k1.svg")
+    root = ET.parse(svg).getroot()
+    assert root.tag.endswith("svg")
+    text = " ".join(root.itertext())
+    assert CAUTION in text and "effective flange 1800 mm" in text
+    png = figs.save(figure, tmp_path / "k1.png").read_bytes()
+    assert png[:8] == b"\x89PNG\r\n\x1a\n" and len(png) > 10_000
+    with pytest.raises(ValueError, match=".svg or .png"):
+        figs.save(figure, tmp_path / "k1.pdf")
+
+
+def test_utilisation_figure_has_one_bar_per_edition(outcomes, tmp_path):
+    group = [outcomes[("K-1", e)] for e in ("aci318-19", "is456:2000")]
+    figure = figs.utilisation_figure(group)
+    bars = rectangles(figure.axes[0])
+    assert [b.get_width() for b in bars] == pytest.approx(
+        [o.assessment.governing.utilisation for o in group])
+    assert [t.get_text() for t in figure.axes[0].get_yticklabels()] == [
+        "aci318-19", "is456:2000"]
+    root = ET.parse(figs.save(figure, tmp_path / "k1_editions.svg")).getroot()
+    assert root.tag.endswith("svg")
+
+
+def test_a_beam_outside_scope_has_no_section_to_draw(outcomes):
+    outside = outcomes[("K-3", "aci318-19")]  # f'c = 12 MPa < 17 MPa (19.2.1.1)
+    assert outside.assessment.status == "outside scope"
+    with pytest.raises(ValueError, match="no solved section"):
+        drawn(outside)
