@@ -1,0 +1,103 @@
+"""Large schedules from the command line: streamed rows, the same numbers, a summary."""
+
+from __future__ import annotations
+
+import csv
+import json
+import math
+
+import pytest
+import tomli_w
+
+import clausewise
+from clausewise.provisions import assess
+from clausewise.provisions.cli import BATCH_FROM, main
+from clausewise.provisions.inputs import load_schedule
+from clausewise.provisions.stream import COLUMNS, RowWriter, stream_schedule
+from clausewise.provisions.synthetic import schedule_document, synthetic_beams
+
+EDITIONS = ["aci318-19", "en1992-1-1:2004"]
+
+
+@pytest.fixture(scope="module")
+def schedule_file(tmp_path_factory):
+    path = tmp_path_factory.mktemp("schedule") / "portfolio.toml"
+    document = schedule_document(synthetic_beams(400, seed=5))
+    document["beam"][7]["web_width"] = "30 MPa"  # one bad beam: refused, the rest go on
+    path.write_bytes(tomli_w.dumps(document).encode())
+    return path
+
+
+def read_rows(path):
+    with path.open(encoding="utf-8") as handle:
+        lines = list(csv.reader(handle))
+    assert "licensed engineer" in lines[0][0]  # the caution leads the file
+    assert tuple(lines[1]) == COLUMNS
+    return [dict(zip(COLUMNS, row, strict=True)) for row in lines[2:]]
+
+
+def test_batch_writes_every_beam_under_every_edition(schedule_file, tmp_path, capsys):
+    out = tmp_path / "rows.csv"
+    status = main(["batch", str(schedule_file), "--out", str(out),
+                   *[a for e in EDITIONS for a in ("--edition", e)]])
+    assert status == 2  # one beam was refused for its input
+    rows = read_rows(out)
+    assert len(rows) == 400 * len(EDITIONS)
+    refused = [r for r in rows if r["status"] == "refused"]
+    assert {r["edition"] for r in refused} == set(EDITIONS)
+    assert all("web_width" in r["message"] for r in refused)
+    report = capsys.readouterr().out
+    assert "beams by status, per edition" in report and "licensed engineer" in report
+    assert f"{len(rows) - len(refused):,} rows written" in report
+
+
+def test_batch_rows_match_the_audited_path(schedule_file, tmp_path):
+    out = tmp_path / "rows.csv"
+    main(["batch", str(schedule_file), "--out", str(out), "--edition", EDITIONS[1]])
+    rows = {r["beam"]: r for r in read_rows(out)}
+    beams = {e.beam.id: e.beam for e in load_schedule(schedule_file).entries}
+    for beam_id in list(beams)[::23]:
+        audited = assess(beams[beam_id], EDITIONS[1])
+        row = rows[beam_id]
+        assert row["status"] == audited.status
+        assert row["governing_check"] == audited.governing.name
+        # the rows carry six significant figures
+        assert math.isclose(float(row["M_Rd_kNm"]), audited.design_resistance.value / 1e6,
+                            rel_tol=1e-5)
+        assert math.isclose(float(row["utilisation"]), audited.governing.utilisation,
+                            rel_tol=1e-3)
+
+
+def test_json_lines_carry_the_same_rows(schedule_file, tmp_path):
+    out = tmp_path / "rows.jsonl"
+    main(["batch", str(schedule_file), "--out", str(out), "--edition", EDITIONS[0]])
+    lines = out.read_text(encoding="utf-8").splitlines()
+    head = json.loads(lines[0])
+    assert "licensed engineer" in head["caution"] and tuple(head["columns"]) == COLUMNS
+    rows = [json.loads(line) for line in lines[1:]]
+    assert len(rows) == 400 and {r["edition"] for r in rows} == {EDITIONS[0]}
+
+
+def test_an_interrupted_run_keeps_what_was_written(schedule_file, tmp_path):
+    schedule = load_schedule(schedule_file)
+    out = tmp_path / "partial.csv"
+    from clausewise.provisions import default_registry
+
+    editions = [default_registry().edition(e) for e in EDITIONS]
+
+    def stop_after_first_chunk(done, total):
+        raise KeyboardInterrupt
+
+    with out.open("w", encoding="utf-8", newline="") as handle, \
+            pytest.raises(KeyboardInterrupt):
+        stream_schedule(schedule, editions, None, "persistent", RowWriter(handle, "csv"),
+                        stop_after_first_chunk, chunk=50)
+    rows = read_rows(out)
+    assert 0 < len(rows) < 400 * len(EDITIONS)
+    assert all(r["status"] in ("pass", "fail") for r in rows)
+
+
+def test_check_takes_the_batch_path_for_a_large_file(schedule_file, capsys):
+    assert 400 * len(clausewise.editions()) > BATCH_FROM  # enough beam-editions
+    main(["check", str(schedule_file)])
+    assert "schedule checked (batch path)" in capsys.readouterr().out
