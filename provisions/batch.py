@@ -212,21 +212,30 @@ def _block_cases(response: Any) -> NDArray[np.str_]:
 
 def _scope_table(edition: Edition, ids: list[str], form: str, checks: Sequence[Any],
                  in_scope: NDArray[np.bool_]) -> BatchTable:
-    n = len(ids)
     table = BatchTable.empty(edition.id, ids)
     table.form[:] = form
     table.status[:] = np.where(in_scope, PASS, OUT_OF_SCOPE)
-    if checks:
-        util = np.array([_floats(c.utilisation, n) for c in checks])
-        worst = np.argmax(util, axis=0)
-        table.governing_check[:] = np.array([c.name for c in checks], dtype=object)[worst]
-        table.governing_clause[:] = np.array([f"{c.clause.edition} {c.clause.ref}"
-                                              for c in checks], dtype=object)[worst]
-        table.governing_utilisation[:] = util[worst, np.arange(n)]
-        for c, u in zip(checks, util, strict=True):
-            table.utilisation[c.name] = u
+    _record_checks(table, checks)
     table.message[:] = np.where(in_scope, "", "outside the edition's scope")
     return table
+
+
+def _record_checks(table: BatchTable, checks: Sequence[Any]) -> NDArray[np.bool_]:
+    """Every check's utilisation and the governing one (highest) per beam; whether all
+    passed."""
+    n = table.size
+    if not checks:
+        return np.ones(n, dtype=bool)
+    util = np.array([_floats(c.utilisation, n) for c in checks])
+    worst = np.argmax(util, axis=0)
+    table.governing_check[:] = np.array([c.name for c in checks], dtype=object)[worst]
+    table.governing_clause[:] = np.array([f"{c.clause.edition} {c.clause.ref}"
+                                          for c in checks], dtype=object)[worst]
+    table.governing_utilisation[:] = util[worst, np.arange(n)]
+    for c, u in zip(checks, util, strict=True):
+        table.utilisation[c.name] = u
+    passed: NDArray[np.bool_] = np.all(util <= 1.0 + 1e-12, axis=0)
+    return passed
 
 
 def _group_table(edition: Edition, batch: Beam, ids: list[str], context: Context) -> BatchTable:
@@ -262,22 +271,9 @@ def _group_table(edition: Edition, batch: Beam, ids: list[str], context: Context
         part.governing_candidate[ev.demand.name] = _labels(ev.demand, m)
     part.regime[:] = _texts(ev.resistance.regime.name, m)  # type: ignore[union-attr]
     part.block_case[:] = _block_cases(resp)
-    checks = ev.checks
     for c in scope_checks:
         part.utilisation[c.name] = _floats(c.utilisation, n)[rows]
-    if checks:
-        util = np.array([_floats(c.utilisation, m) for c in checks])
-        worst = np.argmax(util, axis=0)
-        part.governing_check[:] = np.array([c.name for c in checks], dtype=object)[worst]
-        part.governing_clause[:] = np.array([f"{c.clause.edition} {c.clause.ref}"
-                                             for c in checks], dtype=object)[worst]
-        part.governing_utilisation[:] = util[worst, np.arange(m)]
-        for c, u in zip(checks, util, strict=True):
-            part.utilisation[c.name] = u
-        passed = np.all(util <= 1.0 + 1e-12, axis=0)
-    else:
-        part.governing_check[:] = ""
-        passed = np.ones(m, dtype=bool)
+    passed = _record_checks(part, ev.checks)
     equilibrium = resp.equilibrium
     part.status[:] = np.where(~equilibrium, NO_EQUILIBRIUM, np.where(passed, PASS, FAIL))
     part.message[:] = np.where(equilibrium, "", "no equilibrium within the laws' limits")

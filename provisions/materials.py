@@ -38,26 +38,25 @@ def _convert(value: Any, to_cube: bool) -> tuple[Any, str]:
     return float(converted), "ratio 0.8, common practice (outside Table 3.1)"
 
 
+def _strength(beam: Beam, wanted: StrengthBasis, symbol: str) -> Factor:
+    name = wanted.value
+    if beam.strength_basis is wanted:
+        return Factor(symbol, beam.concrete_strength, Clause("input", f"specified {name} "
+                      "strength", "engineer"), "as specified", "MPa")
+    value, basis = _convert(beam.concrete_strength, to_cube=wanted is StrengthBasis.CUBE)
+    clause = CLASS_TABLE if "Table" in basis else COMMON_PRACTICE
+    return Factor(symbol, value, clause, f"from {beam.strength_basis.value} strength "
+                  f"{_show(beam.concrete_strength)} MPa: {basis}", "MPa")
+
+
 def cylinder_strength(beam: Beam) -> Factor:
     """The specified cylinder strength f'c / fck (MPa), converted if given as cube."""
-    if beam.strength_basis is StrengthBasis.CYLINDER:
-        return Factor("f'c", beam.concrete_strength, Clause("input", "specified cylinder "
-                      "strength", "engineer"), "as specified", "MPa")
-    value, basis = _convert(beam.concrete_strength, to_cube=False)
-    clause = CLASS_TABLE if "Table" in basis else COMMON_PRACTICE
-    return Factor("f'c", value, clause, f"from cube strength {_show(beam.concrete_strength)} "
-                  f"MPa: {basis}", "MPa")
+    return _strength(beam, StrengthBasis.CYLINDER, "f'c")
 
 
 def cube_strength(beam: Beam) -> Factor:
     """The characteristic cube strength fck,cube (MPa), converted if given as cylinder."""
-    if beam.strength_basis is StrengthBasis.CUBE:
-        return Factor("fck,cube", beam.concrete_strength, Clause("input", "specified cube "
-                      "strength", "engineer"), "as specified", "MPa")
-    value, basis = _convert(beam.concrete_strength, to_cube=True)
-    clause = CLASS_TABLE if "Table" in basis else COMMON_PRACTICE
-    return Factor("fck,cube", value, clause, f"from cylinder strength "
-                  f"{_show(beam.concrete_strength)} MPa: {basis}", "MPa")
+    return _strength(beam, StrengthBasis.CUBE, "fck,cube")
 
 
 def _show(value: Any) -> str:
