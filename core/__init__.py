@@ -3,37 +3,81 @@
 Internal units are N, mm and MPa; strains and stresses are positive in shortening.
 """
 
-from clausewise.core.errors import ClausewiseError, SectionError
-from clausewise.core.laws import (
-    BilinearHardening,
-    ConcreteLaw,
-    ElasticPlastic,
-    ParabolaRectangle,
-    PiecewiseLinear,
-    RectangularBlock,
-    SteelLaw,
-    stack_laws,
-)
-from clausewise.core.properties import (
-    CrackedProperties,
-    GrossProperties,
-    cracked_properties,
-    cracking_moment,
-    gross_properties,
-)
-from clausewise.core.section import Section, SectionArrays, SteelLayer, Strip, flanged_profile
-from clausewise.core.solver import (
-    STATUS_TEXT,
-    LayerResponse,
-    Response,
-    ResponseArrays,
-    find_neutral_axis,
-    solve,
-    solve_arrays,
-)
+from __future__ import annotations
+
+from importlib import import_module
+from typing import TYPE_CHECKING, Any
+
+_EXPORTS = {
+    "ClausewiseError": "clausewise.core.errors",
+    "SectionError": "clausewise.core.errors",
+    "BilinearHardening": "clausewise.core.laws",
+    "ConcreteLaw": "clausewise.core.laws",
+    "ElasticPlastic": "clausewise.core.laws",
+    "ParabolaRectangle": "clausewise.core.laws",
+    "PiecewiseLinear": "clausewise.core.laws",
+    "RectangularBlock": "clausewise.core.laws",
+    "SteelLaw": "clausewise.core.laws",
+    "stack_laws": "clausewise.core.laws",
+    "CrackedProperties": "clausewise.core.properties",
+    "GrossProperties": "clausewise.core.properties",
+    "cracked_properties": "clausewise.core.properties",
+    "cracking_moment": "clausewise.core.properties",
+    "gross_properties": "clausewise.core.properties",
+    "Section": "clausewise.core.section",
+    "SectionArrays": "clausewise.core.section",
+    "SteelLayer": "clausewise.core.section",
+    "Strip": "clausewise.core.section",
+    "flanged_profile": "clausewise.core.section",
+    "STATUS_TEXT": "clausewise.core.solver",
+    "LayerResponse": "clausewise.core.solver",
+    "Response": "clausewise.core.solver",
+    "ResponseArrays": "clausewise.core.solver",
+    "find_neutral_axis": "clausewise.core.solver",
+    "solve": "clausewise.core.solver",
+    "solve_arrays": "clausewise.core.solver",
+}
+
+if TYPE_CHECKING:
+    from clausewise.core.errors import (
+        ClausewiseError,
+        SectionError,
+    )
+    from clausewise.core.laws import (
+        BilinearHardening,
+        ConcreteLaw,
+        ElasticPlastic,
+        ParabolaRectangle,
+        PiecewiseLinear,
+        RectangularBlock,
+        SteelLaw,
+        stack_laws,
+    )
+    from clausewise.core.properties import (
+        CrackedProperties,
+        GrossProperties,
+        cracked_properties,
+        cracking_moment,
+        gross_properties,
+    )
+    from clausewise.core.section import (
+        Section,
+        SectionArrays,
+        SteelLayer,
+        Strip,
+        flanged_profile,
+    )
+    from clausewise.core.solver import (
+        STATUS_TEXT,
+        LayerResponse,
+        Response,
+        ResponseArrays,
+        find_neutral_axis,
+        solve,
+        solve_arrays,
+    )
 
 __all__ = [
-    "STATUS_TEXT",
     "BilinearHardening",
     "ClausewiseError",
     "ConcreteLaw",
@@ -46,6 +90,7 @@ __all__ = [
     "RectangularBlock",
     "Response",
     "ResponseArrays",
+    "STATUS_TEXT",
     "Section",
     "SectionArrays",
     "SectionError",
@@ -61,3 +106,16 @@ __all__ = [
     "solve_arrays",
     "stack_laws",
 ]
+
+
+def __getattr__(name: str) -> Any:
+    """Load a public name on first use, so importing the package stays cheap."""
+    if name not in _EXPORTS:
+        raise AttributeError(f"module {__name__!r} has no attribute {name!r}")
+    value = getattr(import_module(_EXPORTS[name]), name)
+    globals()[name] = value
+    return value
+
+
+def __dir__() -> list[str]:
+    return sorted(set(globals()) | set(_EXPORTS))

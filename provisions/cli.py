@@ -27,13 +27,12 @@ from pathlib import Path
 from typing import TYPE_CHECKING, Any
 
 from clausewise.core.errors import ClausewiseError
-from clausewise.provisions import results
-from clausewise.provisions.engine import CAUTION, PASS
-from clausewise.provisions.registry import Edition, EditionError, Registry, default_registry
-from clausewise.provisions.results import ERROR, Outcome, run, write_atomic
+from clausewise.provisions.verdicts import CAUTION, ERROR, PASS
 
 if TYPE_CHECKING:
     from clausewise.provisions.inputs import Schedule
+    from clausewise.provisions.registry import Edition, Registry
+    from clausewise.provisions.results import Outcome
 
 PROGRAM = "clausewise"
 FORMATS = ("rich", "json", "toml", "csv")
@@ -170,6 +169,8 @@ def build_parser() -> argparse.ArgumentParser:
 def _registry(annexes: Sequence[Path]) -> Registry:
     """A registry of this run: the installed editions plus the given parameter files,
     without touching the process-wide one."""
+    from clausewise.provisions.registry import Registry, default_registry
+
     base = default_registry()
     registry = Registry(strict=base.strict, only=base.only, records=list(base.records))
     if annexes:
@@ -186,6 +187,8 @@ def _require(registry: Registry, requirements: Sequence[str]) -> None:
     if not requirements:
         return
     from packaging.specifiers import InvalidSpecifier, SpecifierSet
+
+    from clausewise.provisions.registry import EditionError
 
     installed = {r.info.id: r for r in registry.records if r.ok and r.info}
     for requirement in requirements:
@@ -238,6 +241,8 @@ def _chosen_format(args: argparse.Namespace) -> str:
 
 
 def _emit_text(text: str, out: Path | None) -> None:
+    from clausewise.provisions.results import write_atomic
+
     if out is None:
         sys.stdout.write(text)
     else:
@@ -248,6 +253,8 @@ def _emit_report(renderable: Any, width: int = REPORT_WIDTH, out: Path | None = 
     """Print a rich report (``width`` columns unless on a terminal), or write it to a
     file as text, SVG or HTML."""
     from rich.console import Console
+
+    from clausewise.provisions.results import write_atomic
 
     if out is None:
         terminal = sys.stdout.isatty()
@@ -268,6 +275,8 @@ def _emit_report(renderable: Any, width: int = REPORT_WIDTH, out: Path | None = 
 
 def _emit_document(data: dict[str, Any], kind: str, out: Path | None,
                    csv_writer: Any = None) -> None:
+    from clausewise.provisions import results
+
     writers = {"json": results.to_json, "toml": results.to_toml,
                "csv": csv_writer or results.to_csv}
     _emit_text(writers[kind](data), out)
@@ -313,6 +322,8 @@ def _comparison_figures(folder: Path, outcomes: Sequence[Outcome], kind: str) ->
 # --- commands ---------------------------------------------------------------------------------
 
 def editions_command(args: argparse.Namespace) -> int:
+    from clausewise.provisions import results
+
     registry = _registry(args.annex)
     kind = _chosen_format(args)
     if kind == "rich":
@@ -330,6 +341,8 @@ def editions_command(args: argparse.Namespace) -> int:
 
 def _assess(args: argparse.Namespace, default_ids: Callable[[Schedule, Registry], list[str]]
             ) -> tuple[Schedule, list[Edition], list[Outcome]]:
+    from clausewise.provisions.results import run
+
     schedule, registry, form, situation = _load(args)
     editions = _editions(registry, args.edition or default_ids(schedule, registry))
     return schedule, editions, list(run(schedule, editions, form, situation))
@@ -339,6 +352,8 @@ def _publish(args: argparse.Namespace, schedule: Schedule, outcomes: Sequence[Ou
              build: Callable[[Any], tuple[Any, int]]) -> None:
     """The results in the chosen format; ``build`` makes the report and its width from the
     report module, which is imported only when a report is wanted."""
+    from clausewise.provisions import results
+
     kind = _chosen_format(args)
     if kind == "rich":
         from clausewise.provisions import report
@@ -382,6 +397,8 @@ def _run_batch(schedule: Schedule, editions: Sequence[Edition], form: str | None
 
 
 def check_command(args: argparse.Namespace) -> int:
+    from clausewise.provisions.results import run
+
     schedule, registry, form, situation = _load(args)
     editions = _editions(registry, args.edition or list(schedule.project.editions)
                          or registry.ids())
@@ -408,6 +425,8 @@ def compare_command(args: argparse.Namespace) -> int:
 
 
 def explain_command(args: argparse.Namespace) -> int:
+    from clausewise.provisions.results import run
+
     schedule, registry, form, situation = _load(args)
     entries = [e for e in schedule.entries if e.beam.id == args.beam]
     if not entries:
@@ -430,6 +449,8 @@ def explain_command(args: argparse.Namespace) -> int:
 
 def schema_command(args: argparse.Namespace) -> int:
     import json
+
+    from clausewise.provisions import results
 
     if args.results:
         schema = results.results_schema()

@@ -25,15 +25,15 @@ from clausewise.core import (
 from clausewise.provisions.answers import MaterialModel, Parameters, Resistance
 from clausewise.provisions.beam import Beam, Context, UnitSystem
 from clausewise.provisions.registry import Edition, EditionError, Registry, default_registry
-from clausewise.provisions.vocabulary import Check, Clause, Envelope, Factor, Sense
-
-CAUTION = (
-    "An aid to a licensed engineer, not a substitute for one: the adopted edition, local "
-    "amendments and the engineer of record govern."
+from clausewise.provisions.verdicts import (  # noqa: F401 (re-exported)
+    CAUTION,
+    ERROR,
+    FAIL,
+    NO_EQUILIBRIUM,
+    OUT_OF_SCOPE,
+    PASS,
 )
-
-PASS, FAIL, OUT_OF_SCOPE, NO_EQUILIBRIUM = "pass", "fail", "outside scope", "no equilibrium"
-ERROR = "error"  # an edition could not assess the beam (in batch and command-line results)
+from clausewise.provisions.vocabulary import Check, Clause, Envelope, Factor, Sense
 
 
 @dataclass(frozen=True)

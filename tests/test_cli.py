@@ -24,6 +24,7 @@ import pytest
 import clausewise
 from clausewise.provisions import CAUTION, Registry, assess
 from clausewise.provisions import cli as cli_module
+from clausewise.provisions import registry as registry_module
 from clausewise.provisions.cli import main
 from clausewise.provisions.inputs import load_schedule
 from clausewise.provisions.results import results_schema
@@ -410,7 +411,7 @@ def test_editions_lists_what_is_installed(capsys):
 
 
 def test_a_broken_plugin_is_listed_and_strict_makes_it_fatal(monkeypatch, capsys):
-    monkeypatch.setattr(cli_module, "default_registry", registry_with_a_broken_plugin)
+    monkeypatch.setattr(registry_module, "default_registry", registry_with_a_broken_plugin)
     assert main(["editions"]) == 0
     captured = capsys.readouterr()
     assert "half-finished" in captured.out and "edition_info" in captured.out
