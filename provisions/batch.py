@@ -351,3 +351,32 @@ def assess_many(beams: Sequence[Beam], editions: Iterable[str | Edition], *,
             out[table.edition_id] = BatchTable.empty(table.edition_id, ids)
         out[table.edition_id].fill(index, table)
     return out
+
+
+def assess_columns(batch: Beam, editions: Iterable[str | Edition], *,
+                   ids: Sequence[str] | None = None, form: str | None = None,
+                   situation: str = "persistent", registry: Registry | None = None
+                   ) -> dict[str, BatchTable]:
+    """The batch path without per-beam objects, for design searches: ``batch`` is one
+    array-valued beam (every numeric field an array of shape (N,), or one value shared
+    by all), as :func:`stack_beams` makes. A failing chunk is retried row by row."""
+    reg = registry or default_registry()
+    n = batch.size
+    names = list(ids) if ids is not None else [f"{batch.id}[{i}]" for i in range(n)]
+    out: dict[str, BatchTable] = {}
+    for edition in (reg.edition(e) if isinstance(e, str) else e for e in editions):
+        chosen, _ = resolve_form(edition, batch, form)
+        context = Context(form=chosen, situation=situation)
+        try:
+            out[edition.id] = _group_table(edition, batch, names, context)
+        except (ClausewiseError, ValueError, ArithmeticError):
+            table = BatchTable.empty(edition.id, names)
+            for i in range(n):
+                row = np.array([i])
+                try:
+                    table.fill(row, _group_table(edition, take_beam(batch, row), [names[i]],
+                                                 context))
+                except (ClausewiseError, ValueError, ArithmeticError) as exc:
+                    table.message[i] = f"{type(exc).__name__}: {exc}"
+            out[edition.id] = table
+    return out

@@ -9,6 +9,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass, field
 from enum import StrEnum
+from functools import cached_property
 from typing import Any
 
 import numpy as np
@@ -116,14 +117,18 @@ class Beam:
     def flange_in_compression(self) -> bool:
         return self.flanged and self.bending is Bending.SAGGING
 
-    @property
+    @cached_property
     def size(self) -> int:
-        """1 for a single beam, N for a batch."""
-        return int(np.size(self.web_width)) if np.ndim(self.web_width) else 1
+        """1 for a single beam, N for a batch (the length of any field given as an array)."""
+        sizes = {np.shape(v)[0] for v in _numbers(self) if np.ndim(v)}
+        if len(sizes) > 1:
+            raise ValueError(f"beam {self.id!r}: array fields of different lengths "
+                             f"{sorted(sizes)}")
+        return sizes.pop() if sizes else 1
 
-    @property
+    @cached_property
     def is_batch(self) -> bool:
-        return bool(np.ndim(self.web_width))
+        return any(np.ndim(v) for v in _numbers(self))
 
     @property
     def tension_area(self) -> Value:
@@ -148,6 +153,20 @@ class Beam:
     def slab_sides(self) -> int:
         """How many sides carry a slab overhang: 2 for a T, 1 for an L, 0 for a rectangle."""
         return {Shape.TEE: 2, Shape.ELL: 1, Shape.RECTANGLE: 0}[self.shape]
+
+
+def _numbers(beam: Beam) -> list[Any]:
+    """Every numeric field of a beam, its layers, layout and actions."""
+    values = [beam.web_width, beam.depth, beam.concrete_strength, beam.yield_strength,
+              beam.flange_thickness, beam.flange_width, beam.steel_modulus]
+    values += [v for layer in (*beam.tension, *beam.compression) for v in (layer.area,
+                                                                             layer.depth)]
+    if beam.layout is not None:
+        layout = beam.layout
+        values += [layout.span, layout.clear_span, layout.clear_left, layout.clear_right,
+                   layout.zero_moment_length, layout.adjacent_span]
+    values += [beam.actions.dead, beam.actions.live, beam.actions.factored]
+    return [v for v in values if v is not None]
 
 
 def _sum(values: Any) -> Value:

@@ -116,3 +116,17 @@ def test_a_bad_beam_is_reported_and_the_others_go_on() -> None:
     assert table.status[-1] == "error"
     assert "depth" in table.message[-1]
     assert all(s != "error" for s in table.status[:-1])
+
+
+@pytest.mark.parametrize("edition", EDITIONS)
+def test_column_input_gives_the_same_table_as_beam_objects(edition: str) -> None:
+    beams = [b for b in synthetic_beams(80, seed=9) if kind_of(b) == kind_of(
+        synthetic_beams(80, seed=9)[0])]
+    from clausewise.provisions.batch import assess_columns
+
+    by_columns = assess_columns(stack_beams(beams), [edition], ids=[b.id for b in beams])
+    by_objects = assess_many(beams, [edition])
+    a, b = by_columns[edition], by_objects[edition]
+    np.testing.assert_array_equal(a.status, b.status)
+    np.testing.assert_allclose(a.design_resistance, b.design_resistance, rtol=1e-12)
+    np.testing.assert_array_equal(a.governing_check, b.governing_check)

@@ -6,6 +6,7 @@ Figures, all CPU time of this process (the machines are shared and noisy):
 - ``assess`` (the audited single-beam path) on a sample, µs per beam-edition;
 - ``assess_many`` on the whole schedule, µs per beam-edition, for a mixed schedule
   (many kinds of beam: more groups) and a design search (one kind, varied steel);
+- ``assess_columns`` on the same design search given as arrays (no beam objects);
 - a bare closed-form reference written here: rectangular/T block with yielding
   steel, ACI-style φ = 0.9, numpy only;
 - start-up of the command line against ``python -c "import pydantic, rich, pluggy, numpy"``.
@@ -22,7 +23,7 @@ from dataclasses import replace
 import numpy as np
 
 from clausewise.provisions import assess, default_registry
-from clausewise.provisions.batch import assess_many
+from clausewise.provisions.batch import assess_columns, assess_many
 from clausewise.provisions.synthetic import synthetic_beams
 
 EDITIONS = ("aci318-19", "en1992-1-1:2004")
@@ -34,17 +35,25 @@ def cpu(fn, *args, **kwargs):
     return time.process_time() - start, result
 
 
-def design_search(count: int, seed: int) -> list:
-    """One T beam of one kind with ``count`` candidate steel areas and strengths."""
+def design_columns(count: int, seed: int):
+    """One T beam with ``count`` candidate steel areas and concrete strengths, as arrays."""
     template = next(b for b in synthetic_beams(50, seed) if b.shape.value == "T"
                     and b.bending.value == "sagging" and len(b.tension) == 1
                     and not b.compression)
     rng = np.random.default_rng(seed)
     areas = rng.uniform(0.004, 0.02, count) * template.web_width * template.tension[0].depth
     strengths = rng.uniform(25.0, 45.0, count)
-    return [replace(template, id=f"D{i:07d}", concrete_strength=float(fc),
-                    tension=(replace(template.tension[0], area=float(a)),))
-            for i, (a, fc) in enumerate(zip(areas, strengths, strict=True))]
+    return replace(template, id="candidate", concrete_strength=strengths,
+                   tension=(replace(template.tension[0], area=areas),))
+
+
+def design_search(count: int, seed: int) -> list:
+    """The same candidates as beam objects."""
+    batch = design_columns(count, seed)
+    return [replace(batch, id=f"D{i:07d}", concrete_strength=float(fc),
+                    tension=(replace(batch.tension[0], area=float(a)),))
+            for i, (a, fc) in enumerate(zip(batch.tension[0].area, batch.concrete_strength,
+                                            strict=True))]
 
 
 def closed_form(beams: list) -> float:
@@ -105,6 +114,10 @@ def main() -> None:
               f"audited/batch = {single / many:.0f}x, batch/closed form = {many / ref:.0f}x")
         for edition, counts in statuses.items():
             print(f"    {edition}: {counts}")
+    columns = design_columns(args.beams, seed=7)
+    seconds, _ = cpu(assess_columns, columns, EDITIONS)
+    print(f"{'design search, as arrays':27s} assess_columns "
+          f"{seconds / (args.beams * len(EDITIONS)) * 1e6:.2f} µs per beam-edition")
     ours, bare = startup()
     print(f"start-up: clausewise --help {ours * 1e3:.0f} ms, bare imports {bare * 1e3:.0f} ms, "
           f"ratio {ours / bare:.2f}")
