@@ -237,8 +237,8 @@ class Aci318:
 
     @staticmethod
     def isolated_tee(beam: Beam) -> bool:
-        """A T beam given without a floor layout is taken as an isolated T."""
-        return beam.shape is Shape.TEE and beam.layout is None
+        """A T the engineer marks as isolated: its flange is not part of a slab."""
+        return beam.shape is Shape.TEE and beam.isolated
 
     # --- materials -------------------------------------------------------------------
 
@@ -392,8 +392,7 @@ class Aci318:
         return [Check("flange thickness of an isolated T", beam.flange_thickness,
                       _out(0.5 * np.asarray(beam.web_width, float)), Sense.AT_LEAST,
                       self.clause("isolated_tee", "isolated T-beam flange"), "hf", "mm",
-                      "a T beam without a floor layout is taken as isolated; give the layout "
-                      "for a beam in a floor")]
+                      "the beam is marked isolated: its flange is not part of a slab")]
 
 
 def _out(value: Any) -> Any:

@@ -46,7 +46,7 @@ def kind_of(beam: Beam) -> tuple[Any, ...]:
         beam.shape, beam.bending, len(beam.tension), len(beam.compression),
         beam.flange_thickness is None, beam.flange_width is None, beam.strength_basis,
         beam.steel_modulus is None, beam.steel_kind, beam.ductility_class, beam.unit_system,
-        beam.statically_determinate,
+        beam.statically_determinate, beam.isolated,
         None if layout is None else (
             layout.continuity, layout.clear_span is None, layout.clear_left is None,
             layout.clear_right is None, layout.zero_moment_length is None,

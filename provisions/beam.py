@@ -107,6 +107,7 @@ class Beam:
     actions: Actions = field(default_factory=Actions)
     unit_system: UnitSystem = UnitSystem.SI
     statically_determinate: bool = False
+    isolated: bool = False  # a T whose flange is not part of a slab
     title: str = ""
 
     @property

@@ -300,6 +300,9 @@ class BeamModel(_Model):
     statically_determinate: StrictBool | None = Field(
         default=None, description="true for a statically determinate beam; by default true "
         "for a simple span or a cantilever")
+    isolated: StrictBool = Field(
+        default=False, description="true for a T whose flange is not part of a slab (an "
+        "isolated T, with the limits some editions set on it)")
     moments: MomentsModel | None = Field(
         default=None, description="the actions; leave out for the capacity only")
 
@@ -675,6 +678,8 @@ class _BeamReader:
                 "(from the continuity)"
         else:
             self.shown["statically determinate"] = "yes" if determinate else "no"
+        if m.isolated:
+            self.shown["isolated T"] = "yes: the flange is not part of a slab"
         if self.problems or bw is None or h is None or fc is None or fy is None:
             return None
         bending = _BENDINGS[m.bending]
@@ -687,7 +692,8 @@ class _BeamReader:
             flange_thickness=_v(hf), flange_width=_v(bf), layout=layout,
             strength_basis=_BASES[m.strength_basis], steel_modulus=_v(es),
             steel_kind=m.steel_kind, ductility_class=m.ductility_class, actions=actions,
-            unit_system=self.system, statically_determinate=determinate, title=m.title,
+            unit_system=self.system, statically_determinate=determinate,
+            isolated=m.isolated, title=m.title,
         )
 
     def _flange(self, flanged: bool, bw: tuple[float, str] | None, h: tuple[float, str] | None,

@@ -252,9 +252,10 @@ def test_318_11_ell_overhang_from_the_span(registry):
 def test_isolated_tee_width_and_flange_thickness(registry, edition_id, ref):
     # ACI 318-19 6.3.2.2 / 318-11 8.12.4, from memory: an isolated T needs hf >= bw/2 and
     # bf <= 4bw. bw = 250: 4bw = 1000 caps a given flange of 1200.
-    def isolated(hf):
+    def isolated(hf, marked=True):
         return Beam("I1", Shape.TEE, Bending.SAGGING, 250.0, 700.0, 28.0, 420.0,
-                    (Layer(1500.0, 640.0),), flange_thickness=hf, flange_width=1200.0)
+                    (Layer(1500.0, 640.0),), flange_thickness=hf, flange_width=1200.0,
+                    isolated=marked)
 
     thick = assess(isolated(150.0), edition_id, registry=registry)
     assert thick.effective_width.value == pytest.approx(1000.0)
@@ -264,6 +265,11 @@ def test_isolated_tee_width_and_flange_thickness(registry, edition_id, ref):
     thin = assess(isolated(100.0), edition_id, registry=registry)
     (check,) = [c for c in thin.checks if c.symbol == "hf"]
     assert not check.passed and thin.status == "fail"
+    # a T in a floor whose effective width the engineer gives outright is not isolated:
+    # the given width stands (still within 8hf each side) and no isolated-T limit applies
+    floor = assess(isolated(100.0, marked=False), edition_id, registry=registry)
+    assert floor.effective_width.value == pytest.approx(1200.0)
+    assert not [c for c in floor.checks if c.symbol == "hf"]
 
 
 # --- minimum reinforcement --------------------------------------------------------------
