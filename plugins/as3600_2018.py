@@ -24,6 +24,7 @@ import numpy as np
 
 from clausewise.provisions import (
     Beam,
+    BeamDataError,
     Check,
     Context,
     Continuity,
@@ -38,7 +39,6 @@ from clausewise.provisions import (
     RectangularBlock,
     Regime,
     Resistance,
-    SectionError,
     Sense,
     choose,
     clamp,
@@ -128,9 +128,9 @@ def zero_moment_length(beam: Beam, layout: FloorLayout, params: Parameters) -> t
     if layout.zero_moment_length is not None:
         return layout.zero_moment_length, "a as given"
     if layout.continuity not in ESTIMATES:
-        raise SectionError(f"beam {beam.id!r}: give layout.zero_moment_length (mm) for a "
-                           f"{layout.continuity.value} span; it cannot be estimated from the "
-                           "span")
+        raise BeamDataError(f"beam {beam.id!r}: AS 3600 needs the floor's zero_moment_length "
+                            f"(mm) for a {layout.continuity.value} span; it cannot be "
+                            "estimated from the span")
     name, kind = ESTIMATES[layout.continuity]
     ratio = params.value(name)
     return ratio * np.asarray(layout.span, float), \

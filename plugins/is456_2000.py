@@ -25,6 +25,7 @@ import numpy as np
 
 from clausewise.provisions import (
     Beam,
+    BeamDataError,
     Candidate,
     Check,
     Context,
@@ -135,8 +136,9 @@ def zero_moment_length(beam: Beam, layout: FloorLayout) -> tuple[Any, str]:
     if layout.zero_moment_length is not None:
         return layout.zero_moment_length, "l0 as given"
     if layout.continuity is Continuity.CANTILEVER:
-        raise ValueError(f"beam {beam.id!r}: a cantilever needs layout.zero_moment_length "
-                         "(mm), the distance between points of zero moment")
+        raise BeamDataError(f"beam {beam.id!r}: IS 456 needs the floor's zero_moment_length "
+                            "(mm, the distance between points of zero moment) for a "
+                            "cantilever")
     if layout.continuity is Continuity.SIMPLE:
         return np.asarray(layout.span, float), "l0 = span (simply supported)"
     return 0.7 * np.asarray(layout.span, float), "l0 = 0.7 span (continuous)"
@@ -145,15 +147,16 @@ def zero_moment_length(beam: Beam, layout: FloorLayout) -> tuple[Any, str]:
 @hookimpl
 def effective_flange_width(beam: Beam, params: Parameters, context: Context) -> Envelope:
     if beam.flange_thickness is None:
-        raise ValueError(f"beam {beam.id!r}: a {beam.shape} beam needs flange_thickness (mm)")
+        raise BeamDataError(f"beam {beam.id!r}: a {beam.shape.value} beam needs its "
+                            "slab_thickness (mm)")
     bw, df = np.asarray(beam.web_width, float), np.asarray(beam.flange_thickness, float)
     tee = beam.shape is Shape.TEE
     given = given_width(beam)
     layout = beam.layout
     if layout is None:
         if given is None:
-            raise ValueError(f"beam {beam.id!r}: give flange_width (mm) or the floor layout "
-                             "(span, clear distances to the next webs)")
+            raise BeamDataError(f"beam {beam.id!r}: give effective_flange_width (mm) or the "
+                                "floor (span, clear distances to the next webs)")
         return Envelope.smallest("effective flange width", "bf", [given], "mm")
     l0, how = zero_moment_length(beam, layout)
     l0 = np.asarray(l0, float)
@@ -161,9 +164,9 @@ def effective_flange_width(beam: Beam, params: Parameters, context: Context) -> 
     candidates: list[Candidate] = []
     if all(h is None for h in halves):  # no neighbouring web: an isolated beam
         if beam.flange_width is None:
-            raise ValueError(f"beam {beam.id!r}: an isolated {beam.shape} beam (no clear "
-                             "distance to a next web) needs flange_width (mm), its actual "
-                             "flange width")
+            raise BeamDataError(f"beam {beam.id!r}: with no clear distance to a next web "
+                                f"IS 456 takes the {beam.shape.value} beam as isolated and "
+                                "needs its actual flange width (effective_flange_width, mm)")
         b = np.asarray(beam.flange_width, float)
         share, label = (1.0, "l0/(l0/b + 4) + bw") if tee else (0.5, "0.5 l0/(l0/b + 4) + bw")
         isolated = clause("23.1.2(c)", "isolated beams, never wider than the actual flange")

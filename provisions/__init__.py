@@ -23,6 +23,7 @@ _EXPORTS = {
     "Parameters": "clausewise.provisions.answers",
     "Resistance": "clausewise.provisions.answers",
     "Actions": "clausewise.provisions.beam",
+    "BeamDataError": "clausewise.provisions.beam",
     "Beam": "clausewise.provisions.beam",
     "Bending": "clausewise.provisions.beam",
     "Context": "clausewise.provisions.beam",
@@ -87,6 +88,7 @@ if TYPE_CHECKING:
     from clausewise.provisions.beam import (
         Actions,
         Beam,
+        BeamDataError,
         Bending,
         Context,
         Continuity,
@@ -144,6 +146,7 @@ __all__ = [
     "Actions",
     "Assessment",
     "Beam",
+    "BeamDataError",
     "Bending",
     "BilinearHardening",
     "Bound",

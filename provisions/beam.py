@@ -14,7 +14,14 @@ from typing import Any
 
 import numpy as np
 
+from clausewise.core.errors import ClausewiseError
+
 Value = Any  # float, or numpy array over a batch
+
+
+class BeamDataError(ClausewiseError, ValueError):
+    """An edition needs an input this beam does not give; the message names the field of
+    the beam file to add."""
 
 
 class Shape(StrEnum):

@@ -13,12 +13,12 @@ from clausewise.plugins.as3600_2018 import alpha2, capacity_factor, gamma
 from clausewise.provisions import (
     Actions,
     Beam,
+    BeamDataError,
     Bending,
     Context,
     Continuity,
     FloorLayout,
     Layer,
-    SectionError,
     Shape,
     assess,
     default_registry,
@@ -223,7 +223,7 @@ def test_effective_width_governing_candidate(shape, layout, label, width):
 
 def test_effective_width_of_cantilever_needs_zero_moment_length():
     layout = FloorLayout(3000.0, Continuity.CANTILEVER, clear_left=3000.0, clear_right=3000.0)
-    with pytest.raises(SectionError, match=r"layout.zero_moment_length \(mm\)"):
+    with pytest.raises(BeamDataError, match=r"zero_moment_length \(mm\)"):
         assess(tee(layout=layout), ID)
     given = replace(layout, zero_moment_length=2000.0)
     assert assess(tee(layout=given), ID).effective_width.value == pytest.approx(300 + 400)
