@@ -52,6 +52,12 @@ environment:
 """
 
 
+EDITIONS_STATUS = """exit status:
+  0  the listing was shown (broken plugins are listed, and named on stderr)
+  2  with --strict, when a plugin is broken or an edition cannot be used; bad usage
+"""
+
+
 class UsageError(ClausewiseError, ValueError):
     """A command line that names something that does not exist."""
 
@@ -98,12 +104,17 @@ def build_parser() -> argparse.ArgumentParser:
     commands = parser.add_subparsers(dest="command", metavar="COMMAND", required=True)
 
     editions = commands.add_parser("editions", help="list the installed editions",
-                                   epilog=EXIT_STATUS,
+                                   epilog=EDITIONS_STATUS,
                                    formatter_class=argparse.RawDescriptionHelpFormatter)
     editions.add_argument("--strict", action="store_true",
                           help="exit with status 2 when any edition plugin is broken")
     editions.add_argument("--annex", type=Path, action="append", default=[], metavar="FILE",
                           help="also load a parameter file as an edition (repeatable)")
+    editions.add_argument("--parameters", metavar="ID",
+                          help="show one edition's named parameters: value, what a local "
+                               "edition may set them to, clause and supplier")
+    editions.add_argument("--form", choices=("SI", "inch-pound"),
+                          help="with --parameters: the published form (default: its first)")
     _output_options(editions)
     editions.set_defaults(handler=editions_command)
 
@@ -326,6 +337,20 @@ def editions_command(args: argparse.Namespace) -> int:
 
     registry = _registry(args.annex)
     kind = _chosen_format(args)
+    if args.parameters:
+        edition = registry.edition(args.parameters)
+        form = args.form or edition.forms[0]
+        if form not in edition.forms:
+            raise UsageError(f"edition {edition.id!r} has no form {form!r} "
+                             f"(it has: {', '.join(edition.forms)})")
+        if kind == "rich":
+            from clausewise.provisions.report import parameters_report
+
+            _emit_report(parameters_report(edition, form), out=args.out)
+        else:
+            _emit_document(results.parameters_document(edition, form), kind, args.out,
+                           results.parameters_csv)
+        return 0
     if kind == "rich":
         from clausewise.provisions.report import editions_report
 
@@ -333,10 +358,13 @@ def editions_command(args: argparse.Namespace) -> int:
     else:
         _emit_document(results.editions_document(registry), kind, args.out,
                        results.editions_csv)
+    unusable = registry.unusable()
     for record in registry.broken:
         print(f"{PROGRAM}: broken edition plugin {record.name} ({record.source}): "
               f"{record.error}", file=sys.stderr)
-    return 2 if args.strict and registry.broken else 0
+    for edition_id, why in unusable.items():
+        print(f"{PROGRAM}: edition {edition_id} cannot be used: {why}", file=sys.stderr)
+    return 2 if args.strict and (registry.broken or unusable) else 0
 
 
 def _assess(args: argparse.Namespace, default_ids: Callable[[Schedule, Registry], list[str]]

@@ -163,6 +163,19 @@ class Registry:
             current = record.info.extends  # type: ignore[union-attr]
         return Edition(tuple(reversed(chain)))
 
+    def unusable(self) -> dict[str, str]:
+        """Editions that load but cannot be used as installed, with the reason: a missing
+        base, a cycle, or a parameter an upper layer sets outside its base's contract."""
+        problems: dict[str, str] = {}
+        for edition_id in self.ids():
+            try:
+                edition = self.edition(edition_id)
+                for form in edition.forms:
+                    edition.parameters(Context(form=form))
+            except ClausewiseError as exc:
+                problems[edition_id] = f"{type(exc).__name__}: {exc}"
+        return problems
+
     def forms(self, record: PluginRecord) -> tuple[str, ...]:
         """The published forms of a loaded record's edition, inherited where not declared."""
         try:

@@ -26,7 +26,7 @@ if TYPE_CHECKING:
     from pathlib import Path
 
     from clausewise.provisions.inputs import InputProblem, Schedule
-    from clausewise.provisions.registry import Registry
+    from clausewise.provisions.registry import Edition, Registry
     from clausewise.provisions.stream import Summary as BatchSummary
 
 STATUS_STYLE = {PASS: "bold green", FAIL: "bold red", ERROR: "bold magenta"}
@@ -460,8 +460,35 @@ def editions_report(registry: Registry) -> Group:
             _row(broken, r.name, r.source, r.distribution, r.version,
                  Text(r.error, style="red"))
         parts.append(broken)
+    unusable = registry.unusable()
+    if unusable:
+        stuck = Table(title="editions that cannot be used as installed", title_justify="left",
+                      title_style="bold red", box=box.SIMPLE_HEAD)
+        stuck.add_column("id")
+        stuck.add_column("why")
+        for edition_id, why in unusable.items():
+            _row(stuck, edition_id, Text(why, style="red"))
+        parts.append(stuck)
     parts.append(caution())
     return Group(*parts)
+
+
+def parameters_report(edition: Edition, form: str) -> Group:
+    """An edition's named parameters after layering, with what a layer may set them to."""
+    from clausewise.provisions.beam import Context
+
+    table = Table(title=f"parameters of {edition.id} ({form} form)", title_justify="left",
+                  title_style="bold", box=box.SIMPLE_HEAD)
+    for column in ("name", "value", "may be set to", "meaning", "clause", "supplied by"):
+        table.add_column(column)
+    for p in edition.parameters(Context(form=form)).values():
+        allowed = (" | ".join(p.choices) if p.choices else
+                   f"{p.bounds[0]:g} to {p.bounds[1]:g}" if p.bounds else "any")
+        unit = f" {p.unit}" if p.unit and not p.choices else ""
+        value = f"{p.value:g}" if isinstance(p.value, float | int) else str(p.value)
+        _row(table, Text(p.name, style="bold"), value + unit, allowed + unit, p.description,
+             two_lines(p.clause.ref, p.clause.title), p.clause.edition)
+    return Group(table, caution())
 
 
 # --- a large schedule through the batch path ---------------------------------------------------

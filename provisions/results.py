@@ -290,7 +290,9 @@ def editions_document(registry: Registry) -> dict[str, Any]:
                       "source": r.source}
                      for r in registry.records if r.ok and r.info],
         "broken": [{"name": r.name, "source": r.source, "distribution": r.distribution,
-                    "version": r.version, "error": r.error} for r in registry.broken],
+                    "version": r.version, "error": r.error} for r in registry.broken]
+        + [{"name": edition_id, "source": "edition stack", "distribution": "", "version": "",
+            "error": why} for edition_id, why in registry.unusable().items()],
     }
 
 
@@ -363,6 +365,37 @@ def to_csv(data: dict[str, Any]) -> str:
     for problem in data["problems"]:
         columns.writerow({"beam": problem["beam"] or "", "status": INPUT_PROBLEM,
                           "summary": problem["message"]})
+    return out.getvalue()
+
+
+def parameters_document(edition: Edition, form: str) -> dict[str, Any]:
+    """An edition's named parameters after layering, with their contract and supplier."""
+    from clausewise.provisions.beam import Context
+
+    rows = []
+    for p in edition.parameters(Context(form=form)).values():
+        row: dict[str, Any] = {"name": p.name, "value": p.value, "unit": p.unit,
+                               "description": p.description, "clause": p.clause.ref,
+                               "clause_title": p.clause.title, "supplier": p.clause.edition}
+        if p.bounds is not None:
+            row["bounds"] = list(p.bounds)
+        if p.choices is not None:
+            row["choices"] = list(p.choices)
+        rows.append(row)
+    return {"caution": CAUTION, "edition": edition.id, "form": form, "parameters": rows}
+
+
+def parameters_csv(data: dict[str, Any]) -> str:
+    out = io.StringIO()
+    writer = csv.writer(out, lineterminator="\n")
+    writer.writerow([f"# {data['caution']}"])
+    writer.writerow(["edition", "form", "name", "value", "unit", "may be set to", "clause",
+                     "supplier", "description"])
+    for p in data["parameters"]:
+        allowed = " | ".join(p["choices"]) if "choices" in p else \
+            " to ".join(f"{b:g}" for b in p["bounds"]) if "bounds" in p else ""
+        writer.writerow([data["edition"], data["form"], p["name"], p["value"], p["unit"],
+                         allowed, p["clause"], p["supplier"], p["description"]])
     return out.getvalue()
 
 

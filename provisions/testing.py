@@ -518,7 +518,20 @@ def check_edition(edition: str | Edition, registry: Registry | None = None,
     if isinstance(edition, str):
         edition = (registry or default_registry()).edition(edition)
     sample = Sample(edition)
-    return [finding for prop in properties for finding in prop(sample)]
+    if sample.problem:  # no realistic beam to try: say why, and check what needs none
+        found = [_finding(sample, "realistic beams", sample.problem)]
+        return found + [f for prop in properties if prop is parameters_declared
+                        for f in _guarded(prop, sample)]
+    return [finding for prop in properties for finding in _guarded(prop, sample)]
+
+
+def _guarded(prop: Property, sample: Sample) -> list[Finding]:
+    """A property's findings; an edition that makes the property itself fail is a finding
+    too, never a traceback."""
+    try:
+        return prop(sample)
+    except Exception as exc:
+        return [_finding(sample, prop.__name__, f"raised {type(exc).__name__}: {exc}")]
 
 
 def assert_conforms(edition: str | Edition, registry: Registry | None = None,
