@@ -55,7 +55,7 @@ EDITION = EditionInfo(
 )
 clause = EDITION.clause
 
-STEEL_KINDS = ("hot-rolled", "cold-worked", "mild")
+STEEL_KINDS = ("unstated", "hot-rolled", "cold-worked", "mild")
 
 # Fig. 23B design curve of cold-worked bars: stress as a fraction of fy/γm at an
 # inelastic strain; total strain = stress/Es + inelastic strain (38.1(e), from memory)
@@ -213,9 +213,9 @@ def concrete_law(beam: Beam, params: Parameters, context: Context) -> MaterialMo
 def cold_worked(beam: Beam, params: Parameters) -> Any:
     """Whether each beam's bars follow the Fig. 23B curve of cold-worked bars.
 
-    "mild" and "cold-worked" are taken as said. The beam's default kind
-    ("hot-rolled") cannot be told from an explicit choice, so it follows IS
-    practice: high-strength deformed bars (fy above the mild-steel grade) are
+    "cold-worked" bars do; "mild" and "hot-rolled" bars take the elastic-perfectly
+    plastic line of Fig. 23A at fyd. Where the kind is not stated, IS practice is
+    followed: high-strength deformed bars (fy above the mild-steel grade) are
     designed on the cold-worked curve, which never gives more stress than the
     elastic-plastic one.
     """
@@ -223,8 +223,9 @@ def cold_worked(beam: Beam, params: Parameters) -> Any:
         raise ValueError(f"beam {beam.id!r}: steel_kind {beam.steel_kind!r} is not one of "
                          f"{', '.join(STEEL_KINDS)}")
     by_grade = np.asarray(beam.yield_strength, float) > params.value("mild_steel_fy")
-    return choose(beam.steel_kind == "cold-worked", True,
-                  choose(beam.steel_kind == "mild", False, by_grade))
+    if beam.steel_kind == "unstated":
+        return by_grade
+    return beam.steel_kind == "cold-worked"
 
 
 def steel_modulus(beam: Beam, params: Parameters) -> Any:
@@ -261,7 +262,8 @@ def steel_law(beam: Beam, params: Parameters, context: Context) -> MaterialModel
     return MaterialModel(
         PiecewiseLinear(points=tuple(points), knee_strain=knee),
         (Factor("fy", beam.yield_strength, clause("5.6", "characteristic yield strength"),
-                f"specified; bars {beam.steel_kind}", "MPa"),
+                f"specified; bars {beam.steel_kind.replace('unstated', 'of kind not stated')}",
+                "MPa"),
          Factor("γm", params.value("gamma_m_steel"), params["gamma_m_steel"].clause, "steel"),
          fyd,
          Factor("Es", es, params["steel_modulus"].clause, params["steel_modulus"].description,

@@ -109,7 +109,7 @@ class Beam:
     layout: FloorLayout | None = None
     strength_basis: StrengthBasis = StrengthBasis.CYLINDER
     steel_modulus: Value | None = None  # None: the edition's value
-    steel_kind: str = "hot-rolled"  # or "cold-worked" (IS 456 Fig. 23 curve), "mild"
+    steel_kind: str = "unstated"  # or "hot-rolled", "cold-worked" (IS 456 Fig. 23B), "mild"
     ductility_class: str = "N"
     actions: Actions = field(default_factory=Actions)
     unit_system: UnitSystem = UnitSystem.SI

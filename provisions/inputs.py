@@ -287,8 +287,9 @@ class BeamModel(_Model):
     steel_modulus: Stress | None = Field(
         default=None, description="modulus of the reinforcement; leave out for the edition's "
         "value")
-    steel_kind: Literal["hot-rolled", "cold-worked", "mild"] = Field(
-        default="hot-rolled", description="how the bars are made")
+    steel_kind: Literal["hot-rolled", "cold-worked", "mild"] | None = Field(
+        default=None, description="how the bars are made; leave out for the edition's "
+        "usual assumption")
     ductility_class: Literal["A", "B", "C", "N", "L"] = Field(
         default="N", description="ductility class of the bars (A, B, C; or N, L)")
     tension: Annotated[list[LayerModel], Field(min_length=1), _Expect(
@@ -654,7 +655,8 @@ class _BeamReader:
         fc = q(m.concrete_strength, "concrete_strength", STRESS, fc_label)
         fy = q(m.yield_strength, "yield_strength", STRESS, "fy")
         es = q(m.steel_modulus, "steel_modulus", STRESS, "Es")
-        self.shown["steel"] = f"{m.steel_kind}, ductility class {m.ductility_class}"
+        self.shown["steel"] = f"{m.steel_kind or 'kind not stated'}, ductility class " \
+            f"{m.ductility_class}"
         self.within(fc, "concrete_strength", "a concrete strength", CONCRETE_RANGE)
         self.within(fy, "yield_strength", "a yield strength", YIELD_RANGE)
         self.within(es, "steel_modulus", "a steel modulus", MODULUS_RANGE)
@@ -691,7 +693,8 @@ class _BeamReader:
             compression=tuple(Layer(a, d) for a, d, _ in compression),
             flange_thickness=_v(hf), flange_width=_v(bf), layout=layout,
             strength_basis=_BASES[m.strength_basis], steel_modulus=_v(es),
-            steel_kind=m.steel_kind, ductility_class=m.ductility_class, actions=actions,
+            steel_kind=m.steel_kind or "unstated", ductility_class=m.ductility_class,
+            actions=actions,
             unit_system=self.system, statically_determinate=determinate,
             isolated=m.isolated, title=m.title,
         )

@@ -89,7 +89,7 @@ def test_design_peak_stress_is_0446_fck():
 
 # --- steel: 38.1(e), Fig. 23 ----------------------------------------------------------------
 
-def steel_model(edition, fy, kind="hot-rolled"):
+def steel_model(edition, fy, kind="unstated"):
     beam = rectangle(fy=fy, steel_kind=kind)
     return edition.steel_law(beam, edition.parameters(Context()), Context())
 
@@ -146,6 +146,11 @@ def test_steel_kind_when_stated(edition):
     # (IS 456:2000 Fig. 23A and 23B, from memory)
     assert float(mild.stress(np.array([0.0019]))[0]) == pytest.approx(fyd, rel=1e-12)
     assert float(cold.stress(np.array([0.0012]))[0]) < 250.0 / 1.15 - 1.0
+    # bars said to be hot-rolled take the elastic-plastic line too (Fig. 23A shape)
+    hot = steel_model(edition, 500.0, "hot-rolled").law
+    assert float(hot.stress(np.array([0.0025]))[0]) == pytest.approx(500.0 / 1.15, rel=1e-12)
+    unstated = steel_model(edition, 500.0).law  # Fe 500 of unstated kind: Fig. 23B
+    assert float(unstated.stress(np.array([0.0025]))[0]) < 500.0 / 1.15 - 1.0
     with pytest.raises(PluginError, match="steel_kind"):
         assess(rectangle(steel_kind="stainless"), ID)
 
