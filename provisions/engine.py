@@ -106,10 +106,12 @@ def resolve_form(edition: Edition, beam: Beam, form: str | None) -> tuple[str, s
     """The published form to use and why: the user's choice, else the beam's units."""
     forms = edition.forms
     if form and form != "auto":
-        if form not in forms:
-            raise EditionError(f"edition {edition.id!r} has no form {form!r} "
-                               f"(it has: {', '.join(forms)})")
-        return form, "chosen by the user"
+        if form in forms:
+            return form, "chosen by the user"
+        if len(forms) == 1:  # a choice between forms does not concern a one-form edition
+            return forms[0], f"the edition's only form ({form} was asked for)"
+        raise EditionError(f"edition {edition.id!r} has no form {form!r} "
+                           f"(it has: {', '.join(forms)})")
     if beam.unit_system is UnitSystem.US and "inch-pound" in forms:
         return "inch-pound", "follows the beam's US customary units"
     if "SI" in forms:

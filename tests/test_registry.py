@@ -325,3 +325,16 @@ def test_environment_switch_limits_the_default_registry(monkeypatch):
     assert default_registry().ids() == ["aci318-14"]
     with pytest.raises(EditionError, match="aci318-19"):
         assess(floor_beam(), "aci318-19")
+
+
+def test_a_form_choice_applies_to_editions_that_publish_it():
+    from clausewise.provisions.engine import resolve_form
+
+    registry = Registry()
+    registry.load_entry_points()
+    beam = Beam("F1", Shape.RECTANGLE, Bending.SAGGING, 300.0, 600.0, 30.0, 420.0,
+                (Layer(1500.0, 540.0),))
+    # ACI 318-19 publishes an inch-pound form; EN 1992-1-1 only SI, so the choice passes it by
+    assert resolve_form(registry.edition("aci318-19"), beam, "inch-pound")[0] == "inch-pound"
+    form, basis = resolve_form(registry.edition("en1992-1-1:2004"), beam, "inch-pound")
+    assert form == "SI" and "only form" in basis
