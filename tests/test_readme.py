@@ -28,3 +28,16 @@ def test_ci_runs_the_readme_commands():
     for command in (demo, tests):
         for step in command.split(" && ")[2:]:  # past creating and activating the venv
             assert step in CI, f"{step!r} is in the README but not in .ci/run"
+
+
+def test_the_readme_beam_file_loads_and_checks():
+    from clausewise.provisions import assess
+    from clausewise.provisions.inputs import parse_schedule
+
+    (example,) = re.findall(r"```toml\n(\[project\].*?)```", README, re.S)
+    schedule = parse_schedule(example, "README.md")
+    assert not schedule.problems and len(schedule.entries) == 1
+    beam = schedule.entries[0].beam
+    # 4 x 25 mm bars: 4 π 25²/4 = 1963.5 mm² (common practice, no source)
+    assert beam.tension_area == 4 * 3.141592653589793 * 25.0**2 / 4
+    assert assess(beam, "en1992-1-1:2004").status in ("pass", "fail")
