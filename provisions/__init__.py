@@ -6,8 +6,9 @@ needs from here, never from ``clausewise.core``.
 
 from __future__ import annotations
 
-from importlib import import_module
-from typing import TYPE_CHECKING, Any
+from typing import TYPE_CHECKING
+
+from clausewise.core.lazy import lazy_names
 
 _EXPORTS = {
     "BilinearHardening": "clausewise.core",
@@ -202,14 +203,4 @@ __all__ = [
 ]
 
 
-def __getattr__(name: str) -> Any:
-    """Load a public name on first use, so importing the package stays cheap."""
-    if name not in _EXPORTS:
-        raise AttributeError(f"module {__name__!r} has no attribute {name!r}")
-    value = getattr(import_module(_EXPORTS[name]), name)
-    globals()[name] = value
-    return value
-
-
-def __dir__() -> list[str]:
-    return sorted(set(globals()) | set(_EXPORTS))
+__getattr__, __dir__ = lazy_names(globals(), _EXPORTS)
