@@ -5,6 +5,7 @@ from pathlib import Path
 
 import pytest
 
+from clausewise.annexfile import AnnexError, load_annex
 from clausewise.provisions import (
     Actions,
     Beam,
@@ -17,7 +18,6 @@ from clausewise.provisions import (
     Shape,
     assess,
 )
-from clausewise.provisions.annexfile import AnnexError, load_annex
 
 ROOT = Path(__file__).resolve().parents[1]
 ANNEXES = ROOT / "fixtures" / "annexes"

@@ -21,7 +21,7 @@ from clausewise.provisions import (
     assess,
 )
 from clausewise.provisions.batch import assess_many, kind_of, stack_beams
-from clausewise.provisions.synthetic import synthetic_beams
+from clausewise.synthetic import synthetic_beams
 
 EDITIONS = [e.id for e in clausewise.editions()]
 

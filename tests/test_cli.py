@@ -22,12 +22,12 @@ import jsonschema
 import pytest
 
 import clausewise
+from clausewise import cli as cli_module
+from clausewise.beamfile import load_schedule
+from clausewise.cli import main
 from clausewise.provisions import CAUTION, Registry, assess
-from clausewise.provisions import cli as cli_module
 from clausewise.provisions import registry as registry_module
-from clausewise.provisions.cli import main
-from clausewise.provisions.inputs import load_schedule
-from clausewise.provisions.results import results_schema
+from clausewise.results import results_schema
 
 ROOT = Path(__file__).resolve().parents[1]
 DEMO = sorted((ROOT / "fixtures" / "demo").glob("*.toml"))
@@ -423,7 +423,7 @@ def test_a_broken_plugin_is_listed_and_strict_makes_it_fatal(monkeypatch, capsys
 
 
 def test_an_annex_file_becomes_an_edition_over_its_base(tmp_path, capsys):
-    pytest.importorskip("clausewise.provisions.annexfile")
+    pytest.importorskip("clausewise.annexfile")
     path = write(tmp_path, PASSING)
     status, doc = run_json(capsys, "check", str(path), "--annex", str(ANNEX),
                            "--edition", "xl-na:2023")
@@ -465,7 +465,7 @@ def test_figures_option_draws_one_file_per_beam_and_edition(tmp_path, capsys):
 
 def test_the_module_runs_as_a_program(tmp_path):
     path = write(tmp_path, PASSING)
-    done = subprocess.run([sys.executable, "-m", "clausewise.provisions.cli", "check",
+    done = subprocess.run([sys.executable, "-m", "clausewise.cli", "check",
                            str(path), "--format", "json"], capture_output=True, text=True,
                           timeout=120, check=False)
     assert done.returncode == 0, done.stderr
@@ -473,7 +473,7 @@ def test_the_module_runs_as_a_program(tmp_path):
 
 
 def test_help_imports_no_heavy_library():
-    code = ("import sys; from clausewise.provisions.cli import build_parser; build_parser()"
+    code = ("import sys; from clausewise.cli import build_parser; build_parser()"
             ".format_help(); print(sorted(m for m in ('rich', 'matplotlib', 'pint', "
             "'pydantic') if m in sys.modules))")
     done = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True,

@@ -306,7 +306,7 @@ def test_check_edition_and_assert_conforms_report_findings():
 
 def run_kit(*args):
     env = {k: v for k, v in os.environ.items() if not k.startswith("CLAUSEWISE_")}
-    return subprocess.run([sys.executable, "-m", "clausewise.provisions.testing", *args],
+    return subprocess.run([sys.executable, "-m", "clausewise.conformance", *args],
                           capture_output=True, text=True, env=env, cwd=ROOT, timeout=120)
 
 

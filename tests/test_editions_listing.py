@@ -4,9 +4,9 @@ from __future__ import annotations
 
 import json
 
+from clausewise.cli import main
 from clausewise.provisions import EditionInfo, Parameter, Registry, hookimpl
 from clausewise.provisions import registry as registry_module
-from clausewise.provisions.cli import main
 from clausewise.provisions.testing import check_edition
 
 FIRM = EditionInfo("xx-too-bold:2025", "an invented firm's rules", 2025,

@@ -14,10 +14,10 @@ import numpy as np
 import pytest
 from matplotlib.patches import Rectangle
 
+from clausewise import figures as figs
+from clausewise.beamfile import parse_schedule
 from clausewise.provisions import CAUTION, default_registry
-from clausewise.provisions import figures as figs
-from clausewise.provisions.inputs import parse_schedule
-from clausewise.provisions.results import run
+from clausewise.results import run
 
 SCHEDULE = """
 [[beam]]

@@ -16,8 +16,7 @@ import tomli_w
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
-from clausewise.provisions import Bending, Shape, StrengthBasis, UnitSystem
-from clausewise.provisions.inputs import (
+from clausewise.beamfile import (
     InputError,
     InputProblem,
     Schedule,
@@ -25,6 +24,7 @@ from clausewise.provisions.inputs import (
     load_schedule,
     parse_schedule,
 )
+from clausewise.provisions import Bending, Shape, StrengthBasis, UnitSystem
 
 DEMO = Path(__file__).resolve().parents[1] / "fixtures" / "demo" / "quellmoor-library.toml"
 DELETE = object()

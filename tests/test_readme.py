@@ -31,8 +31,8 @@ def test_ci_runs_the_readme_commands():
 
 
 def test_the_readme_beam_file_loads_and_checks():
+    from clausewise.beamfile import parse_schedule
     from clausewise.provisions import assess
-    from clausewise.provisions.inputs import parse_schedule
 
     (example,) = re.findall(r"```toml\n(\[project\].*?)```", README, re.S)
     schedule = parse_schedule(example, "README.md")

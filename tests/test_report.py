@@ -16,15 +16,15 @@ import jsonschema
 import pytest
 from rich.console import Console
 
+from clausewise.beamfile import parse_schedule
 from clausewise.provisions import CAUTION, MPA_PER_PSI, UnitSystem, default_registry
-from clausewise.provisions.inputs import parse_schedule
-from clausewise.provisions.report import (
+from clausewise.report import (
     check_report,
     comparison_report,
     editions_report,
     explain_report,
 )
-from clausewise.provisions.results import (
+from clausewise.results import (
     Outcome,
     Units,
     csv_row,

@@ -10,11 +10,11 @@ import pytest
 import tomli_w
 
 import clausewise
+from clausewise.beamfile import load_schedule
+from clausewise.cli import BATCH_FROM, main
 from clausewise.provisions import assess
-from clausewise.provisions.cli import BATCH_FROM, main
-from clausewise.provisions.inputs import load_schedule
-from clausewise.provisions.stream import COLUMNS, RowWriter, stream_schedule
-from clausewise.provisions.synthetic import schedule_document, synthetic_beams
+from clausewise.stream import COLUMNS, RowWriter, stream_schedule
+from clausewise.synthetic import schedule_document, synthetic_beams
 
 EDITIONS = ["aci318-19", "en1992-1-1:2004"]
 

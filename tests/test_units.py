@@ -6,8 +6,9 @@ import math
 
 import pytest
 
-from clausewise.provisions import UnitSystem, units
-from clausewise.provisions.units import (
+from clausewise import units
+from clausewise.provisions import UnitSystem
+from clausewise.units import (
     AREA,
     LENGTH,
     MOMENT,

@@ -24,7 +24,7 @@ import numpy as np
 
 from clausewise.provisions import assess, default_registry
 from clausewise.provisions.batch import assess_columns, assess_many
-from clausewise.provisions.synthetic import synthetic_beams
+from clausewise.synthetic import synthetic_beams
 
 EDITIONS = ("aci318-19", "en1992-1-1:2004")
 
@@ -85,7 +85,7 @@ def startup() -> tuple[float, float]:
         return min(times)
 
     bare = best([sys.executable, "-c", "import pydantic, rich, pluggy, numpy"])
-    ours = best([sys.executable, "-m", "clausewise.provisions.cli", "--help"])
+    ours = best([sys.executable, "-m", "clausewise.cli", "--help"])
     return ours, bare
 
 

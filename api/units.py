@@ -17,7 +17,7 @@ from dataclasses import dataclass
 from functools import lru_cache
 from typing import Any
 
-from clausewise.core.errors import ClausewiseError
+from clausewise.provisions import ClausewiseError
 from clausewise.provisions.beam import UnitSystem
 
 

@@ -26,13 +26,13 @@ from dataclasses import replace
 from pathlib import Path
 from typing import TYPE_CHECKING, Any
 
-from clausewise.core.errors import ClausewiseError
+from clausewise.provisions import ClausewiseError
 from clausewise.provisions.verdicts import CAUTION, ERROR, PASS
 
 if TYPE_CHECKING:
-    from clausewise.provisions.inputs import Schedule
+    from clausewise.beamfile import Schedule
     from clausewise.provisions.registry import Edition, Registry
-    from clausewise.provisions.results import Outcome
+    from clausewise.results import Outcome
 
 PROGRAM = "clausewise"
 FORMATS = ("rich", "json", "toml", "csv")
@@ -185,7 +185,7 @@ def _registry(annexes: Sequence[Path]) -> Registry:
     base = default_registry()
     registry = Registry(strict=base.strict, only=base.only, records=list(base.records))
     if annexes:
-        from clausewise.provisions.annexfile import load_annex
+        from clausewise.annexfile import load_annex
 
         for path in annexes:
             load_annex(path, registry)
@@ -219,7 +219,7 @@ def _require(registry: Registry, requirements: Sequence[str]) -> None:
 
 
 def _load(args: argparse.Namespace) -> tuple[Schedule, Registry, str | None, str]:
-    from clausewise.provisions.inputs import load_schedule
+    from clausewise.beamfile import load_schedule
 
     schedule = load_schedule(args.file)
     registry = _registry([*args.annex, *schedule.project.annexes])
@@ -252,7 +252,7 @@ def _chosen_format(args: argparse.Namespace) -> str:
 
 
 def _emit_text(text: str, out: Path | None) -> None:
-    from clausewise.provisions.results import write_atomic
+    from clausewise.results import write_atomic
 
     if out is None:
         sys.stdout.write(text)
@@ -265,7 +265,7 @@ def _emit_report(renderable: Any, width: int = REPORT_WIDTH, out: Path | None = 
     file as text, SVG or HTML."""
     from rich.console import Console
 
-    from clausewise.provisions.results import write_atomic
+    from clausewise.results import write_atomic
 
     if out is None:
         terminal = sys.stdout.isatty()
@@ -286,7 +286,7 @@ def _emit_report(renderable: Any, width: int = REPORT_WIDTH, out: Path | None = 
 
 def _emit_document(data: dict[str, Any], kind: str, out: Path | None,
                    csv_writer: Any = None) -> None:
-    from clausewise.provisions import results
+    from clausewise import results
 
     writers = {"json": results.to_json, "toml": results.to_toml,
                "csv": csv_writer or results.to_csv}
@@ -298,7 +298,7 @@ def _safe(name: str) -> str:
 
 
 def _beam_figures(folder: Path, outcomes: Sequence[Outcome], kind: str) -> None:
-    from clausewise.provisions import figures
+    from clausewise import figures
 
     folder.mkdir(parents=True, exist_ok=True)
     written = 0
@@ -315,7 +315,7 @@ def _beam_figures(folder: Path, outcomes: Sequence[Outcome], kind: str) -> None:
 
 
 def _comparison_figures(folder: Path, outcomes: Sequence[Outcome], kind: str) -> None:
-    from clausewise.provisions import figures
+    from clausewise import figures
 
     folder.mkdir(parents=True, exist_ok=True)
     by_beam: dict[str, list[Outcome]] = {}
@@ -333,7 +333,7 @@ def _comparison_figures(folder: Path, outcomes: Sequence[Outcome], kind: str) ->
 # --- commands ---------------------------------------------------------------------------------
 
 def editions_command(args: argparse.Namespace) -> int:
-    from clausewise.provisions import results
+    from clausewise import results
 
     registry = _registry(args.annex)
     kind = _chosen_format(args)
@@ -344,7 +344,7 @@ def editions_command(args: argparse.Namespace) -> int:
             raise UsageError(f"edition {edition.id!r} has no form {form!r} "
                              f"(it has: {', '.join(edition.forms)})")
         if kind == "rich":
-            from clausewise.provisions.report import parameters_report
+            from clausewise.report import parameters_report
 
             _emit_report(parameters_report(edition, form), out=args.out)
         else:
@@ -352,7 +352,7 @@ def editions_command(args: argparse.Namespace) -> int:
                            results.parameters_csv)
         return 0
     if kind == "rich":
-        from clausewise.provisions.report import editions_report
+        from clausewise.report import editions_report
 
         _emit_report(editions_report(registry), out=args.out)
     else:
@@ -369,7 +369,7 @@ def editions_command(args: argparse.Namespace) -> int:
 
 def _assess(args: argparse.Namespace, default_ids: Callable[[Schedule, Registry], list[str]]
             ) -> tuple[Schedule, list[Edition], list[Outcome]]:
-    from clausewise.provisions.results import run
+    from clausewise.results import run
 
     schedule, registry, form, situation = _load(args)
     editions = _editions(registry, args.edition or default_ids(schedule, registry))
@@ -380,11 +380,11 @@ def _publish(args: argparse.Namespace, schedule: Schedule, outcomes: Sequence[Ou
              build: Callable[[Any], tuple[Any, int]]) -> None:
     """The results in the chosen format; ``build`` makes the report and its width from the
     report module, which is imported only when a report is wanted."""
-    from clausewise.provisions import results
+    from clausewise import results
 
     kind = _chosen_format(args)
     if kind == "rich":
-        from clausewise.provisions import report
+        from clausewise import report
 
         _emit_report(*build(report), out=args.out)
     else:
@@ -402,7 +402,7 @@ def _run_batch(schedule: Schedule, editions: Sequence[Edition], form: str | None
                situation: str, out: Path | None) -> int:
     """The batch path: rows streamed to ``out`` (CSV, or JSON Lines for .jsonl), progress
     on a terminal for runs longer than a second, and a summary at the end."""
-    from clausewise.provisions.stream import LazyProgress, RowWriter, stream_schedule
+    from clausewise.stream import LazyProgress, RowWriter, stream_schedule
 
     progress = LazyProgress(sys.stderr.isatty())
     try:
@@ -415,7 +415,7 @@ def _run_batch(schedule: Schedule, editions: Sequence[Edition], form: str | None
                                           RowWriter(handle, kind), progress)
     finally:
         progress.close()
-    from clausewise.provisions.report import batch_summary
+    from clausewise.report import batch_summary
 
     _emit_report(batch_summary(schedule, summary, out))
     statuses = {s for counts in summary.counts.values() for s in counts}
@@ -425,7 +425,7 @@ def _run_batch(schedule: Schedule, editions: Sequence[Edition], form: str | None
 
 
 def check_command(args: argparse.Namespace) -> int:
-    from clausewise.provisions.results import run
+    from clausewise.results import run
 
     schedule, registry, form, situation = _load(args)
     editions = _editions(registry, args.edition or list(schedule.project.editions)
@@ -453,7 +453,7 @@ def compare_command(args: argparse.Namespace) -> int:
 
 
 def explain_command(args: argparse.Namespace) -> int:
-    from clausewise.provisions.results import run
+    from clausewise.results import run
 
     schedule, registry, form, situation = _load(args)
     entries = [e for e in schedule.entries if e.beam.id == args.beam]
@@ -478,12 +478,12 @@ def explain_command(args: argparse.Namespace) -> int:
 def schema_command(args: argparse.Namespace) -> int:
     import json
 
-    from clausewise.provisions import results
+    from clausewise import results
 
     if args.results:
         schema = results.results_schema()
     else:
-        from clausewise.provisions.inputs import json_schema
+        from clausewise.beamfile import json_schema
 
         schema = json_schema()
     _emit_text(json.dumps(schema, indent=2, ensure_ascii=False) + "\n", args.out)

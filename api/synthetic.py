@@ -105,7 +105,7 @@ def schedule_document(beams: list[Beam], name: str = "synthetic schedule") -> di
 
 
 def main(argv: list[str] | None = None) -> int:
-    """``python -m clausewise.provisions.synthetic --beams N --seed S --out FILE``."""
+    """``python -m clausewise.synthetic --beams N --seed S --out FILE``."""
     import argparse
 
     import tomli_w

@@ -19,15 +19,16 @@ from rich.table import Table
 from rich.text import Text
 
 from clausewise.provisions.engine import CAUTION, FAIL, PASS, Assessment
-from clausewise.provisions.results import ERROR, Outcome, Units, number
+from clausewise.provisions.verdicts import ERROR
 from clausewise.provisions.vocabulary import Check, Clause, Envelope, Factor, Sense
+from clausewise.results import Outcome, Units, number
 
 if TYPE_CHECKING:
     from pathlib import Path
 
-    from clausewise.provisions.inputs import InputProblem, Schedule
+    from clausewise.beamfile import InputProblem, Schedule
     from clausewise.provisions.registry import Edition, Registry
-    from clausewise.provisions.stream import Summary as BatchSummary
+    from clausewise.stream import Summary as BatchSummary
 
 STATUS_STYLE = {PASS: "bold green", FAIL: "bold red", ERROR: "bold magenta"}
 SAME_CYLINDER = ("f'c of the ACI, CSA and AS editions and fck of EN 1992-1-1 are taken as the "

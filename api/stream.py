@@ -24,7 +24,7 @@ from clausewise.provisions.engine import CAUTION
 from clausewise.provisions.registry import Edition
 
 if TYPE_CHECKING:
-    from clausewise.provisions.inputs import Schedule
+    from clausewise.beamfile import Schedule
 
 REFUSED = "refused"
 KN_M = 1e6  # N·mm per kN·m

@@ -24,7 +24,7 @@ from matplotlib.ticker import MaxNLocator  # noqa: E402
 
 from clausewise.provisions.beam import Bending, Shape  # noqa: E402
 from clausewise.provisions.engine import CAUTION, Assessment  # noqa: E402
-from clausewise.provisions.results import Outcome, Units, convert, write_atomic  # noqa: E402
+from clausewise.results import Outcome, Units, convert, write_atomic  # noqa: E402
 
 FORMATS = ("svg", "png")
 CONCRETE, ZONE, STEEL = "#d9d9d9", "#f4a259", "#1d3557"

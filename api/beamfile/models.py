@@ -1,0 +1,255 @@
+"""The beam file format as pydantic models; the JSON Schema for editors follows from them."""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+from typing import Annotated, Any, Literal
+
+from pydantic import (
+    BaseModel,
+    ConfigDict,
+    Field,
+    StrictBool,
+    StringConstraints,
+    WithJsonSchema,
+)
+
+from clausewise.units import AREA, BARS_EXPECTED, LENGTH, MOMENT, STRESS
+
+
+@dataclass(frozen=True)
+class _Expect:
+    """What a field expects, in words, for error messages (kept beside the field's type)."""
+
+    text: str
+
+
+_NUMBER_FIRST = r"^\s*[+-]?\.?\d"
+
+
+def _quantity_schema(examples: list[str]) -> WithJsonSchema:
+    return WithJsonSchema({
+        "anyOf": [{"type": "string", "pattern": _NUMBER_FIRST}, {"type": "number"}],
+        "examples": examples,
+    })
+
+
+RawQuantity = str | float  # strict: text or a number (an integer is taken as a float), no bool
+_UNION_TAGS = frozenset({"str", "float"})  # pydantic names union members in error locations
+Length = Annotated[RawQuantity,
+                   _quantity_schema(["300 mm", "12 in", "8.4 m"]),
+                   _Expect(LENGTH.expected)]
+Area = Annotated[RawQuantity,
+                 _quantity_schema(["1500 mm2", "2.4 in^2"]), _Expect(AREA.expected)]
+Stress = Annotated[RawQuantity,
+                   _quantity_schema(["30 MPa", "5000 psi", "500 MPa", "60 ksi"]),
+                   _Expect(STRESS.expected)]
+Moment = Annotated[RawQuantity,
+                   _quantity_schema(["180 kN m", "130 kip ft"]),
+                   _Expect(MOMENT.expected)]
+BarText = Annotated[str,
+                    WithJsonSchema({"type": "string", "pattern": _NUMBER_FIRST,
+                                    "examples": ["4 x 25 mm", "3 #8", "2 N20 + 2 N16"]}),
+                    _Expect(BARS_EXPECTED)]
+Text = Annotated[str, _Expect("text in quotes")]
+Id = Annotated[str, StringConstraints(strip_whitespace=True, min_length=1, strict=True),
+               _Expect("a text id such as 'B1', unique in the file")]
+_OPERATOR = r"(~=|===|==|!=|<=|>=|<|>)"
+_VERSION = r"[^\s,<>=!~]+"
+EditionId = Annotated[str, StringConstraints(strip_whitespace=True, strict=True,
+                                             pattern=r"^[^\s<>=!~,]+$"),
+                      _Expect("an edition id such as 'aci318-19'")]
+Requirement = Annotated[str, StringConstraints(
+    strip_whitespace=True, strict=True,
+    pattern=rf"^[^\s<>=!~,]+\s*({_OPERATOR}\s*{_VERSION}(\s*,\s*{_OPERATOR}\s*{_VERSION})*)?$"),
+    _Expect("an edition id with an optional version specifier, e.g. 'aci318-19>=0.1'")]
+
+
+class _Model(BaseModel):
+    model_config = ConfigDict(extra="forbid", strict=True)
+
+
+class LayerModel(_Model):
+    """One layer of bars: bars or area, and depth or centroid_from_face."""
+
+    model_config = ConfigDict(title="layer", json_schema_extra={"allOf": [
+        {"oneOf": [{"required": ["bars"]}, {"required": ["area"]}]},
+        {"oneOf": [{"required": ["depth"]}, {"required": ["centroid_from_face"]}]},
+    ]})
+
+    bars: BarText | None = Field(
+        default=None, description="the bars, e.g. '4 x 25 mm' or '3 #8'")
+    area: Area | None = Field(
+        default=None, description="the steel area, where bars are not given")
+    depth: Length | None = Field(
+        default=None, description="depth of the layer's centroid from the compression face "
+        "(the top in sagging, the soffit in hogging)")
+    centroid_from_face: Length | None = Field(
+        default=None, description="distance from the face the layer lies near (the tension "
+        "face for tension steel, the compression face for compression steel) to its centroid")
+
+
+class FloorModel(_Model):
+    """Where the beam sits in the floor, as the effective-width rules need it."""
+
+    model_config = ConfigDict(title="floor")
+
+    span: Length = Field(description="span, centre to centre of supports")
+    continuity: Literal["simple", "end", "interior", "cantilever"] = Field(
+        default="simple", description="simple span, end or interior span of a continuous "
+        "beam, or cantilever")
+    clear_span: Length | None = Field(
+        default=None, description="clear span between support faces")
+    clear_left: Length | None = Field(
+        default=None, description="clear distance from this web to the next web on the left; "
+        "leave out for a free edge")
+    clear_right: Length | None = Field(
+        default=None, description="clear distance to the next web on the right; leave out "
+        "for a free edge")
+    zero_moment_length: Length | None = Field(
+        default=None, description="distance between points of zero moment, where known")
+    adjacent_span: Length | None = Field(
+        default=None, description="for a section over a support: the span on the other side")
+
+
+class MomentsModel(_Model):
+    """Moments in the beam's bending sense (positive): service dead and live, or factored."""
+
+    model_config = ConfigDict(title="moments")
+
+    dead: Moment | None = Field(default=None, description="service dead-load moment")
+    live: Moment | None = Field(default=None, description="service live-load moment")
+    factored: Moment | None = Field(
+        default=None, description="a factored design moment, instead of the service moments")
+
+
+class BeamModel(_Model):
+    """One beam of the schedule."""
+
+    model_config = ConfigDict(title="beam")
+
+    id: Id = Field(description="the beam's mark, unique in the file")
+    title: Text = Field(default="", description="a short description")
+    units: Literal["SI", "US"] | None = Field(
+        default=None, description="unit system for this beam's plain numbers, overriding "
+        "the project's")
+    shape: Literal["T", "L", "rectangular", "inverted T"] = Field(
+        description="T (slab both sides), L (edge beam), rectangular, or inverted T "
+        "(flange at the soffit)")
+    bending: Literal["sagging", "hogging"] = Field(
+        default="sagging", description="sagging: compression at the top; hogging: at the "
+        "soffit")
+    web_width: Length = Field(description="web width bw")
+    overall_depth: Length = Field(description="overall depth h of the section")
+    slab_thickness: Length | None = Field(
+        default=None, description="flange (slab) thickness hf")
+    effective_flange_width: Length | None = Field(
+        default=None, description="an effective flange width given outright, instead of the "
+        "rules")
+    floor: FloorModel | None = Field(default=None, description="the floor layout")
+    concrete_strength: Stress = Field(description="specified concrete strength")
+    strength_basis: Literal["cylinder", "cube"] = Field(
+        default="cylinder", description="whether the concrete strength is a cylinder or a "
+        "cube strength")
+    yield_strength: Stress = Field(description="specified yield strength of the reinforcement")
+    steel_modulus: Stress | None = Field(
+        default=None, description="modulus of the reinforcement; leave out for the edition's "
+        "value")
+    steel_kind: Literal["hot-rolled", "cold-worked", "mild"] | None = Field(
+        default=None, description="how the bars are made; leave out for the edition's "
+        "usual assumption")
+    ductility_class: Literal["A", "B", "C", "N", "L"] = Field(
+        default="N", description="ductility class of the bars (A, B, C; or N, L)")
+    tension: Annotated[list[LayerModel], Field(min_length=1), _Expect(
+        "a list of one or more layers, e.g. [{ bars = '4 x 25 mm', depth = '540 mm' }]")] = \
+        Field(description="tension reinforcement, one table per layer")
+    compression: Annotated[list[LayerModel], _Expect(
+        "a list of layers, e.g. [{ bars = '2 x 16 mm', depth = '50 mm' }]")] = Field(
+        default_factory=list, description="compression reinforcement, one table per layer")
+    statically_determinate: StrictBool | None = Field(
+        default=None, description="true for a statically determinate beam; by default true "
+        "for a simple span or a cantilever")
+    isolated: StrictBool = Field(
+        default=False, description="true for a T whose flange is not part of a slab (an "
+        "isolated T, with the limits some editions set on it)")
+    moments: MomentsModel | None = Field(
+        default=None, description="the actions; leave out for the capacity only")
+
+
+class ProjectModel(_Model):
+    """Who and what the calculation is for."""
+
+    model_config = ConfigDict(title="project")
+
+    name: Text = ""
+    building: Text = ""
+    town: Text = ""
+    engineer: Text = ""
+    notes: Text = ""
+    units: Literal["SI", "US"] = Field(
+        default="SI", description="unit system for plain numbers: SI (mm, MPa, kN m) or US "
+        "(in, psi, kip ft)")
+
+
+class RunModel(_Model):
+    """Options of the run."""
+
+    model_config = ConfigDict(title="run")
+
+    editions: list[EditionId] = Field(
+        default_factory=list, description="editions to check against; empty: all")
+    form: Literal["auto", "SI", "inch-pound"] = Field(
+        default="auto", description="published form of an edition; auto follows the beam's "
+        "units")
+    situation: Literal["persistent", "accidental"] = Field(
+        default="persistent", description="design situation for partial factors")
+    require: list[Requirement] = Field(
+        default_factory=list, description="editions that must be installed, with version "
+        "specifiers")
+    annexes: list[Text] = Field(
+        default_factory=list, description="annex parameter files, relative to this file")
+
+
+class HeaderModel(_Model):
+    """The file without its beams."""
+
+    project: ProjectModel = Field(default_factory=lambda: ProjectModel())
+    run: RunModel = Field(default_factory=lambda: RunModel())
+
+
+class ScheduleModel(HeaderModel):
+    """A clausewise beam schedule: project, run options and one table per beam."""
+
+    model_config = ConfigDict(title="clausewise beam schedule")
+
+    beam: Annotated[list[BeamModel], Field(min_length=1)] = Field(
+        description="one [[beam]] table per beam")
+
+
+def json_schema() -> dict[str, Any]:
+    """JSON Schema of the schedule file (draft 2020-12), for editors that check TOML.
+
+    TOML has no null, so the optional fields' null branches are dropped, and the
+    definitions are named by their titles ("beam", "layer", ...).
+    """
+    schema = ScheduleModel.model_json_schema()
+    names = {name: d.get("title", name) for name, d in schema.get("$defs", {}).items()}
+
+    def clean(node: Any) -> Any:
+        if isinstance(node, list):
+            return [clean(item) for item in node]
+        if not isinstance(node, dict):
+            return node
+        out = {key: clean(value) for key, value in node.items()
+               if not (key == "default" and value is None)}
+        if "$ref" in out:
+            out["$ref"] = "#/$defs/" + names[out["$ref"].rsplit("/", 1)[1]]
+        if "anyOf" in out:
+            options = [option for option in out.pop("anyOf") if option != {"type": "null"}]
+            out = {**options[0], **out} if len(options) == 1 else {"anyOf": options, **out}
+        return out
+
+    cleaned = clean(schema)
+    cleaned["$defs"] = {names[name]: d for name, d in cleaned["$defs"].items()}
+    return {"$schema": "https://json-schema.org/draft/2020-12/schema", **cleaned}
+

@@ -1,0 +1,297 @@
+"""Reading one validated beam into a :class:`Beam` in N, mm and MPa, collecting every bad
+value rather than the first."""
+
+from __future__ import annotations
+
+from typing import Any
+
+from clausewise.beamfile.errors import _text
+from clausewise.beamfile.models import BeamModel, LayerModel
+from clausewise.provisions import (
+    Actions,
+    Beam,
+    Bending,
+    Continuity,
+    FloorLayout,
+    Layer,
+    Shape,
+    StrengthBasis,
+    UnitSystem,
+)
+from clausewise.units import (
+    AREA,
+    BARS_EXPECTED,
+    LENGTH,
+    MOMENT,
+    STRESS,
+    Kind,
+    QuantityError,
+    read_bars,
+    read_quantity,
+    unit_info,
+)
+
+# Plausible ranges (MPa) that catch a slip of the unit; the editions check their own scope.
+CONCRETE_RANGE = (5.0, 150.0)
+YIELD_RANGE = (150.0, 1000.0)
+MODULUS_RANGE = (100_000.0, 300_000.0)
+
+_SHAPES = {"T": Shape.TEE, "L": Shape.ELL, "rectangular": Shape.RECTANGLE,
+           "inverted T": Shape.TEE}
+_FLIPPED = {Bending.SAGGING: Bending.HOGGING, Bending.HOGGING: Bending.SAGGING}
+# enum members by value: a dict lookup is far cheaper than calling the enum per beam
+_BENDINGS = {b.value: b for b in Bending}
+_BASES = {b.value: b for b in StrengthBasis}
+_CONTINUITIES = {c.value: c for c in Continuity}
+_SYSTEMS = {u.value: u for u in UnitSystem}
+_SHAPE_TEXT = {(shape, bending): f"{shape}, {bending}" for shape in _SHAPES
+               for bending in ("sagging", "hogging")} | {
+    ("inverted T", "sagging"): "inverted T, sagging (flange in tension, at the soffit)",
+    ("inverted T", "hogging"): "inverted T, hogging (flange in compression, at the soffit)",
+    ("T", "hogging"): "T, hogging (slab in tension)",
+    ("L", "hogging"): "L, hogging (slab in tension)",
+}
+
+
+class _BeamReader:
+    """Reads one validated beam model, collecting every bad value rather than the first."""
+
+    def __init__(self, model: BeamModel, system: UnitSystem) -> None:
+        self.model = model
+        self.system = system
+        self.problems: list[tuple[str, str, str]] = []
+        self.shown: dict[str, str] = {}
+
+    def problem(self, field: str, value: str, expected: str) -> None:
+        self.problems.append((field, value, expected))
+
+    def quantity(self, value: Any, field: str, kind: Kind, label: str = "",
+                 sign: str = "positive") -> tuple[float, str] | None:
+        if value is None:
+            return None
+        try:
+            number, text = read_quantity(value, kind, self.system, sign)
+        except QuantityError as exc:
+            self.problem(field, exc.value, exc.expected)
+            return None
+        if label:
+            self.shown[label] = text
+        return number, text
+
+    def in_user_units(self, value: float, kind: Kind) -> str:
+        spelling, label = kind.default(self.system)
+        return f"{_short(value / unit_info(spelling).factor)} {label}"
+
+    def within(self, reading: tuple[float, str] | None, field: str, what: str,
+               bounds: tuple[float, float]) -> None:
+        if reading is None or bounds[0] <= reading[0] <= bounds[1]:
+            return
+        low, high = bounds
+        text = f"{what} between {_short(low)} and {_short(high)} MPa"
+        if self.system is UnitSystem.US:
+            low_us, high_us = (_short(b / unit_info("psi").factor) for b in bounds)
+            text = f"{what} between {low_us} and {high_us} psi ({_short(low)} to " \
+                f"{_short(high)} MPa)"
+        self.problem(field, reading[1], f"{text}; is the unit right?")
+
+    # --- parts --------------------------------------------------------------------------
+    def layers(self, name: str, models: list[LayerModel], h: tuple[float, str] | None,
+               tension: bool) -> list[tuple[float, float, str]]:
+        """(area, depth, shown text) per layer; depth from the compression face."""
+        read: list[tuple[float, float, str]] = []
+        symbol = "d" if tension else "d'"
+        face = "tension" if tension else "compression"
+        for i, layer in enumerate(models, 1):
+            field = f"{name}[{i}]"
+            area = self._layer_area(layer, field)
+            depth = self._layer_depth(layer, field, h, tension, symbol, face)
+            if area is not None and depth is not None:
+                read.append((area[0], depth[0], f"{area[1]} {depth[1]}"))
+        return read
+
+    def _layer_area(self, layer: LayerModel, field: str) -> tuple[float, str] | None:
+        if (layer.bars is None) == (layer.area is None):
+            both = layer.bars is not None
+            self.problem(f"{field}.area" if both else field, _text(layer.area) if both else "",
+                         "bars or area, not both" if both else f"bars ({BARS_EXPECTED}) or "
+                         f"area ({AREA.expected})")
+            return None
+        if layer.bars is not None:
+            try:
+                bars = read_bars(layer.bars, self.system)
+            except QuantityError as exc:
+                self.problem(f"{field}.bars", exc.value, exc.expected)
+                return None
+            return bars.area, bars.text
+        return self.quantity(layer.area, f"{field}.area", AREA)
+
+    def _layer_depth(self, layer: LayerModel, field: str, h: tuple[float, str] | None,
+                     tension: bool, symbol: str, face: str) -> tuple[float, str] | None:
+        if (layer.depth is None) == (layer.centroid_from_face is None):
+            both = layer.depth is not None
+            self.problem(f"{field}.centroid_from_face" if both else field,
+                         _text(layer.centroid_from_face) if both else "",
+                         "depth or centroid_from_face, not both" if both else
+                         f"depth (from the compression face) or centroid_from_face, each "
+                         f"{LENGTH.expected}")
+            return None
+        given = layer.depth if layer.depth is not None else layer.centroid_from_face
+        which = "depth" if layer.depth is not None else "centroid_from_face"
+        reading = self.quantity(given, f"{field}.{which}", LENGTH)
+        if reading is None or h is None:
+            return None
+        value, text = reading
+        if value >= h[0]:
+            self.problem(f"{field}.{which}", text, f"a distance less than the overall depth "
+                         f"({h[1]}), so that the layer lies inside the section")
+            return None
+        if which == "depth":
+            return value, f"at {symbol} = {text}"
+        depth = h[0] - value if tension else value
+        return depth, f"with its centroid {text} from the {face} face"
+
+    def floor(self) -> FloorLayout | None:
+        floor = self.model.floor
+        if floor is None:
+            return None
+        q = self.quantity
+        span = q(floor.span, "floor.span", LENGTH, "span")
+        self.shown["continuity"] = f"{floor.continuity} span" if floor.continuity != \
+            "cantilever" else "cantilever"
+        clear = q(floor.clear_span, "floor.clear_span", LENGTH, "clear span ln")
+        left = q(floor.clear_left, "floor.clear_left", LENGTH, "clear distance to next web, left")
+        right = q(floor.clear_right, "floor.clear_right", LENGTH,
+                  "clear distance to next web, right")
+        zero = q(floor.zero_moment_length, "floor.zero_moment_length", LENGTH,
+                 "distance between points of zero moment")
+        adjacent = q(floor.adjacent_span, "floor.adjacent_span", LENGTH, "adjacent span")
+        if span is not None and clear is not None and clear[0] > span[0]:
+            self.problem("floor.clear_span", clear[1], f"a clear span no longer than the span "
+                         f"({span[1]})")
+        if self.model.shape == "L" and left is not None and right is not None:
+            self.problem("floor.clear_right", right[1], "nothing: an L beam has slab on one side "
+                         "only, so give clear_left or clear_right, not both")
+        if span is None:
+            return None
+        return FloorLayout(span[0], _CONTINUITIES[floor.continuity], _v(clear), _v(left),
+                           _v(right), _v(zero), _v(adjacent))
+
+    def actions(self) -> Actions:
+        moments = self.model.moments
+        if moments is None:
+            return Actions()
+        q = self.quantity
+        dead = q(moments.dead, "moments.dead", MOMENT, "dead-load moment", "non-negative")
+        live = q(moments.live, "moments.live", MOMENT, "live-load moment", "non-negative")
+        factored = q(moments.factored, "moments.factored", MOMENT, "factored moment",
+                     "non-negative")
+        if moments.factored is not None and (moments.dead is not None
+                                             or moments.live is not None):
+            self.problem("moments.factored", _text(moments.factored), "either service moments "
+                         "(dead, live) or a factored moment, not both")
+        elif moments.live is not None and moments.dead is None:
+            self.problem("moments.dead", "", f"{MOMENT.expected}: with a live moment, give the "
+                         "dead moment too ('0 kN m' if there is none)")
+        return Actions(_v(dead), _v(live), _v(factored))
+
+    # --- the whole beam -------------------------------------------------------------------
+    def read(self) -> Beam | None:
+        m = self.model
+        q = self.quantity
+        flanged = m.shape != "rectangular"
+        self.shown["units"] = "US customary" if self.system is UnitSystem.US else "SI"
+        self.shown["shape"] = _SHAPE_TEXT[m.shape, m.bending]
+        bw = q(m.web_width, "web_width", LENGTH, "web width bw")
+        h = q(m.overall_depth, "overall_depth", LENGTH, "overall depth h")
+        hf = q(m.slab_thickness, "slab_thickness", LENGTH, "slab thickness hf")
+        bf = q(m.effective_flange_width, "effective_flange_width", LENGTH,
+               "effective flange width (given)")
+        fc_label = "fck,cube" if m.strength_basis == "cube" else "f'c"
+        fc = q(m.concrete_strength, "concrete_strength", STRESS, fc_label)
+        fy = q(m.yield_strength, "yield_strength", STRESS, "fy")
+        es = q(m.steel_modulus, "steel_modulus", STRESS, "Es")
+        self.shown["steel"] = f"{m.steel_kind or 'kind not stated'}, ductility class " \
+            f"{m.ductility_class}"
+        self.within(fc, "concrete_strength", "a concrete strength", CONCRETE_RANGE)
+        self.within(fy, "yield_strength", "a yield strength", YIELD_RANGE)
+        self.within(es, "steel_modulus", "a steel modulus", MODULUS_RANGE)
+        self._flange(flanged, bw, h, hf, bf)
+        layout = self.floor()
+        if flanged and bf is None and m.effective_flange_width is None and m.floor is None:
+            self.problem("floor", "", "a floor table with at least the span (or an "
+                         "effective_flange_width): a flanged beam needs one for its "
+                         "effective flange width")
+        tension = self.layers("tension", m.tension, h, tension=True)
+        compression = self.layers("compression", m.compression, h, tension=False)
+        self._compression_inside(tension, compression)
+        self.shown["tension steel"] = "; ".join(t for _, _, t in tension)
+        if compression:
+            self.shown["compression steel"] = "; ".join(t for _, _, t in compression)
+        actions = self.actions()
+        determinate = m.statically_determinate
+        if determinate is None:
+            determinate = m.floor is not None and m.floor.continuity in ("simple", "cantilever")
+            self.shown["statically determinate"] = f"{'yes' if determinate else 'no'} " \
+                "(from the continuity)"
+        else:
+            self.shown["statically determinate"] = "yes" if determinate else "no"
+        if m.isolated:
+            self.shown["isolated T"] = "yes: the flange is not part of a slab"
+        if self.problems or bw is None or h is None or fc is None or fy is None:
+            return None
+        bending = _BENDINGS[m.bending]
+        return Beam(
+            id=m.id, shape=_SHAPES[m.shape],
+            bending=_FLIPPED[bending] if m.shape == "inverted T" else bending,
+            web_width=bw[0], depth=h[0], concrete_strength=fc[0], yield_strength=fy[0],
+            tension=tuple(Layer(a, d) for a, d, _ in tension),
+            compression=tuple(Layer(a, d) for a, d, _ in compression),
+            flange_thickness=_v(hf), flange_width=_v(bf), layout=layout,
+            strength_basis=_BASES[m.strength_basis], steel_modulus=_v(es),
+            steel_kind=m.steel_kind or "unstated", ductility_class=m.ductility_class,
+            actions=actions,
+            unit_system=self.system, statically_determinate=determinate,
+            isolated=m.isolated, title=m.title,
+        )
+
+    def _flange(self, flanged: bool, bw: tuple[float, str] | None, h: tuple[float, str] | None,
+                hf: tuple[float, str] | None, bf: tuple[float, str] | None) -> None:
+        m = self.model
+        if not flanged:
+            for field, value in (("slab_thickness", m.slab_thickness),
+                                 ("effective_flange_width", m.effective_flange_width)):
+                if value is not None:
+                    self.problem(field, _text(value), "nothing: a rectangular section has no "
+                                 "flange (leave this out, or choose shape 'T' or 'L')")
+            return
+        if m.slab_thickness is None:
+            self.problem("slab_thickness", "", f"{LENGTH.expected}: a {m.shape} beam needs "
+                         "the slab thickness")
+        if hf is not None and h is not None and hf[0] >= h[0]:
+            self.problem("slab_thickness", hf[1], f"a slab thickness less than the overall "
+                         f"depth ({h[1]})")
+        if bf is not None and bw is not None and bf[0] < bw[0]:
+            self.problem("effective_flange_width", bf[1], f"a flange width at least the web "
+                         f"width ({bw[1]})")
+
+    def _compression_inside(self, tension: list[tuple[float, float, str]],
+                            compression: list[tuple[float, float, str]]) -> None:
+        if not tension or not compression:
+            return
+        d = sum(a * depth for a, depth, _ in tension) / sum(a for a, _, _ in tension)
+        for i, (_, depth, text) in enumerate(compression, 1):
+            if depth >= d:
+                self.problem(f"compression[{i}]", text, "compression steel nearer the "
+                             "compression face than the tension steel (effective depth d = "
+                             f"{self.in_user_units(d, LENGTH)})")
+
+
+def _short(value: float) -> str:
+    """Three significant figures, long numbers grouped by spaces: 21 800, 0.305, 1000."""
+    text = f"{float(f'{value:.3g}'):,.10g}" if abs(value) >= 10_000 else f"{value:.4g}"
+    return text.replace(",", " ")
+
+
+def _v(reading: tuple[float, str] | None) -> float | None:
+    return None if reading is None else reading[0]
+

@@ -1,0 +1,33 @@
+"""Results as plain data: one record per beam and edition, for JSON, TOML and CSV.
+
+Machine-readable results use one fixed set of units whatever the beam's input
+units (moments kN·m, forces kN, lengths mm, areas mm², stresses MPa), named in
+the document's ``units`` table; the inputs are kept as the engineer wrote them.
+Every record carries the edition id, the form, the stack's versions, the status,
+the governing check and the caution.
+"""
+
+from clausewise.results.display import UNITS, Units, convert, number
+from clausewise.results.files import write_atomic
+from clausewise.results.records import (
+    document,
+    editions_document,
+    parameters_document,
+    problem_record,
+    record,
+)
+from clausewise.results.running import Outcome, run
+from clausewise.results.schema import results_schema
+from clausewise.results.writers import (
+    csv_row,
+    editions_csv,
+    parameters_csv,
+    to_csv,
+    to_json,
+    to_toml,
+)
+
+__all__ = ["UNITS", "Outcome", "Units", "convert", "csv_row", "document", "editions_csv",
+           "editions_document", "number", "parameters_csv", "parameters_document",
+           "problem_record", "record", "results_schema", "run", "to_csv", "to_json", "to_toml",
+           "write_atomic"]
