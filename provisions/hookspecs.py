@@ -6,6 +6,12 @@ entry-point group ``clausewise.editions``. Every function may accept any subset
 of a hook's arguments (pluggy passes only those it names), so new arguments can
 be added later without breaking anyone.
 
+Every hook is declared once, in :data:`HOOKS` at the end of this module: what it
+returns, whether it may return ``None``, and whether every layer is asked. The
+``Edition`` methods, :data:`TOPICS`, the checks on what a hook returns and the
+author guide's table of hooks all follow from that table; adding a topic is a
+function below (its docstring is its reference) and one row.
+
 Arguments every topic receives by name:
 
 ``beam``
@@ -20,10 +26,32 @@ Arguments every topic receives by name:
 ``context``
     :class:`clausewise.provisions.Context`: ``context.form`` is the published form in
     use (one of ``EditionInfo.forms``), ``context.situation`` the design situation.
+``section``
+    a :class:`SectionView`: gross properties of the section with its effective flange.
+``response``
+    a :class:`SolvedSection`: the section solved by the core (floats for one beam,
+    arrays for a batch).
 
-Topic hooks are ``firstresult``: the topmost edition of a layered stack that
-returns something other than ``None`` answers, the rest fall through to the
-base. An edition that ``extends`` another implements only the topics it changes.
+Layering. Topic hooks are asked top down: the topmost layer of a stack that returns
+something other than ``None`` answers, the layers below are not asked. An edition
+that ``extends`` another implements only the topics it changes, in one of two ways:
+
+*replace* a topic: a plain ``@hookimpl`` answers it outright;
+
+*wrap* a topic: ``@hookimpl(wrapper=True)`` on a generator function receives the
+answer of the stack below it at its ``yield`` and returns it changed (an envelope
+with a candidate added, a check with a tighter limit, a factor scaled), citing its
+own clause for what it added. This is pluggy's wrapper protocol::
+
+    @hookimpl(wrapper=True)
+    def effective_flange_width(beam, params):
+        base = yield                      # the answer of the layers below
+        return add_overhang_rules(base, beam, house_rule(beam, params))
+
+A wrapper changes the edition's own stack only: the base assessed on its own never
+sees it. A layer that replaces a topic replaces what the layers below it wrapped.
+Hooks marked "every layer" (``edition_parameters``, ``additional_checks``) ask every
+layer and keep every answer, bottom layer first; a wrapper there receives them all.
 
 Assessment order (the engine calls the hooks in this order; ``edition_info`` is
 read once, when the edition is registered)::
@@ -38,8 +66,10 @@ read once, when the edition is registered)::
 
 from __future__ import annotations
 
+import inspect
 from collections.abc import Sequence
-from typing import Any
+from dataclasses import dataclass
+from typing import Any, Protocol
 
 import pluggy
 
@@ -51,10 +81,94 @@ PROJECT = "clausewise"
 hookspec = pluggy.HookspecMarker(PROJECT)
 hookimpl = pluggy.HookimplMarker(PROJECT)
 
+Value = Any
+"""A float for one beam, a numpy array over a batch."""
+
+
+# --- what rules receive --------------------------------------------------------------
+
+class SectionView(Protocol):
+    """The section with its effective flange, as ``section`` (floats or arrays)."""
+
+    @property
+    def area(self) -> Value:
+        """Gross area, mm²."""
+
+    @property
+    def centroid(self) -> Value:
+        """Depth of the gross centroid below the compression face, mm."""
+
+    @property
+    def second_moment(self) -> Value:
+        """Gross second moment of area about the centroid, mm⁴."""
+
+    @property
+    def max_width(self) -> Value:
+        """Width of the widest strip (the flange of a flanged section), mm."""
+
+    def cracking_moment(self, flexural_tensile_strength: Value) -> Value:
+        """Moment (N·mm) that cracks the tension face of the gross section."""
+
+
+class SolvedSection(Protocol):
+    """The section solved by strain compatibility, as ``response``.
+
+    One beam: every attribute a float (a ``bool`` for ``block_in_flange`` and
+    ``equilibrium``). A batch: numpy arrays of one value per beam. Rules read the
+    attributes below only, so the same rule serves both shapes.
+    """
+
+    @property
+    def c(self) -> Value:
+        """Neutral-axis depth below the compression face, mm."""
+
+    @property
+    def zone_depth(self) -> Value:
+        """Depth of the compression zone (the block depth for a rectangular block), mm."""
+
+    @property
+    def block_in_flange(self) -> Value:
+        """Whether the compression zone stays inside the flange."""
+
+    @property
+    def nominal_moment(self) -> Value:
+        """Nominal moment resistance Mn, N·mm (before the member factor)."""
+
+    @property
+    def net_tensile_strain(self) -> Value:
+        """Strain of the extreme tension layer (positive in tension)."""
+
+    @property
+    def extreme_tension_depth(self) -> Value:
+        """dt, depth of the extreme tension layer, mm."""
+
+    @property
+    def effective_depth(self) -> Value:
+        """d, depth of the centroid of the tension steel, mm."""
+
+    @property
+    def c_over_dt(self) -> Value:
+        """c/dt."""
+
+    @property
+    def c_over_d(self) -> Value:
+        """c/d."""
+
+    @property
+    def concrete_force(self) -> Value:
+        """Resultant compression of the concrete, N."""
+
+    @property
+    def overhang_force(self) -> Value:
+        """The part of the concrete force carried by the flange overhangs, N."""
+
+    @property
+    def equilibrium(self) -> Value:
+        """Whether force equilibrium was found (no resistance without it)."""
+
 
 # --- who the edition is --------------------------------------------------------------
 
-@hookspec(firstresult=True)
 def edition_info() -> EditionInfo:
     """Return the edition's identity: ``EditionInfo(id, title, year, extends, forms)``.
 
@@ -71,7 +185,6 @@ def edition_info() -> EditionInfo:
     """
 
 
-@hookspec
 def edition_parameters(context: Context) -> Sequence[Parameter]:
     """Return this edition's named parameters (every layer is asked; upper layers win).
 
@@ -85,7 +198,6 @@ def edition_parameters(context: Context) -> Sequence[Parameter]:
 
 # --- scope ---------------------------------------------------------------------------
 
-@hookspec(firstresult=True)
 def applicability(beam: Beam, params: Parameters, context: Context) -> Sequence[Check]:
     """Return the checks that keep the edition inside its range of validity.
 
@@ -98,7 +210,6 @@ def applicability(beam: Beam, params: Parameters, context: Context) -> Sequence[
 
 # --- geometry ------------------------------------------------------------------------
 
-@hookspec(firstresult=True)
 def effective_flange_width(beam: Beam, params: Parameters, context: Context) -> Envelope:
     """Return the effective flange width (mm) as ``Envelope.smallest`` of candidates.
 
@@ -114,7 +225,6 @@ def effective_flange_width(beam: Beam, params: Parameters, context: Context) -> 
 
 # --- materials -----------------------------------------------------------------------
 
-@hookspec(firstresult=True)
 def concrete_law(beam: Beam, params: Parameters, context: Context) -> MaterialModel:
     """Return the concrete law for the ultimate state and the factors behind it.
 
@@ -125,7 +235,6 @@ def concrete_law(beam: Beam, params: Parameters, context: Context) -> MaterialMo
     """
 
 
-@hookspec(firstresult=True)
 def steel_law(beam: Beam, params: Parameters, context: Context) -> MaterialModel:
     """Return the reinforcement's law (same in tension and compression) and factors.
 
@@ -137,8 +246,7 @@ def steel_law(beam: Beam, params: Parameters, context: Context) -> MaterialModel
 
 # --- strength ------------------------------------------------------------------------
 
-@hookspec(firstresult=True)
-def resistance_factor(beam: Beam, response: Any, params: Parameters,
+def resistance_factor(beam: Beam, response: SolvedSection, params: Parameters,
                       context: Context) -> Resistance:
     """Return the member factor applied to the nominal moment.
 
@@ -150,7 +258,6 @@ def resistance_factor(beam: Beam, response: Any, params: Parameters,
     """
 
 
-@hookspec(firstresult=True)
 def design_actions(beam: Beam, params: Parameters, context: Context) -> Envelope:
     """Return the factored moment (N·mm) as ``Envelope.largest`` of load combinations.
 
@@ -163,8 +270,7 @@ def design_actions(beam: Beam, params: Parameters, context: Context) -> Envelope
 
 # --- reinforcement limits ------------------------------------------------------------
 
-@hookspec(firstresult=True)
-def minimum_reinforcement(beam: Beam, section: Any, response: Any, demand: Envelope | None,
+def minimum_reinforcement(beam: Beam, section: SectionView, response: SolvedSection, demand: Envelope | None,
                           resistance: Resistance, params: Parameters,
                           context: Context) -> Sequence[Check]:
     """Return the minimum-reinforcement checks (steel area mm², or strength N·mm).
@@ -178,8 +284,7 @@ def minimum_reinforcement(beam: Beam, section: Any, response: Any, demand: Envel
     """
 
 
-@hookspec(firstresult=True)
-def ductility_limits(beam: Beam, section: Any, response: Any, params: Parameters,
+def ductility_limits(beam: Beam, section: SectionView, response: SolvedSection, params: Parameters,
                      context: Context) -> Sequence[Check]:
     """Return the maximum-reinforcement and ductility checks.
 
@@ -189,8 +294,7 @@ def ductility_limits(beam: Beam, section: Any, response: Any, params: Parameters
     """
 
 
-@hookspec
-def additional_checks(beam: Beam, section: Any, response: Any, params: Parameters,
+def additional_checks(beam: Beam, section: SectionView, response: SolvedSection, params: Parameters,
                       context: Context) -> Sequence[Check]:
     """Return further checks; every layer of the stack is asked and all are kept.
 
@@ -198,8 +302,72 @@ def additional_checks(beam: Beam, section: Any, response: Any, params: Parameter
     """
 
 
-TOPICS = (
-    "applicability", "effective_flange_width", "concrete_law", "steel_law",
-    "resistance_factor", "design_actions", "minimum_reinforcement", "ductility_limits",
+
+
+# --- the table: each hook declared once ---------------------------------------------------
+
+@dataclass(frozen=True)
+class Hook:
+    """What a hook answers: ``returns`` (each item's type when ``many``), whether ``None``
+    is an answer, whether ``every_layer`` is asked (else the topmost answer counts), and
+    whether a complete base edition must implement it (a ``topic``)."""
+
+    name: str
+    returns: type | tuple[type, ...]
+    many: bool = False
+    may_return_none: bool = False
+    every_layer: bool = False
+    topic: bool = True
+
+    @property
+    def signature(self) -> tuple[str, ...]:
+        return tuple(inspect.signature(globals()[self.name]).parameters)
+
+    @property
+    def returns_text(self) -> str:
+        kinds = (self.returns,) if isinstance(self.returns, type) else self.returns
+        text = " or ".join(f"`{k.__name__}`" for k in kinds)
+        return f"list of {text}" if self.many else text
+
+    @property
+    def summary(self) -> str:
+        """The first line of the hook's docstring (what to return)."""
+        return (inspect.getdoc(globals()[self.name]) or "").split("\n\n")[0].replace(
+            "\n", " ").replace("``", "`")
+
+
+HOOKS: tuple[Hook, ...] = (
+    #     name                     returns        many  None   every layer  topic
+    Hook("edition_info", EditionInfo, topic=False),
+    Hook("edition_parameters", Parameter, many=True, every_layer=True, topic=False),
+    Hook("applicability", Check, many=True),
+    Hook("effective_flange_width", Envelope),
+    Hook("concrete_law", MaterialModel),
+    Hook("steel_law", MaterialModel),
+    Hook("resistance_factor", Resistance),
+    Hook("design_actions", Envelope, may_return_none=True),
+    Hook("minimum_reinforcement", Check, many=True),
+    Hook("ductility_limits", Check, many=True),
+    Hook("additional_checks", Check, many=True, every_layer=True, topic=False),
 )
+"""Every hook, in the order the engine calls them."""
+
+BY_NAME = {hook.name: hook for hook in HOOKS}
+
+for _hook in HOOKS:
+    hookspec(firstresult=not _hook.every_layer)(globals()[_hook.name])
+
+TOPICS = tuple(hook.name for hook in HOOKS if hook.topic)
 """Topic hooks a complete base edition must answer (an extending edition needs none)."""
+
+
+def guide_table() -> str:
+    """The hook table of the author guide (DEVELOPERS.md), made from :data:`HOOKS`."""
+    rows = ["| Hook | Returns | May return `None` | Layers asked | What to return |",
+            "|---|---|---|---|---|"]
+    for hook in HOOKS:
+        asked = "every layer, all kept" if hook.every_layer else "topmost answer"
+        none = "yes" if hook.may_return_none else "no"
+        rows.append(f"| `{hook.name}({', '.join(hook.signature)})` | {hook.returns_text} "
+                    f"| {none} | {asked} | {hook.summary} |")
+    return "\n".join(rows) + "\n"

@@ -14,7 +14,9 @@ Environment switches:
 from __future__ import annotations
 
 import os
-from collections.abc import Callable
+from collections.abc import Callable, Iterator, Sequence
+from contextlib import contextmanager
+from contextvars import ContextVar
 from dataclasses import dataclass, field, replace
 from typing import Any
 
@@ -67,6 +69,11 @@ def _validate(plugin: Any) -> EditionInfo:
     pm.add_hookspecs(hookspecs)
     pm.register(plugin)
     pm.check_pending()
+    for caller in pm.get_hookcallers(plugin) or ():
+        if any(impl.hookwrapper for impl in caller.get_hookimpls()):
+            raise PluginError(f"hook {caller.name}: write a wrapper as @hookimpl(wrapper="
+                              "True), a generator that returns the changed answer; the old "
+                              "hookwrapper=True style is not supported")
     info = pm.hook.edition_info()
     if not isinstance(info, EditionInfo):
         raise PluginError(f"edition_info returned {info!r}, expected an EditionInfo")
@@ -194,23 +201,46 @@ class Registry:
         return found
 
 
-def _returned(edition: Edition, hook: str, value: Any, expected: type | tuple[type, ...],
-              allow_none: bool = False) -> Any:
-    if value is None and allow_none:
-        return None
-    if not isinstance(value, expected):
-        names = expected.__name__ if isinstance(expected, type) else " or ".join(
-            t.__name__ for t in expected)
-        raise PluginError(f"edition {edition.id!r}: hook {hook} returned "
-                          f"{type(value).__name__}, expected {names}")
-    return value
+@dataclass(frozen=True)
+class TopicAnswer:
+    """Who answered one hook in one assessment: the layer whose answer was taken (every
+    layer that answered, for a hook that asks every layer) and the layers that wrapped
+    it, innermost first."""
+
+    hook: str
+    answered_by: tuple[str, ...]
+    wrapped_by: tuple[str, ...] = ()
+
+
+_TRAIL: ContextVar[dict[str, TopicAnswer] | None] = ContextVar("clausewise_trail", default=None)
+
+
+@contextmanager
+def answers_trail() -> Iterator[dict[str, TopicAnswer]]:
+    """Record, by hook, which layer answered and which wrapped, for the hooks called
+    inside the block (the engine uses it for the audit)."""
+    trail: dict[str, TopicAnswer] = {}
+    token = _TRAIL.set(trail)
+    try:
+        yield trail
+    finally:
+        _TRAIL.reset(token)
+
+
+@dataclass(frozen=True)
+class _Step:
+    layer: str
+    function: Callable[..., Any]
+    argnames: tuple[str, ...]
+    wrapper: bool
 
 
 @dataclass(frozen=True)
 class Edition:
     """A layered edition: ``layers[0]`` is the base, ``layers[-1]`` the edition itself.
 
-    The typed methods below are the only way the engine calls hooks.
+    :meth:`ask` calls a hook through the layers as :data:`hookspecs.HOOKS` declares it;
+    the typed methods below are the only way the engine calls hooks.
     """
 
     layers: tuple[PluginRecord, ...]
@@ -218,6 +248,7 @@ class Edition:
     _parameters: dict[Context, Parameters] = field(init=False, repr=False, compare=False,
                                                    default_factory=dict)
     _info: EditionInfo = field(init=False, repr=False, compare=False)
+    _steps: dict[str, tuple[_Step, ...]] = field(init=False, repr=False, compare=False)
 
     def __post_init__(self) -> None:
         declared = [r.info.forms for r in reversed(self.layers)  # type: ignore[union-attr]
@@ -229,6 +260,15 @@ class Edition:
         for record in self.layers:  # later registrations are called first
             pm.register(record.plugin, name=record.info.id)  # type: ignore[union-attr]
         object.__setattr__(self, "_pm", pm)
+        order = {r.info.id: i for i, r in enumerate(self.layers)}  # type: ignore[union-attr]
+        steps = {}
+        for hook in hookspecs.HOOKS:
+            impls = sorted(getattr(pm.hook, hook.name).get_hookimpls(),
+                           key=lambda impl: order[impl.plugin_name])
+            steps[hook.name] = tuple(_Step(impl.plugin_name, impl.function,
+                                           tuple(impl.argnames), impl.wrapper)
+                                     for impl in impls)
+        object.__setattr__(self, "_steps", steps)
 
     @property
     def info(self) -> EditionInfo:
@@ -248,85 +288,175 @@ class Edition:
     def base(self) -> EditionInfo:
         return self.layers[0].info  # type: ignore[return-value]
 
-    def _call(self, hook: str, **kwargs: Any) -> Any:
+    # --- calling hooks through the layers ---------------------------------------------
+    def ask(self, hook: str, **kwargs: Any) -> Any:
+        """The stack's answer to ``hook``, checked against what the hook promises.
+
+        Top down: a plain implementation that answers (not ``None``) is taken and the
+        layers below it are not asked; a wrapper receives the answer of the layers below
+        and returns it changed. A hook of every layer keeps every answer, bottom first.
+        """
+        spec = hookspecs.BY_NAME[hook]
+        value, answered, wrapped = self._fold(spec, len(self._steps[hook]) - 1, kwargs)
+        if value is None and spec.many:
+            value = []
+        self._check(spec, "the stack", value)
+        trail = _TRAIL.get()
+        if trail is not None:
+            trail[hook] = TopicAnswer(hook, answered, wrapped)
+        return value
+
+    def _fold(self, spec: hookspecs.Hook, i: int, kwargs: dict[str, Any]
+              ) -> tuple[Any, tuple[str, ...], tuple[str, ...]]:
+        if i < 0:
+            return None, (), ()
+        step = self._steps[spec.name][i]
+        args = [kwargs[name] for name in step.argnames]
+        if step.wrapper:
+            return self._wrap(spec, step, args, i, kwargs)
+        value = self._run(spec, step, args)
+        if spec.every_layer:
+            below, answered, wrapped = self._fold(spec, i - 1, kwargs)
+            if value is None:
+                return below, answered, wrapped
+            self._check(spec, step.layer, value)
+            return [*(below or ()), *value], (*answered, step.layer), wrapped
+        if value is None:
+            return self._fold(spec, i - 1, kwargs)
+        self._check(spec, step.layer, value)
+        return value, (step.layer,), ()
+
+    def _wrap(self, spec: hookspecs.Hook, step: _Step, args: list[Any], i: int,
+              kwargs: dict[str, Any]) -> tuple[Any, tuple[str, ...], tuple[str, ...]]:
+        """pluggy's wrapper protocol: run to ``yield``, send the answer of the layers below
+        (or throw what they raised), take the value it returns."""
+        generator = self._run(spec, step, args)
         try:
-            return getattr(self._pm.hook, hook)(**kwargs)
-        except ClausewiseError:
+            self._run(spec, step, [], generator.__next__)
+        except StopIteration:
+            raise PluginError(f"edition {self.id!r}: the wrapper {spec.name} of layer "
+                              f"{step.layer!r} returned without a yield") from None
+        answered: tuple[str, ...] = ()
+        wrapped: tuple[str, ...] = ()
+        try:
+            below, answered, wrapped = self._fold(spec, i - 1, kwargs)
+            resume: Callable[[], Any] = lambda: generator.send(below)  # noqa: E731
+        except Exception as exc:
+            resume = lambda: generator.throw(exc)  # noqa: E731
+        try:
+            self._run(spec, step, [], resume)
+        except StopIteration as stop:
+            value = stop.value
+        else:
+            raise PluginError(f"edition {self.id!r}: the wrapper {spec.name} of layer "
+                              f"{step.layer!r} yielded twice")
+        if value is None and not spec.may_return_none:
+            raise PluginError(f"edition {self.id!r}: the wrapper {spec.name} of layer "
+                              f"{step.layer!r} returned None; return the answer it received, "
+                              "changed or not")
+        self._check(spec, step.layer, value)
+        return value, answered, (*wrapped, step.layer)
+
+    def _run(self, spec: hookspecs.Hook, step: _Step, args: list[Any],
+             call: Callable[..., Any] | None = None) -> Any:
+        try:
+            return (call or step.function)(*args)
+        except (ClausewiseError, StopIteration):
             raise
         except Exception as exc:
-            raise PluginError(f"edition {self.id!r}: hook {hook} raised "
-                              f"{type(exc).__name__}: {exc}") from exc
+            raise PluginError(f"edition {self.id!r}: hook {spec.name} of layer "
+                              f"{step.layer!r} raised {type(exc).__name__}: {exc}") from exc
 
+    def _check(self, spec: hookspecs.Hook, who: str, value: Any) -> None:
+        """An answer has the type its hook promises (each item, for a list)."""
+        if value is None:
+            if spec.may_return_none or who != "the stack":
+                return
+            raise PluginError(f"edition {self.id!r}: no layer answers the hook {spec.name} "
+                              f"(expected {spec.returns_text.replace('`', '')})")
+        items = value if spec.many else (value,)
+        if spec.many and (isinstance(value, str | bytes) or not isinstance(value, Sequence)):
+            items = (value,)
+            bad: Any = value
+        else:
+            bad = next((v for v in items if not isinstance(v, spec.returns)), None)
+            if bad is None:
+                return
+        where = "the stack" if who == "the stack" else f"layer {who!r}"
+        raise PluginError(f"edition {self.id!r}: hook {spec.name} of {where} returned "
+                          f"{type(bad).__name__}, expected "
+                          f"{spec.returns_text.replace('`', '')}")
+
+    # --- the typed facade ---------------------------------------------------------------
     def parameters(self, context: Context) -> Parameters:
         """Named parameters after layering (they do not depend on the beam, so each
         context is asked once)."""
         if context in self._parameters:
             return self._parameters[context]
         merged: dict[str, Parameter] = {}
-        for answer in reversed(self._call("edition_parameters", context=context)):
-            for parameter in answer:
-                _returned(self, "edition_parameters", parameter, Parameter)
-                base = merged.get(parameter.name)
-                merged[parameter.name] = parameter if base is None else _override(base,
-                                                                                   parameter)
+        for parameter in self.ask("edition_parameters", context=context):
+            base = merged.get(parameter.name)
+            merged[parameter.name] = parameter if base is None else _override(base, parameter)
         self._parameters[context] = Parameters(merged)
         return self._parameters[context]
 
     def applicability(self, beam: Beam, params: Parameters, context: Context) -> list[Check]:
-        return self._checks("applicability", beam=beam, params=params, context=context)
+        return list(self.ask("applicability", beam=beam, params=params, context=context))
 
     def effective_flange_width(self, beam: Beam, params: Parameters,
                                context: Context) -> Envelope:
-        return _returned(self, "effective_flange_width", self._call(
-            "effective_flange_width", beam=beam, params=params, context=context), Envelope)
+        return self.ask("effective_flange_width", beam=beam, params=params,  # type: ignore[no-any-return]
+                        context=context)
 
     def concrete_law(self, beam: Beam, params: Parameters, context: Context) -> MaterialModel:
-        return _returned(self, "concrete_law", self._call(
-            "concrete_law", beam=beam, params=params, context=context), MaterialModel)
+        return self.ask("concrete_law", beam=beam, params=params, context=context)  # type: ignore[no-any-return]
 
     def steel_law(self, beam: Beam, params: Parameters, context: Context) -> MaterialModel:
-        return _returned(self, "steel_law", self._call(
-            "steel_law", beam=beam, params=params, context=context), MaterialModel)
+        return self.ask("steel_law", beam=beam, params=params, context=context)  # type: ignore[no-any-return]
 
     def resistance_factor(self, beam: Beam, response: Any, params: Parameters,
                           context: Context) -> Resistance:
-        return _returned(self, "resistance_factor", self._call(
-            "resistance_factor", beam=beam, response=response, params=params,
-            context=context), Resistance)
+        return self.ask("resistance_factor", beam=beam, response=response,  # type: ignore[no-any-return]
+                        params=params, context=context)
 
     def design_actions(self, beam: Beam, params: Parameters,
                        context: Context) -> Envelope | None:
-        return _returned(self, "design_actions", self._call(
-            "design_actions", beam=beam, params=params, context=context), Envelope,
-            allow_none=True)
+        return self.ask("design_actions", beam=beam, params=params, context=context)  # type: ignore[no-any-return]
 
     def minimum_reinforcement(self, beam: Beam, section: Any, response: Any,
                               demand: Envelope | None, resistance: Resistance,
                               params: Parameters, context: Context) -> list[Check]:
-        return self._checks("minimum_reinforcement", beam=beam, section=section,
-                            response=response, demand=demand, resistance=resistance,
-                            params=params, context=context)
+        return list(self.ask("minimum_reinforcement", beam=beam, section=section,
+                             response=response, demand=demand, resistance=resistance,
+                             params=params, context=context))
 
     def ductility_limits(self, beam: Beam, section: Any, response: Any, params: Parameters,
                          context: Context) -> list[Check]:
-        return self._checks("ductility_limits", beam=beam, section=section, response=response,
-                            params=params, context=context)
+        return list(self.ask("ductility_limits", beam=beam, section=section,
+                             response=response, params=params, context=context))
 
     def additional_checks(self, beam: Beam, section: Any, response: Any, params: Parameters,
                           context: Context) -> list[Check]:
-        answers = self._call("additional_checks", beam=beam, section=section,
-                             response=response, params=params, context=context)
-        return [_returned(self, "additional_checks", c, Check)
-                for answer in reversed(answers) for c in answer]
+        return list(self.ask("additional_checks", beam=beam, section=section,
+                             response=response, params=params, context=context))
 
-    def _checks(self, hook: str, **kwargs: Any) -> list[Check]:
-        answer = self._call(hook, **kwargs)
-        return [_returned(self, hook, c, Check) for c in (answer or ())]
-
+    # --- who answers what ---------------------------------------------------------------
     def implementers(self, hook: str) -> list[str]:
-        """Which layers implement a hook, topmost first (for the guide and the audit)."""
-        return [impl.plugin_name for impl in reversed(getattr(self._pm.hook, hook)
-                                                      .get_hookimpls())]
+        """Which layers implement a hook, topmost first (replacing or wrapping)."""
+        return [step.layer for step in reversed(self._steps[hook])]
+
+    def layering(self, hook: str) -> TopicAnswer:
+        """Who answers ``hook`` as installed: the topmost layer that replaces it (every
+        layer that implements it, for a hook of every layer) and the layers above that
+        wrap it. A layer may still pass (return ``None``) for some beams; an assessment
+        records who answered it (``Assessment.topics``)."""
+        steps = self._steps[hook]
+        plain = [s.layer for s in steps if not s.wrapper]
+        if hookspecs.BY_NAME[hook].every_layer:
+            return TopicAnswer(hook, tuple(plain), tuple(s.layer for s in steps if s.wrapper))
+        top = next((i for i in range(len(steps) - 1, -1, -1) if not steps[i].wrapper), -1)
+        return TopicAnswer(hook, tuple(plain[-1:]),
+                           tuple(s.layer for s in steps[top + 1:] if s.wrapper))
 
 
 def _override(base: Parameter, new: Parameter) -> Parameter:

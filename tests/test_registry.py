@@ -32,7 +32,9 @@ from clausewise.provisions import (
     default_registry,
     hookimpl,
 )
+from clausewise.provisions import hookspecs
 from clausewise.provisions import registry as registry_module
+from clausewise.provisions.registry import answers_trail
 
 ACI = frozenset({"aci318-19", "aci318-14", "aci318-11"})
 
@@ -272,18 +274,15 @@ def test_governing_check_and_provenance(beam, edition_id):
 
 def test_hook_call_order_of_one_assessment():
     edition = aci_registry().edition("aci318-14")
-    called: list[str] = []
-    undo = edition._pm.add_hookcall_monitoring(
-        lambda hook_name, impls, kwargs: called.append(hook_name), lambda *args: None)
-    try:
+    with answers_trail() as trail:
         assess(floor_beam(), edition)
-    finally:
-        undo()
+    called = list(trail)  # in the order first asked
     assert called == [
         "edition_parameters", "applicability", "effective_flange_width", "concrete_law",
         "steel_law", "resistance_factor", "design_actions", "minimum_reinforcement",
         "ductility_limits", "additional_checks",
     ]
+    assert called == [hook.name for hook in hookspecs.HOOKS][1:]  # the table is in call order
 
 
 # --- loading only some editions ---------------------------------------------------------
