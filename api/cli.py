@@ -106,6 +106,9 @@ def build_parser() -> argparse.ArgumentParser:
     editions = commands.add_parser("editions", help="list the installed editions",
                                    epilog=EDITIONS_STATUS,
                                    formatter_class=argparse.RawDescriptionHelpFormatter)
+    editions.add_argument("edition", nargs="?", metavar="ID",
+                          help="show which layer of this edition's stack answers each topic "
+                               "and which layers wrap it")
     editions.add_argument("--strict", action="store_true",
                           help="exit with status 2 when any edition plugin is broken")
     editions.add_argument("--annex", type=Path, action="append", default=[], metavar="FILE",
@@ -350,6 +353,16 @@ def editions_command(args: argparse.Namespace) -> int:
         else:
             _emit_document(results.parameters_document(edition, form), kind, args.out,
                            results.parameters_csv)
+        return 0
+    if args.edition:
+        edition = registry.edition(args.edition)
+        if kind == "rich":
+            from clausewise.report import topics_report
+
+            _emit_report(topics_report(edition), out=args.out)
+        else:
+            _emit_document(results.topics_document(edition), kind, args.out,
+                           results.topics_csv)
         return 0
     if kind == "rich":
         from clausewise.report import editions_report

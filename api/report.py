@@ -19,8 +19,11 @@ from rich.table import Table
 from rich.text import Text
 
 from clausewise.provisions.engine import CAUTION, FAIL, PASS, Assessment
+from clausewise.provisions.hookspecs import HOOKS
+from clausewise.provisions.registry import TopicAnswer
 from clausewise.provisions.verdicts import ERROR
 from clausewise.provisions.vocabulary import Check, Clause, Envelope, Factor, Sense
+from clausewise.provisions.widths import OverhangEnvelope
 from clausewise.results import Outcome, Units, number
 
 if TYPE_CHECKING:
@@ -355,6 +358,33 @@ def _stack_table(a: Assessment) -> Table:
     return table
 
 
+def topics_table(topics: Sequence[TopicAnswer]) -> Table:
+    """Per hook, the layer that answered it and the layers that wrapped its answer."""
+    table = _plain_table("topic", "answered by", "wrapped by (innermost first)")
+    for t in topics:
+        _row(table, t.hook, ", ".join(t.answered_by) or "no layer", ", ".join(t.wrapped_by))
+    return table
+
+
+def overhangs_table(envelope: OverhangEnvelope, units: Units) -> Table:
+    """Per slab side, the effective overhang and the rule that governs it."""
+    table = _plain_table("side", "overhang", "governing rule", "clause", "supplied by")
+    for o in envelope.overhangs:
+        _row(table, o.side, units.value(o.width, "mm"), o.rule.label,
+             two_lines(o.clause.ref, o.clause.title), o.clause.edition)
+    return table
+
+
+def topics_report(edition: Edition) -> Group:
+    """Which layer of an edition's stack answers each hook as installed, and which wrap it."""
+    title = Text(f"{edition.id}: who answers each topic (layers: "
+                 f"{' < '.join(r.info.id for r in edition.layers if r.info)})", style="bold")
+    note = Text("A layer may pass on some beams; each assessment records who answered it.",
+                style="dim")
+    return Group(title, topics_table([edition.layering(h.name) for h in HOOKS]), note,
+                 caution())
+
+
 def _parameters_table(a: Assessment) -> Table:
     table = _plain_table("parameter", "value", "meaning", "clause", "supplied by")
     for p in a.parameters:
@@ -413,11 +443,14 @@ def explain_report(schedule: Schedule, outcome: Outcome) -> Group:
     _row(facts, "status", _status(a.status))
     parts += [Text(""), facts, _section("inputs"), _inputs_table(outcome),
               _section("edition stack (base first)"), _stack_table(a),
+              _section("who answered each topic"), topics_table(a.topics),
               _section("parameters and who supplied them"), _parameters_table(a),
               _section("scope"), checks_table(a.applicability, units, a.edition_id, "", notes=True)]
     if a.effective_width is not None:
         parts += [_section(f"{a.effective_width.name} ({a.effective_width.bound} governs)"),
                   envelope_table(a.effective_width, units)]
+        if isinstance(a.effective_width, OverhangEnvelope):
+            parts.append(overhangs_table(a.effective_width, units))
     if a.concrete_factors or a.steel_factors:
         parts += [_section("material factors"),
                   factors_table((*a.concrete_factors, *a.steel_factors), units)]

@@ -24,7 +24,14 @@ from clausewise.core import (
 )
 from clausewise.provisions.answers import MaterialModel, Parameters, Resistance
 from clausewise.provisions.beam import Beam, Context, UnitSystem
-from clausewise.provisions.registry import Edition, EditionError, Registry, default_registry
+from clausewise.provisions.registry import (
+    Edition,
+    EditionError,
+    Registry,
+    TopicAnswer,
+    answers_trail,
+    default_registry,
+)
 from clausewise.provisions.verdicts import (  # noqa: F401 (re-exported)
     CAUTION,
     ERROR,
@@ -229,6 +236,7 @@ class Assessment:
     concrete_law: Any = None  # the core law solved (for figures and further study)
     section: SectionView | None = None
     caution: str = CAUTION
+    topics: tuple[TopicAnswer, ...] = ()  # which layer answered each hook, which wrapped it
 
     @property
     def all_checks(self) -> tuple[Check, ...]:
@@ -291,7 +299,8 @@ def assess(beam: Beam, edition: str | Edition, *, form: str | None = None,
     if isinstance(edition, str):
         edition = (registry or default_registry()).edition(edition)
     chosen, basis = resolve_form(edition, beam, form)
-    ev = evaluate(beam, edition, Context(form=chosen, situation=situation))
+    with answers_trail() as trail:
+        ev = evaluate(beam, edition, Context(form=chosen, situation=situation))
     return Assessment(
         beam=beam, edition_id=edition.id, edition_title=edition.info.title,
         stack=_stack(edition), form=chosen, form_basis=basis,
@@ -302,7 +311,7 @@ def assess(beam: Beam, edition: str | Edition, *, form: str | None = None,
         response=ev.response, resistance=ev.resistance,
         design_resistance=ev.design_resistance, demand=ev.demand, checks=ev.checks,
         situation=situation, concrete_law=ev.concrete.law if ev.concrete else None,
-        section=ev.section,
+        section=ev.section, topics=tuple(trail.values()),
     )
 
 

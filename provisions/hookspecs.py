@@ -270,8 +270,8 @@ def design_actions(beam: Beam, params: Parameters, context: Context) -> Envelope
 
 # --- reinforcement limits ------------------------------------------------------------
 
-def minimum_reinforcement(beam: Beam, section: SectionView, response: SolvedSection, demand: Envelope | None,
-                          resistance: Resistance, params: Parameters,
+def minimum_reinforcement(beam: Beam, section: SectionView, response: SolvedSection,
+                          demand: Envelope | None, resistance: Resistance, params: Parameters,
                           context: Context) -> Sequence[Check]:
     """Return the minimum-reinforcement checks (steel area mm², or strength N·mm).
 

@@ -18,6 +18,7 @@ from collections.abc import Callable, Iterator, Sequence
 from contextlib import contextmanager
 from contextvars import ContextVar
 from dataclasses import dataclass, field, replace
+from functools import partial
 from typing import Any
 
 import pluggy
@@ -340,9 +341,9 @@ class Edition:
         wrapped: tuple[str, ...] = ()
         try:
             below, answered, wrapped = self._fold(spec, i - 1, kwargs)
-            resume: Callable[[], Any] = lambda: generator.send(below)  # noqa: E731
+            resume: Callable[[], Any] = partial(generator.send, below)
         except Exception as exc:
-            resume = lambda: generator.throw(exc)  # noqa: E731
+            resume = partial(generator.throw, exc)
         try:
             self._run(spec, step, [], resume)
         except StopIteration as stop:
@@ -391,7 +392,10 @@ class Edition:
     def parameters(self, context: Context) -> Parameters:
         """Named parameters after layering (they do not depend on the beam, so each
         context is asked once)."""
+        trail = _TRAIL.get()
         if context in self._parameters:
+            if trail is not None:  # asked once, recorded in every assessment
+                trail["edition_parameters"] = self.layering("edition_parameters")
             return self._parameters[context]
         merged: dict[str, Parameter] = {}
         for parameter in self.ask("edition_parameters", context=context):

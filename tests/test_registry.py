@@ -31,8 +31,8 @@ from clausewise.provisions import (
     assess,
     default_registry,
     hookimpl,
+    hookspecs,
 )
-from clausewise.provisions import hookspecs
 from clausewise.provisions import registry as registry_module
 from clausewise.provisions.registry import answers_trail
 

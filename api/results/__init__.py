@@ -15,6 +15,7 @@ from clausewise.results.records import (
     parameters_document,
     problem_record,
     record,
+    topics_document,
 )
 from clausewise.results.running import Outcome, run
 from clausewise.results.schema import results_schema
@@ -25,9 +26,10 @@ from clausewise.results.writers import (
     to_csv,
     to_json,
     to_toml,
+    topics_csv,
 )
 
 __all__ = ["UNITS", "Outcome", "Units", "convert", "csv_row", "document", "editions_csv",
            "editions_document", "number", "parameters_csv", "parameters_document",
            "problem_record", "record", "results_schema", "run", "to_csv", "to_json", "to_toml",
-           "write_atomic"]
+           "topics_csv", "topics_document", "write_atomic"]

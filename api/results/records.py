@@ -8,6 +8,7 @@ from typing import TYPE_CHECKING, Any
 
 from clausewise.provisions import CAUTION, Assessment, Check, Clause, Envelope, Factor
 from clausewise.provisions.verdicts import ERROR
+from clausewise.provisions.widths import OverhangEnvelope
 from clausewise.results.display import UNITS, convert
 
 if TYPE_CHECKING:
@@ -50,7 +51,15 @@ def _envelope(envelope: Envelope) -> dict[str, Any]:
              "excess": _si(envelope.excess(c), envelope.unit)[0],
              "governs": i == envelope.governing, "clause": _clause(c.clause)}
             for i, c in enumerate(envelope.candidates)],
-    }
+    } | _overhangs(envelope)
+
+
+def _overhangs(envelope: Envelope) -> dict[str, Any]:
+    """Per slab side, the overhang and the rule that governs it (per-side width rules)."""
+    if not isinstance(envelope, OverhangEnvelope):
+        return {}
+    return {"overhangs": [{"side": o.side, "width": _si(o.width, "mm")[0], "rule": o.rule.label,
+                           "clause": _clause(o.clause)} for o in envelope.overhangs]}
 
 
 def _check(check: Check) -> dict[str, Any]:
@@ -123,6 +132,8 @@ def record(outcome: Outcome) -> dict[str, Any]:
         "parameters": [{"name": p.name, "value": p.value, "unit": p.unit,
                         "description": p.description, "supplier": p.clause.edition,
                         "clause": _clause(p.clause)} for p in a.parameters],
+        "topics": [{"hook": t.hook, "answered_by": list(t.answered_by),
+                    "wrapped_by": list(t.wrapped_by)} for t in a.topics],
     }
 
 
@@ -178,3 +189,14 @@ def parameters_document(edition: Edition, form: str) -> dict[str, Any]:
             row["choices"] = list(p.choices)
         rows.append(row)
     return {"caution": CAUTION, "edition": edition.id, "form": form, "parameters": rows}
+
+
+def topics_document(edition: Edition) -> dict[str, Any]:
+    """Which layer of an edition's stack answers each hook as installed, and which wrap it."""
+    from clausewise.provisions.hookspecs import HOOKS
+
+    return {"caution": CAUTION, "edition": edition.id,
+            "layers": [r.info.id for r in edition.layers if r.info],
+            "topics": [{"hook": t.hook, "answered_by": list(t.answered_by),
+                        "wrapped_by": list(t.wrapped_by)}
+                       for t in (edition.layering(h.name) for h in HOOKS)]}

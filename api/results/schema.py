@@ -30,6 +30,9 @@ _ENVELOPE = _obj({
     "candidates": {"type": "array", "minItems": 1, "items": _obj(
         {"label": _STR, "value": _NUM, "excess": _NUM, "governs": {"type": "boolean"},
          "clause": _CLAUSE}, ("label", "value", "governs", "clause"))},
+    "overhangs": {"type": "array", "items": _obj(
+        {"side": _STR, "width": _NUM, "rule": _STR, "clause": _CLAUSE},
+        ("side", "width", "rule", "clause"))},
 }, ("name", "value", "governing", "candidates"))
 
 
@@ -72,6 +75,10 @@ def results_schema() -> dict[str, Any]:
             {"name": _STR, "value": {"type": ["number", "string"]}, "unit": _STR,
              "description": _STR, "supplier": _STR, "clause": _CLAUSE},
             ("name", "value", "supplier", "clause"))},
+        "topics": {"type": "array", "items": _obj(
+            {"hook": _STR, "answered_by": {"type": "array", "items": _STR},
+             "wrapped_by": {"type": "array", "items": _STR}},
+            ("hook", "answered_by", "wrapped_by"))},
     }, ("beam", "edition", "situation", "status", "caution", "inputs"))
     result["if"] = {"properties": {"status": {"const": ERROR}}}
     result["then"] = {"required": ["error"]}

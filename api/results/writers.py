@@ -108,3 +108,13 @@ def editions_csv(data: dict[str, Any]) -> str:
     return out.getvalue()
 
 
+
+
+def topics_csv(data: dict[str, Any]) -> str:
+    out = io.StringIO()
+    writer = csv.writer(out, lineterminator="\n")
+    writer.writerow([f"# {data['caution']}"])
+    writer.writerow(["hook", "answered_by", "wrapped_by"])
+    for t in data["topics"]:
+        writer.writerow([t["hook"], " ".join(t["answered_by"]), " ".join(t["wrapped_by"])])
+    return out.getvalue()
