@@ -200,7 +200,7 @@ slab_thickness = "120 mm"
 concrete_strength = "30 MPa"
 yield_strength = "500 MPa"
 tension = [{ area = "1800 mm2", depth = "540 mm" }]
-floor = { span = "7500 mm", continuity = "interior", clear_left = "1000 mm", clear_right = "3000 mm" }
+floor = {span = "7500 mm", continuity = "interior", clear_left = "1000 mm", clear_right = "3000 mm"}
 moments = { dead = "150 kN m", live = "80 kN m" }
 """
 
