@@ -1,5 +1,5 @@
 """The conformance kit from the command line: ``python -m clausewise.conformance [ID...]
-[--annex FILE]``. The kit itself (its properties and ``assert_conforms`` for pytest) is
+[--annex FILE] [--verbose]``. The kit itself (its properties and ``assert_conforms`` for pytest) is
 ``clausewise.provisions.testing``; this entry adds parameter files, which belong to the
 application."""
 
@@ -9,13 +9,12 @@ from collections.abc import Sequence
 
 from clausewise.annexfile import load_annex
 from clausewise.provisions import CAUTION, ClausewiseError, default_registry
-from clausewise.provisions.testing import PROPERTIES, check_edition
+from clausewise.provisions.testing import PROPERTIES, check_properties
 
 
 def main(argv: Sequence[str] | None = None) -> int:
     """Check editions from the command line: 0 conforms, 1 findings, 2 bad arguments."""
     import argparse
-
 
     parser = argparse.ArgumentParser(
         prog="python -m clausewise.conformance",
@@ -24,6 +23,8 @@ def main(argv: Sequence[str] | None = None) -> int:
                         help="edition ids (default: every installed edition)")
     parser.add_argument("--annex", action="append", default=[], metavar="FILE",
                         help="a parameter file to load and check (repeatable)")
+    parser.add_argument("-v", "--verbose", action="store_true",
+                        help="print every property and its outcome, not only the findings")
     args = parser.parse_args(argv)
     registry = default_registry()
     ids = list(args.editions)
@@ -35,13 +36,19 @@ def main(argv: Sequence[str] | None = None) -> int:
         return 2
     total = 0
     for edition in editions:
-        findings = check_edition(edition)
+        outcomes = check_properties(edition)
+        findings = [f for _, found in outcomes for f in found]
         total += len(findings)
         verdict = "conforms" if not findings else f"{len(findings)} finding(s)"
-        print(f"{edition.id}: {verdict} ({len(PROPERTIES)} properties)")
-        for finding in findings:
-            print(f"  - {finding.property}{f' [{finding.beam}]' if finding.beam else ''}: "
-                  f"{finding.message}")
+        layers = " < ".join(r.info.id for r in edition.layers if r.info)
+        print(f"{edition.id}: {verdict} ({len(PROPERTIES)} properties; layers {layers})")
+        for name, found in outcomes:
+            if args.verbose:
+                print(f"  {'ok  ' if not found else 'FAIL'} {name}"
+                      + (f" ({len(found)} finding(s))" if found else ""))
+            for finding in found:
+                print(f"  - {finding.property}{f' [{finding.beam}]' if finding.beam else ''}: "
+                      f"{finding.message}")
     for record in registry.broken:
         print(f"broken plugin {record.name} ({record.source}): {record.error}")
     print(CAUTION)

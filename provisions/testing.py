@@ -2,9 +2,9 @@
 
 Run it on installed editions (or on a parameter file) from a shell::
 
-    python -m clausewise.provisions.testing xb-na:2024
-    python -m clausewise.provisions.testing --annex my-annex.toml
-    python -m clausewise.provisions.testing            # every installed edition
+    python -m clausewise.conformance xb-na:2024
+    python -m clausewise.conformance --annex my-annex.toml
+    python -m clausewise.conformance --verbose         # every installed edition, each property
 
 or from pytest, one test per property::
 
@@ -19,7 +19,10 @@ The beams are a fixed grid of realistic beams (interior and edge T and L beams,
 a flange of given width, hogging over a support, two tension layers, a doubly
 reinforced rectangle; three steel ratios) at strengths that lie inside the
 edition's own applicability. Each property returns the findings it has, an
-empty list when the edition conforms.
+empty list when the edition conforms. An edition layered over a base (a national
+annex, a firm's rules, a wrapping edition) is also checked to leave the stack
+below it as it was: the base assessed alone gives the same results whether or not
+the upper layer is installed and has been used.
 """
 
 from __future__ import annotations
@@ -53,7 +56,7 @@ from clausewise.provisions.engine import (
     resolve_form,
 )
 from clausewise.provisions.hookspecs import TOPICS
-from clausewise.provisions.registry import Edition, Registry, default_registry
+from clausewise.provisions.registry import Edition, Registry, answers_trail, default_registry
 from clausewise.provisions.vocabulary import Check, Clause
 
 FORM_TOLERANCE = 0.01
@@ -216,7 +219,8 @@ def _close(a: Any, b: Any, rel: float) -> bool:
 # --- the properties ----------------------------------------------------------------------
 
 def hook_contract(sample: Sample) -> list[Finding]:
-    """The base edition answers every topic; each answer has the type its hook promises."""
+    """The base edition implements every topic, the whole stack answers every topic it is
+    asked, and each answer has the type its hook promises."""
     edition, name = sample.edition, "hook contract"
     base = edition.layers[0].info
     assert base is not None
@@ -225,11 +229,14 @@ def hook_contract(sample: Sample) -> list[Finding]:
     for group in sample.by_kind.values():
         beam = group[0]
         try:
-            ev = evaluate(beam, edition, _context(edition, beam))
+            with answers_trail() as trail:
+                ev = evaluate(beam, edition, _context(edition, beam))
         except Exception as exc:
             found.append(_raised(sample, name, beam, exc))
             continue
         missing = [what for what, answer in _answers(beam, ev) if answer is None]
+        missing += [f"{topic} (no layer answered)" for topic in TOPICS
+                    if topic in trail and not trail[topic].answered_by]
         if not ev.applicability:
             missing.append("applicability (no scope checks)")
         if missing:
@@ -502,27 +509,68 @@ def _evaluation_results(ev: Evaluation) -> list[tuple[str, Any]]:
     return [(w, v) for w, v in out if v is not None] + _check_values(ev.checks)
 
 
+def base_unchanged(sample: Sample) -> list[Finding]:
+    """The stack below the edition, assessed alone, gives the same results before and
+    after the edition is used, and names no upper layer: a layer that wraps or replaces
+    a topic changes its own stack only."""
+    edition, name = sample.edition, "base unchanged"
+    if len(edition.layers) < 2:
+        return []
+    below = edition.layers[:-1]
+    top = edition.layers[-1].info.id  # type: ignore[union-attr]
+    found = []
+    for beam in (group[0] for group in sample.by_kind.values()):
+        try:
+            before = assess(beam, Edition(below))
+            sample.assessed(beam)  # the upper layer at work
+            after = assess(beam, Edition(below))
+        except Exception as exc:
+            found.append(_raised(sample, name, beam, exc))
+            continue
+        for (what, one), (_, two) in zip(_results(before) + _check_values(before.checks),
+                                         _results(after) + _check_values(after.checks),
+                                         strict=False):
+            if not _close(one, two, 0.0):
+                found.append(_finding(sample, name, f"{what} of the base alone: {one!r} "
+                                      f"before, {two!r} after {top} was used", beam))
+        named = [t.hook for t in after.topics if top in (*t.answered_by, *t.wrapped_by)]
+        if named:
+            found.append(_finding(sample, name, f"the base alone is answered by {top} for "
+                                  f"{', '.join(named)}", beam))
+    return found
+
+
 PROPERTIES: tuple[Property, ...] = (
     hook_contract, parameters_declared, resistance_factor_in_range,
     effective_width_within_flange, capacity_grows_with_steel, clauses_complete,
-    scope_refuses_extrapolation, unit_system_neutral, batch_matches_single,
+    scope_refuses_extrapolation, unit_system_neutral, batch_matches_single, base_unchanged,
 )
 """Every property of the kit, in the order they are reported (parametrize over it)."""
 
 
 # --- entry points ------------------------------------------------------------------------
 
-def check_edition(edition: str | Edition, registry: Registry | None = None,
-                  properties: Sequence[Property] = PROPERTIES) -> list[Finding]:
-    """Every finding of ``properties`` on ``edition`` (an id or an Edition); [] conforms."""
+def check_properties(edition: str | Edition, registry: Registry | None = None,
+                     properties: Sequence[Property] = PROPERTIES
+                     ) -> list[tuple[str, list[Finding]]]:
+    """Each property's name and findings on ``edition`` (an id or an Edition), in order;
+    a property that needs realistic beams when none lies in scope is reported under
+    "realistic beams" and left out."""
     if isinstance(edition, str):
         edition = (registry or default_registry()).edition(edition)
     sample = Sample(edition)
     if sample.problem:  # no realistic beam to try: say why, and check what needs none
-        found = [_finding(sample, "realistic beams", sample.problem)]
-        return found + [f for prop in properties if prop is parameters_declared
-                        for f in _guarded(prop, sample)]
-    return [finding for prop in properties for finding in _guarded(prop, sample)]
+        return [("realistic beams", [_finding(sample, "realistic beams", sample.problem)])] + [
+            (prop.__name__, _guarded(prop, sample)) for prop in properties
+            if prop is parameters_declared]
+    return [(prop.__name__, _guarded(prop, sample)) for prop in properties]
+
+
+def check_edition(edition: str | Edition, registry: Registry | None = None,
+                  properties: Sequence[Property] = PROPERTIES) -> list[Finding]:
+    """Every finding of ``properties`` on ``edition`` (an id or an Edition); [] conforms."""
+    return [finding for _, found in check_properties(edition, registry, properties)
+            for finding in found]
 
 
 def _guarded(prop: Property, sample: Sample) -> list[Finding]:

@@ -35,6 +35,7 @@ from clausewise.provisions.testing import (
     PROPERTIES,
     Sample,
     assert_conforms,
+    base_unchanged,
     batch_matches_single,
     capacity_grows_with_steel,
     check_edition,
@@ -302,6 +303,49 @@ def test_check_edition_and_assert_conforms_report_findings():
         assert_conforms(edition, properties=[resistance_factor_in_range])
 
 
+class Meddler:
+    """Wraps the width, and while it runs rewrites a function of its base's module."""
+
+    info, clause = faulty("base", forms=None, extends="en1992-1-1:2004")
+    patch = None
+
+    @hookimpl
+    def edition_info(self):
+        return self.info
+
+    @hookimpl(wrapper=True)
+    def effective_flange_width(self):
+        answer = yield
+        self.patch()
+        return answer
+
+
+def test_kit_catches_a_layer_that_changes_its_base(monkeypatch):
+    import importlib
+
+    base = importlib.import_module("clausewise.plugins.en1992_1_1_2004")  # the test's probe
+    meddler = Meddler()
+    meddler.patch = lambda: monkeypatch.setattr(base, "zero_moment_distance",
+                                                lambda beam, layout: (1000.0, "l0 meddled"))
+    edition = layered(meddler, base="en1992-1-1:2004")
+    findings = check_edition(edition, properties=[base_unchanged])
+    assert findings and all(f.property == "base unchanged" for f in findings)
+    assert any("effective width of the base alone" in f.message and "after faulty-base"
+               in f.message for f in findings)
+
+
+def test_kit_finds_a_wrapping_edition_leaves_its_base_alone():
+    if "en1992-1-1:2004" not in EDITIONS:
+        pytest.skip("edition en1992-1-1:2004 is not installed")
+    import importlib.util
+
+    source = ROOT / "fixtures/local-editions/local_editions/fennick_beams.py"
+    spec = importlib.util.spec_from_file_location("fennick_beams_kit", source)
+    module = importlib.util.module_from_spec(spec)
+    spec.loader.exec_module(module)
+    assert check_edition(layered(module, base="en1992-1-1:2004")) == []
+
+
 # --- the command an author runs ------------------------------------------------------------
 
 def run_kit(*args):
@@ -319,3 +363,13 @@ def test_command_line_checks_a_parameter_file_and_refuses_unknown_ids():
     assert "engineer of record" in done.stdout
     unknown = run_kit("aci318-99")
     assert unknown.returncode == 2 and "unknown edition 'aci318-99'" in unknown.stdout
+
+
+def test_command_line_verbose_prints_every_property_and_its_outcome():
+    edition_id = next(iter(sorted(EDITIONS)))
+    done = run_kit("--verbose", edition_id)
+    assert done.returncode == 0, done.stdout + done.stderr
+    for prop in PROPERTIES:
+        assert f"ok   {prop.__name__}" in done.stdout
+    quiet = run_kit(edition_id)
+    assert "ok   hook_contract" not in quiet.stdout and f"{edition_id}: conforms" in quiet.stdout
