@@ -22,6 +22,7 @@ PACKAGE = FIXTURE / "local_editions"
 GUIDE = ROOT / "DEVELOPERS.md"
 GROUP = "clausewise.editions"
 ANNEX, FIRM = "xb-na:2024", "tarnwick-beams:2025"
+WRAPPER = "fennick-lyle-beams:2025"
 EN, ACI = "en1992-1-1:2004", "aci318-19"
 
 
@@ -70,9 +71,12 @@ def installed(tmp_path_factory):
     if not installed_copy_is_current():
         copy = tmp_path_factory.mktemp("build") / FIXTURE.name
         shutil.copytree(FIXTURE, copy, ignore=shutil.ignore_patterns("build", "*.egg-info"))
-        done = subprocess.run(
-            [sys.executable, "-m", "pip", "install", "-q", "--no-deps", "--no-build-isolation",
-             str(copy)], capture_output=True, text=True, timeout=300)
+        pip = [sys.executable, "-m", "pip", "install", "-q", "--no-deps"]
+        done = subprocess.run([*pip, "--no-build-isolation", str(copy)], capture_output=True,
+                              text=True, timeout=300)
+        if done.returncode != 0:  # the environment's setuptools is older than the build needs
+            done = subprocess.run([*pip, str(copy)], capture_output=True, text=True,
+                                  timeout=300)
         assert done.returncode == 0, done.stdout + done.stderr
         assert installed_copy_is_current()
 
@@ -107,6 +111,18 @@ if {"tarnwick-beams:2025", "aci318-19"} <= ids:
         rect = Beam(label, Shape.RECTANGLE, Bending.SAGGING, 300.0, 600.0, 28.0, 420.0,
                     (Layer(area, 540.0),), actions=Actions(dead=100e6, live=60e6))
         out[label] = {e: record(assess(rect, e)) for e in ("tarnwick-beams:2025", "aci318-19")}
+if {"fennick-lyle-beams:2025", "en1992-1-1:2004"} <= ids:
+    unequal = Beam("unequal sides", Shape.TEE, Bending.SAGGING, 300.0, 600.0, 30.0, 500.0,
+                   (Layer(1800.0, 540.0),), flange_thickness=120.0,
+                   layout=FloorLayout(7500.0, Continuity.INTERIOR, clear_left=1000.0,
+                                      clear_right=3000.0), actions=Actions(dead=150e6, live=80e6))
+    out["wrapper"] = {}
+    for e in ("fennick-lyle-beams:2025", "en1992-1-1:2004"):
+        a = assess(unequal, e)
+        out["wrapper"][e] = record(a) | {
+            "sides": [[o.side, o.width, o.clause.edition, o.clause.ref]
+                      for o in a.effective_width.overhangs],
+            "topics": {t.hook: [list(t.answered_by), list(t.wrapped_by)] for t in a.topics}}
 print(json.dumps(out))
 """
 
@@ -210,6 +226,21 @@ def test_firm_check_caps_the_steel_ratio(result):
     assert "tension steel ratio" not in {c["name"] for c in result["heavy"][ACI]["checks"]}
 
 
+def test_wrapping_firm_edition_limits_each_overhang_by_its_own_least_limit(result):
+    both = needs(result, "wrapper", WRAPPER, EN)
+    assert result["editions"][WRAPPER]["layers"] == [EN, WRAPPER]
+    # EN 1992-1-1 5.3.2.1(3), l0 = 0.7 l = 5250 mm (from memory): left bi = 500 governs;
+    # right min(0.2·1500 + 525, 1050, 1500) = 825, and 6 hf = 720 under the house rule
+    # (each overhang the least of its own limits, common practice)
+    assert both[EN]["b_eff"] == pytest.approx(300 + 500 + 825)
+    assert both[WRAPPER]["b_eff"] == pytest.approx(300 + 500 + 720)
+    assert both[WRAPPER]["sides"] == [["left", 500.0, EN, "5.3.2.1(3)"],
+                                      ["right", 720.0, WRAPPER, "FL-3"]]
+    assert both[WRAPPER]["topics"]["effective_flange_width"] == [[EN], [WRAPPER]]
+    assert both[EN]["topics"]["effective_flange_width"] == [[EN], []]
+    assert both[WRAPPER]["suppliers"]["overhang_hf_multiple"] == WRAPPER
+
+
 def test_only_switch_loads_the_named_edition_and_its_base(installed):
     listed = python("import clausewise; print(' '.join(e.id for e in clausewise.editions()))",
                     CLAUSEWISE_EDITIONS=FIRM).split()
@@ -233,6 +264,7 @@ def test_guide_quotes_the_fixture_files_verbatim():
     assert {"fixtures/local-editions/pyproject.toml",
             "fixtures/local-editions/local_editions/brennmark_na.py",
             "fixtures/local-editions/local_editions/tarnwick_beams.py",
+            "fixtures/local-editions/local_editions/fennick_beams.py",
             "fixtures/annexes/lornholm-na-2023.toml"} <= quoted
     for path, body in blocks:
         text = (ROOT / path).read_text(encoding="utf-8")
