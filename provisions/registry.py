@@ -213,19 +213,20 @@ class TopicAnswer:
     wrapped_by: tuple[str, ...] = ()
 
 
-_TRAIL: ContextVar[dict[str, TopicAnswer] | None] = ContextVar("clausewise_trail", default=None)
+_TRAILS: ContextVar[tuple[dict[str, TopicAnswer], ...]] = ContextVar("clausewise_trails",
+                                                                       default=())
 
 
 @contextmanager
 def answers_trail() -> Iterator[dict[str, TopicAnswer]]:
     """Record, by hook, which layer answered and which wrapped, for the hooks called
-    inside the block (the engine uses it for the audit)."""
+    inside the block (the engine uses it for the audit); blocks may nest."""
     trail: dict[str, TopicAnswer] = {}
-    token = _TRAIL.set(trail)
+    token = _TRAILS.set((*_TRAILS.get(), trail))
     try:
         yield trail
     finally:
-        _TRAIL.reset(token)
+        _TRAILS.reset(token)
 
 
 @dataclass(frozen=True)
@@ -302,8 +303,7 @@ class Edition:
         if value is None and spec.many:
             value = []
         self._check(spec, "the stack", value)
-        trail = _TRAIL.get()
-        if trail is not None:
+        for trail in _TRAILS.get():
             trail[hook] = TopicAnswer(hook, answered, wrapped)
         return value
 
@@ -375,11 +375,10 @@ class Edition:
                 return
             raise PluginError(f"edition {self.id!r}: no layer answers the hook {spec.name} "
                               f"(expected {spec.returns_text.replace('`', '')})")
-        items = value if spec.many else (value,)
         if spec.many and (isinstance(value, str | bytes) or not isinstance(value, Sequence)):
-            items = (value,)
-            bad: Any = value
+            bad: Any = value  # a list hook answered with something that is not a list
         else:
+            items = value if spec.many else (value,)
             bad = next((v for v in items if not isinstance(v, spec.returns)), None)
             if bad is None:
                 return
@@ -392,9 +391,8 @@ class Edition:
     def parameters(self, context: Context) -> Parameters:
         """Named parameters after layering (they do not depend on the beam, so each
         context is asked once)."""
-        trail = _TRAIL.get()
         if context in self._parameters:
-            if trail is not None:  # asked once, recorded in every assessment
+            for trail in _TRAILS.get():  # asked once, recorded in every assessment
                 trail["edition_parameters"] = self.layering("edition_parameters")
             return self._parameters[context]
         merged: dict[str, Parameter] = {}
