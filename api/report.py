@@ -19,7 +19,7 @@ from rich.table import Table
 from rich.text import Text
 
 from clausewise.provisions.engine import CAUTION, FAIL, PASS, Assessment
-from clausewise.provisions.hookspecs import HOOKS
+from clausewise.provisions.hookspecs import HOOKS, TOPICS
 from clausewise.provisions.registry import TopicAnswer
 from clausewise.provisions.verdicts import ERROR
 from clausewise.provisions.vocabulary import Check, Clause, Envelope, Factor, Sense
@@ -30,7 +30,7 @@ if TYPE_CHECKING:
     from pathlib import Path
 
     from clausewise.beamfile import InputProblem, Schedule
-    from clausewise.provisions.registry import Edition, Registry
+    from clausewise.provisions.registry import Edition, PluginRecord, Registry
     from clausewise.stream import Summary as BatchSummary
 
 STATUS_STYLE = {PASS: "bold green", FAIL: "bold red", ERROR: "bold magenta"}
@@ -479,9 +479,12 @@ def editions_report(registry: Registry) -> Group:
                   box=box.SIMPLE_HEAD)
     for column in ("id", "title", "year", "extends", "forms", "distribution", "version"):
         table.add_column(column)
+    table.columns[1].overflow = "fold"  # the title, and under it what the layer answers
+    table.columns[0].min_width = max((len(i) for i in registry.ids()), default=2)
     for r in registry.records:
         if r.ok and r.info:
-            _row(table, Text(r.info.id, style="bold"), r.info.title, str(r.info.year),
+            _row(table, Text(r.info.id, style="bold"),
+                 two_lines(r.info.title, _own_topics(registry, r)), str(r.info.year),
                  r.info.extends or "", ", ".join(registry.forms(r)), r.distribution,
                  r.version)
     parts: list[RenderableType] = [table]
@@ -505,6 +508,20 @@ def editions_report(registry: Registry) -> Group:
         parts.append(stuck)
     parts.append(caution())
     return Group(*parts)
+
+
+def _own_topics(registry: Registry, record: PluginRecord) -> str:
+    """What a layer answers or wraps itself (``editions ID`` shows the whole stack)."""
+    from clausewise.provisions.registry import EditionError
+
+    try:
+        own = registry.edition(record.info.id).contributions()  # type: ignore[union-attr]
+    except EditionError:
+        return ""
+    if not record.info.extends:  # type: ignore[union-attr]
+        return "every topic" if len(own) >= len(TOPICS) else f"{len(own)} topics"
+    words = [f"{how} {hook}" for hook, how in own.items()]
+    return "; ".join(words) or "parameters only"
 
 
 def parameters_report(edition: Edition, form: str) -> Group:

@@ -447,6 +447,19 @@ class Edition:
         """Which layers implement a hook, topmost first (replacing or wrapping)."""
         return [step.layer for step in reversed(self._steps[hook])]
 
+    def contributions(self) -> dict[str, str]:
+        """What the top layer itself does, by hook: "answers" or "wraps" (identity and
+        parameters left out), for the listing of editions."""
+        top = self.id
+        found = {}
+        for hook in hookspecs.HOOKS:
+            if hook.name in ("edition_info", "edition_parameters"):
+                continue
+            for step in self._steps[hook.name]:
+                if step.layer == top:
+                    found[hook.name] = "wraps" if step.wrapper else "answers"
+        return found
+
     def layering(self, hook: str) -> TopicAnswer:
         """Who answers ``hook`` as installed: the topmost layer that replaces it (every
         layer that implements it, for a hook of every layer) and the layers above that

@@ -60,3 +60,41 @@ def test_a_stack_that_breaks_its_base_contract_is_listed_and_strict_fails(monkey
 def test_the_kit_reports_such_a_stack_instead_of_failing():
     findings = check_edition(FIRM.id, with_too_bold())
     assert findings and all("phi_c = 0.45" in f.message for f in findings)
+
+
+def with_wrapping_firm() -> Registry:
+    import importlib.util
+    from pathlib import Path
+
+    source = (Path(__file__).resolve().parents[1]
+              / "fixtures/local-editions/local_editions/fennick_beams.py")
+    spec = importlib.util.spec_from_file_location("fennick_beams_listing", source)
+    module = importlib.util.module_from_spec(spec)
+    spec.loader.exec_module(module)
+    registry = Registry(only=frozenset({"en1992-1-1:2004"}))
+    registry.load_entry_points()
+    registry.register(module)
+    return registry
+
+
+def test_editions_id_shows_which_layer_answers_each_topic(monkeypatch, capsys):
+    from clausewise.provisions.hookspecs import HOOKS
+
+    monkeypatch.setattr(registry_module, "default_registry", with_wrapping_firm)
+    firm, base = "fennick-beams:2025", "en1992-1-1:2004"
+    assert main(["editions", firm, "--format", "json"]) == 0
+    doc = json.loads(capsys.readouterr().out)
+    assert doc["layers"] == [base, firm] and "licensed engineer" in doc["caution"]
+    topics = {t["hook"]: t for t in doc["topics"]}
+    assert list(topics) == [h.name for h in HOOKS]
+    assert topics["effective_flange_width"] == {"hook": "effective_flange_width",
+                                                "answered_by": [base], "wrapped_by": [firm]}
+    assert topics["concrete_law"]["answered_by"] == [base]
+    assert topics["concrete_law"]["wrapped_by"] == []
+    assert main(["editions", firm]) == 0
+    text = " ".join(capsys.readouterr().out.split())
+    assert f"effective_flange_width {base} {firm}" in text
+    assert main(["editions", "--format", "json"]) == 0
+    listed = {e["id"]: e for e in json.loads(capsys.readouterr().out)["editions"]}
+    assert listed[firm]["own_topics"] == {"effective_flange_width": "wraps"}
+    assert len(listed[base]["own_topics"]) >= 8

@@ -22,7 +22,7 @@ PACKAGE = FIXTURE / "local_editions"
 GUIDE = ROOT / "DEVELOPERS.md"
 GROUP = "clausewise.editions"
 ANNEX, FIRM = "xb-na:2024", "tarnwick-beams:2025"
-WRAPPER = "fennick-lyle-beams:2025"
+WRAPPER = "fennick-beams:2025"
 EN, ACI = "en1992-1-1:2004", "aci318-19"
 
 
@@ -111,13 +111,13 @@ if {"tarnwick-beams:2025", "aci318-19"} <= ids:
         rect = Beam(label, Shape.RECTANGLE, Bending.SAGGING, 300.0, 600.0, 28.0, 420.0,
                     (Layer(area, 540.0),), actions=Actions(dead=100e6, live=60e6))
         out[label] = {e: record(assess(rect, e)) for e in ("tarnwick-beams:2025", "aci318-19")}
-if {"fennick-lyle-beams:2025", "en1992-1-1:2004"} <= ids:
+if {"fennick-beams:2025", "en1992-1-1:2004"} <= ids:
     unequal = Beam("unequal sides", Shape.TEE, Bending.SAGGING, 300.0, 600.0, 30.0, 500.0,
                    (Layer(1800.0, 540.0),), flange_thickness=120.0,
                    layout=FloorLayout(7500.0, Continuity.INTERIOR, clear_left=1000.0,
                                       clear_right=3000.0), actions=Actions(dead=150e6, live=80e6))
     out["wrapper"] = {}
-    for e in ("fennick-lyle-beams:2025", "en1992-1-1:2004"):
+    for e in ("fennick-beams:2025", "en1992-1-1:2004"):
         a = assess(unequal, e)
         out["wrapper"][e] = record(a) | {
             "sides": [[o.side, o.width, o.clause.edition, o.clause.ref]

@@ -48,7 +48,7 @@ from clausewise.results import record, run, to_json
 
 ROOT = Path(__file__).resolve().parents[1]
 SOURCE = ROOT / "fixtures/local-editions/local_editions/fennick_beams.py"
-EN, FIRM = "en1992-1-1:2004", "fennick-lyle-beams:2025"
+EN, FIRM = "en1992-1-1:2004", "fennick-beams:2025"
 
 
 def firm_module():
@@ -123,7 +123,7 @@ def test_the_audit_cites_each_side_by_the_rule_that_governs_it(both):
     governing = width.governing_candidate
     assert governing.label == SEPARATE
     assert FIRM in governing.clause.edition and "FL-3" in governing.clause.ref
-    assert "right 720 mm by 6 hf (fennick-lyle-beams:2025 FL-3)" in governing.basis
+    assert "right 720 mm by 6 hf (fennick-beams:2025 FL-3)" in governing.basis
     # the base's own rules are all still candidates, not restated by the firm
     base = assess(unequal_tee(), EN, registry=both).effective_width
     assert [c.label for c in base.candidates if c.label != SEPARATE] == [

@@ -165,13 +165,23 @@ def editions_document(registry: Registry) -> dict[str, Any]:
         "editions": [{"id": r.info.id, "title": r.info.title, "year": r.info.year,
                       "extends": r.info.extends, "forms": list(registry.forms(r)),
                       "distribution": r.distribution, "version": r.version,
-                      "source": r.source}
+                      "source": r.source, "own_topics": _own_topics(registry, r.info.id)}
                      for r in registry.records if r.ok and r.info],
         "broken": [{"name": r.name, "source": r.source, "distribution": r.distribution,
                     "version": r.version, "error": r.error} for r in registry.broken]
         + [{"name": edition_id, "source": "edition stack", "distribution": "", "version": "",
             "error": why} for edition_id, why in registry.unusable().items()],
     }
+
+
+def _own_topics(registry: Registry, edition_id: str) -> dict[str, str]:
+    """What a layer answers or wraps itself, by hook (empty where its stack is broken)."""
+    from clausewise.provisions import EditionError
+
+    try:
+        return registry.edition(edition_id).contributions()
+    except EditionError:
+        return {}
 
 
 def parameters_document(edition: Edition, form: str) -> dict[str, Any]:
