@@ -220,6 +220,13 @@ def effective_flange_width(beam: Beam, params: Parameters, context: Context) -> 
     hogging the flange is in tension and the width serves minimum steel only.
     Each candidate is a total width including the web, e.g.
     ``Candidate("16 hf + bw", 16 * hf + bw, clause)``.
+
+    Where the standard limits each overhang, give per-side rules to
+    ``widths.overhang_envelope(beam, [OverhangRule(...), ...])``: each side then takes
+    the least of its own limits and the audit names, per side, the rule that governed.
+    To add a limit over a base, wrap this hook and return
+    ``widths.add_overhang_rules(base, beam, rule)``. Never add a total-width candidate
+    for a per-side limit ("bw + 12 hf"): it is wrong when the sides differ.
     """
 
 
