@@ -297,6 +297,34 @@ def test_a_layer_that_replaces_a_topic_replaces_what_was_wrapped_below():
     assert a.effective_width.value == pytest.approx(300 + 2 * 400)
     topic = next(t for t in a.topics if t.hook == "effective_flange_width")
     assert (topic.answered_by, topic.wrapped_by) == (("xx-replace:2025",), ())
+    layering = registry.edition("xx-replace:2025").layering("effective_flange_width")
+    assert (layering.answered_by, layering.wrapped_by) == (("xx-replace:2025",), ())
+
+
+class TighterStill:
+    """A second wrapping layer over the firm: 5 hf per side."""
+
+    @hookimpl
+    def edition_info(self):
+        return EditionInfo("xx-five:2025", "five hf", 2025, extends=FIRM)
+
+    @hookimpl(wrapper=True)
+    def effective_flange_width(self, beam):
+        base = yield
+        return add_overhang_rules(base, beam, OverhangRule.on_every_side(
+            beam, "5 hf", 5 * beam.flange_thickness,
+            EditionInfo("xx-five:2025", "", 2025).clause("X5", "five hf")))
+
+
+def test_wrappers_of_two_layers_nest_the_lowest_first():
+    registry = en_registry(firm_module(), TighterStill())
+    a = assess(unequal_tee(), "xx-five:2025", registry=registry)
+    # left min(625, 1050, 500, 720, 600) = 500; right min(825, 1050, 1500, 720, 600) = 600
+    assert a.effective_width.value == pytest.approx(300 + 500 + 600)
+    assert [o.clause.ref for o in a.effective_width.overhangs] == ["5.3.2.1(3)", "X5"]
+    topic = next(t for t in a.topics if t.hook == "effective_flange_width")
+    assert topic.wrapped_by == (FIRM, "xx-five:2025")
+    assert "bw + 6 hf on each side" in [c.label for c in a.effective_width.candidates]
 
 
 class BadWrapper:
