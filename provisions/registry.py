@@ -416,8 +416,8 @@ class Edition:
     def steel_law(self, beam: Beam, params: Parameters, context: Context) -> MaterialModel:
         return self.ask("steel_law", beam=beam, params=params, context=context)  # type: ignore[no-any-return]
 
-    def resistance_factor(self, beam: Beam, response: Any, params: Parameters,
-                          context: Context) -> Resistance:
+    def resistance_factor(self, beam: Beam, response: hookspecs.SolvedSection,
+                          params: Parameters, context: Context) -> Resistance:
         return self.ask("resistance_factor", beam=beam, response=response,  # type: ignore[no-any-return]
                         params=params, context=context)
 
@@ -425,19 +425,22 @@ class Edition:
                        context: Context) -> Envelope | None:
         return self.ask("design_actions", beam=beam, params=params, context=context)  # type: ignore[no-any-return]
 
-    def minimum_reinforcement(self, beam: Beam, section: Any, response: Any,
+    def minimum_reinforcement(self, beam: Beam, section: hookspecs.SectionView,
+                              response: hookspecs.SolvedSection,
                               demand: Envelope | None, resistance: Resistance,
                               params: Parameters, context: Context) -> list[Check]:
         return list(self.ask("minimum_reinforcement", beam=beam, section=section,
                              response=response, demand=demand, resistance=resistance,
                              params=params, context=context))
 
-    def ductility_limits(self, beam: Beam, section: Any, response: Any, params: Parameters,
+    def ductility_limits(self, beam: Beam, section: hookspecs.SectionView,
+                         response: hookspecs.SolvedSection, params: Parameters,
                          context: Context) -> list[Check]:
         return list(self.ask("ductility_limits", beam=beam, section=section,
                              response=response, params=params, context=context))
 
-    def additional_checks(self, beam: Beam, section: Any, response: Any, params: Parameters,
+    def additional_checks(self, beam: Beam, section: hookspecs.SectionView,
+                          response: hookspecs.SolvedSection, params: Parameters,
                           context: Context) -> list[Check]:
         return list(self.ask("additional_checks", beam=beam, section=section,
                              response=response, params=params, context=context))
