@@ -183,6 +183,16 @@ def _stack_line(a: Assessment) -> str:
     return " over ".join(f"{s.id} {s.version} ({s.distribution})" for s in reversed(a.stack))
 
 
+def _upper_layers_line(a: Assessment) -> str:
+    """The topics that a layer above the base answered or wrapped in this assessment."""
+    base = a.stack[0].id if a.stack else ""
+    said = [f"{', '.join(t.wrapped_by)} wrapped {t.hook}" if t.wrapped_by else
+            f"{', '.join(t.answered_by)} answered {t.hook}"
+            for t in a.topics if t.hook not in ("edition_info", "edition_parameters")
+            and (t.wrapped_by or any(layer != base for layer in t.answered_by))]
+    return "; ".join(said)
+
+
 def beam_panel(outcome: Outcome) -> Panel:
     """One beam under one edition: inputs beside findings, the checks, what governs."""
     beam = outcome.entry.beam
@@ -201,6 +211,9 @@ def beam_panel(outcome: Outcome) -> Panel:
         parts += [Text(""), checks_table(shown, units, a.edition_id,
                                          "checks" if a.checks else "scope")]
     parts.append(_verdict(a))
+    upper = _upper_layers_line(a)
+    if upper:
+        parts.append(Text(upper, style="dim"))
     border = {PASS: "green", FAIL: "red"}.get(a.status, "yellow")
     return Panel(Group(*parts), title=Text(f"{name} · {a.edition_id} ({a.form} form, "
                  f"{outcome.situation})"), title_align="left",

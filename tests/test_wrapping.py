@@ -208,7 +208,7 @@ moments = { dead = "150 kN m", live = "80 kN m" }
 def test_results_and_explain_show_who_answered_and_the_sides(both):
     from rich.console import Console
 
-    from clausewise.report import explain_report
+    from clausewise.report import beam_panel, explain_report
 
     schedule = parse_schedule(SCHEDULE, "market.toml")
     (outcome,) = run(schedule, [both.edition(FIRM)], None, "persistent")
@@ -225,6 +225,9 @@ def test_results_and_explain_show_who_answered_and_the_sides(both):
     assert "who answered each topic" in text
     assert f"effective_flange_width {EN} {FIRM}" in text
     assert "right 720 mm 6 hf FL-3" in text
+    console.print(beam_panel(outcome))  # the calculation sheet of the beam
+    sheet = " ".join(console.export_text().split())
+    assert f"{FIRM} wrapped effective_flange_width" in sheet
 
 
 # --- wrapping other topics, and what goes wrong ------------------------------------------
