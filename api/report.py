@@ -273,8 +273,8 @@ def beam_panel(outcome: Outcome) -> Group:
     """One beam under one edition: its heading (edition, form, design situation), the
     inputs, the findings, the checks and what governs."""
     a = outcome.assessment
-    heading = Rule(Text(_beam_title(outcome), style="bold"), align="left",
-                   style=STATUS_STYLE.get(outcome.shown_status, "yellow"))
+    heading = Group(Text(""), Rule(style=STATUS_STYLE.get(outcome.shown_status, "yellow")),
+                    Text(_beam_title(outcome), style="bold"))
     if a is None:
         return Group(heading, Text(f"not assessed: {outcome.error}", style="magenta"))
     units = _units(outcome)
@@ -395,8 +395,9 @@ def status_counts(outcomes: Sequence[Outcome], editions: Sequence[str]) -> Rende
 
 # --- editions side by side -------------------------------------------------------------------
 
-def _cell(outcome: Outcome | None) -> Text:
-    """Utilisation, a status mark and the governing check's code: ``0.85✓M``."""
+def _cell(outcome: Outcome | None, percent: bool = False) -> Text:
+    """Utilisation, a status mark and the governing check's code: ``0.85✓M`` (or
+    ``85✓M`` in per cent, where the width is short)."""
     if outcome is None:
         return Text("—", style="dim")
     status = outcome.shown_status
@@ -405,8 +406,12 @@ def _cell(outcome: Outcome | None) -> Text:
     if check is None:
         return Text(f"{STATUS_MARK.get(status, '?')}", style=style)
     u = check.utilisation
-    shown = "∞" if not math.isfinite(u) else f"{u:.2f}" if u < 10 else f"{u:.1f}" \
-        if u < 100 else ">99"
+    if not math.isfinite(u):
+        shown = "∞"
+    elif percent:
+        shown = f"{100 * u:.0f}" if u < 10 else ">999"
+    else:
+        shown = f"{u:.2f}" if u < 10 else f"{u:.1f}" if u < 100 else ">99"
     text = Text(shown)
     text.append(STATUS_MARK.get(status, "?"), style=style)
     text.append(check_code(check, proper), style="italic")
@@ -424,7 +429,7 @@ def _keys(editions: Sequence[str]) -> list[str]:
     return [chr(ord("A") + i) if i < 26 else f"E{i + 1}" for i in range(len(editions))]
 
 
-def _legend(outcomes: Sequence[Outcome], keys: dict[str, str]) -> Text:
+def _legend(outcomes: Sequence[Outcome], keys: dict[str, str], percent: bool = False) -> Text:
     """What the marks, codes and column keys of the comparison mean."""
     text = Text(style="dim")
     statuses = dict.fromkeys(o.shown_status for o in outcomes)
@@ -439,7 +444,8 @@ def _legend(outcomes: Sequence[Outcome], keys: dict[str, str]) -> Text:
         text.append("\ngoverning check: " + "; ".join(f"{c} {n}" for c, n in codes.items()))
     if keys:
         text.append("\neditions: " + "; ".join(f"{k} {e}" for e, k in keys.items()))
-    text.append("\ncells: governing utilisation, status mark, governing check")
+    text.append(f"\ncells: governing utilisation{' in per cent' if percent else ''}, "
+                "status mark, governing check; counts of beams at the foot")
     return text
 
 
@@ -460,31 +466,56 @@ def same_cylinder(outcomes: Sequence[Outcome]) -> str:
 
 def comparison_table(outcomes: Sequence[Outcome], editions: Sequence[str]) -> RenderableType:
     """One line per beam, one compact cell per edition, counts per edition at the foot.
-    Edition ids head the columns when they fit the width, letters with a legend when not;
-    ids are never cut."""
+
+    Laid out for the width it gets: utilisation in per cent when decimals do not fit,
+    letters with a legend for the edition ids when the ids do not fit, and the editions
+    split into blocks of columns as a last resort; an id or a cell is never cut."""
     by_beam = _by_beam(outcomes)
+    statuses = [s for s in STATUS_MARK if any(o.shown_status == s for o in outcomes)]
+    counts = {s: Counter(o.edition for o in outcomes if o.shown_status == s) for s in statuses}
+    beam_width = max([6, *(len(b) for b in by_beam)])
+
+    def cells(percent: bool) -> dict[str, list[Text]]:
+        return {e: [_cell(row.get(e), percent) for row in by_beam.values()] for e in editions}
+
+    def widths(table: dict[str, list[Text]], keys: dict[str, str]) -> dict[str, int]:
+        return {e: max([len(keys.get(e, e)), *(c.cell_len for c in column),
+                        *(len(str(counts[s][e])) for s in statuses)])
+                for e, column in table.items()}
 
     def build(width: int) -> RenderableType:
-        beam_width = max([4, *(len(b) for b in by_beam)])
-        cells = max(9, *(len(e) for e in editions))
-        keys = {} if beam_width + len(editions) * (cells + 2) <= width else \
-            dict(zip(editions, _keys(editions), strict=True))
-        table = Table(title="editions side by side", title_justify="left",
-                      title_style="bold", box=box.SIMPLE_HEAD, pad_edge=False)
-        table.add_column("beam", no_wrap=True)
+        letters = dict(zip(editions, _keys(editions), strict=True))
+        for percent, keys in ((False, {}), (True, {}), (False, letters), (True, letters)):
+            table = cells(percent)
+            sizes = widths(table, keys)
+            if beam_width + sum(w + 1 for w in sizes.values()) <= width:
+                break
+        blocks: list[list[str]] = [[]]
+        used = beam_width
         for e in editions:
-            table.add_column(keys.get(e, e), no_wrap=True)
-        for beam_id, row in by_beam.items():
-            table.add_row(Text(beam_id, style="bold"), *(_cell(row.get(e)) for e in editions))
-        if table.rows:
-            table.rows[-1].end_section = True
-        statuses = dict.fromkeys(o.shown_status for o in outcomes)
-        for s in STATUS_MARK:
-            if s in statuses:
-                tally = Counter(o.edition for o in outcomes if o.shown_status == s)
-                table.add_row(Text(f"{STATUS_MARK[s]} {s}", style="dim"),
-                              *(Text(str(tally[e]) if tally[e] else "·") for e in editions))
-        return Group(table, _legend(outcomes, keys))
+            if blocks[-1] and used + sizes[e] + 1 > width:
+                blocks.append([])
+                used = beam_width
+            blocks[-1].append(e)
+            used += sizes[e] + 1
+        parts: list[RenderableType] = []
+        for block in blocks:
+            grid = Table(box=box.SIMPLE_HEAD, show_edge=False, padding=(0, 0),
+                         title="editions side by side" if not parts else None,
+                         title_justify="left", title_style="bold")
+            grid.add_column("beam", no_wrap=True, min_width=beam_width)
+            for e in block:
+                grid.add_column(keys.get(e, e), no_wrap=True)
+            for i, beam_id in enumerate(by_beam):
+                grid.add_row(Text(beam_id, style="bold"), *(table[e][i] for e in block))
+            if grid.rows:
+                grid.rows[-1].end_section = True
+            for s in statuses:
+                grid.add_row(Text(f"{STATUS_MARK[s]} {s}", style="dim"),
+                             *(Text(str(counts[s][e]) if counts[s][e] else "·")
+                               for e in block))
+            parts.append(grid)
+        return Group(*parts, _legend(outcomes, keys, percent))
 
     return ByWidth(build)
 
@@ -560,23 +591,24 @@ class Change:
     causes: tuple[str, ...]
 
 
-def _drivers(outcome: Outcome) -> dict[str, tuple[str, float, str]]:
-    """What sets a beam's resistance and limits, by role: (symbol, value, unit)."""
+def _drivers(outcome: Outcome) -> dict[str, tuple[str, float, str, bool]]:
+    """What sets a beam's resistance and limits, by role: (how it is named, value, unit,
+    whether it sets the resistance rather than a steel limit)."""
     a = outcome.assessment
-    found: dict[str, tuple[str, float, str]] = {}
+    found: dict[str, tuple[str, float, str, bool]] = {}
     if a is None:
         return found
     if a.resistance is not None:
         f = a.resistance.factor
-        found["resistance factor"] = (f.symbol, float(f.value), "")
+        found["resistance factor"] = (f.symbol, float(f.value), "", True)
     if a.effective_width is not None:
-        found["effective width"] = (a.effective_width.symbol, float(a.effective_width.value),
-                                    "mm")
+        e = a.effective_width
+        found["effective width"] = (e.symbol, float(e.value), "mm", True)
     for f in (*a.concrete_factors, *a.steel_factors):
-        found[f.symbol] = (f.symbol, float(f.value), f.unit)
+        found[f.symbol] = (f.symbol, float(f.value), f.unit, True)
     for c in a.checks:
         if "minimum" in c.name or "maximum" in c.name:
-            found[c.name] = (c.symbol, float(c.limit), c.unit)
+            found[c.name] = (f"{c.name} {c.symbol}", float(c.limit), c.unit, False)
     return found
 
 
@@ -588,27 +620,29 @@ def _relative(before: float, after: float) -> float:
     return (after - before) / abs(before)
 
 
-def causes(before: Outcome, after: Outcome, threshold: float) -> tuple[str, ...]:
-    """The drivers that differ by more than ``threshold`` (a fraction), largest first;
-    those one edition has and the other lacks are named too."""
+def causes(before: Outcome, after: Outcome, threshold: float, limits: bool = True,
+           most: int = 3) -> tuple[str, ...]:
+    """The drivers both editions have that differ by more than ``threshold`` (a fraction),
+    largest first: resistance factor, effective width, stress-block and material factors,
+    and with ``limits`` the steel limits."""
     units = _units(before)
     b, a = _drivers(before), _drivers(after)
     moved: list[tuple[float, str]] = []
-    for role in dict.fromkeys([*b, *a]):
-        if role in b and role in a:
-            (sb, vb, unit), (sa, va, _) = b[role], a[role]
-            change = _relative(vb, va)
-            if abs(change) > threshold or sb != sa:
-                name = sb if sb == sa else f"{sb} → {sa}"
-                label = role if role == sb else f"{role} {name}"
-                moved.append((abs(change), f"{label}: {units.value(vb, unit)} → "
-                              f"{units.value(va, unit)}" + (
-                                  f" ({change:+.0%})" if math.isfinite(change) else "")))
-    only_after = [r for r in a if r not in b and r == a[r][0]]
-    if only_after:
-        moved.append((0.0, f"only {after.edition}: {', '.join(only_after[:4])}"))
-    moved.sort(key=lambda m: -m[0] if math.isfinite(m[0]) else -1e300)
-    return tuple(text for _, text in moved[:4])
+    for role in b.keys() & a.keys():
+        (nb, vb, unit, sets), (na, va, _, _) = b[role], a[role]
+        change = _relative(vb, va)
+        if (sets or limits) and (abs(change) > threshold or nb != na):
+            name = nb if nb == na else f"{nb} → {na}"
+            percent = f" ({change:+.0%})" if math.isfinite(change) and change else ""
+            moved.append((abs(change) if math.isfinite(change) else 1e300,
+                          f"{name} {units.value(vb, unit)} → {units.value(va, unit)}{percent}"))
+    moved.sort(key=lambda m: -m[0])
+    found = tuple(text for _, text in moved[:most])
+    if not found:
+        own = [r for r in a if r not in b][:4]
+        found = (f"rules of {after.edition} without a counterpart: {', '.join(own)}",) \
+            if own else ()
+    return found
 
 
 def migration(outcomes: Sequence[Outcome], source: str, target: str,
@@ -634,8 +668,9 @@ def migration(outcomes: Sequence[Outcome], source: str, target: str,
                 what.append(f"resistance {change:+.1%}" if math.isfinite(change)
                             else "resistance lost")
         if what:
+            limits = len(what) > 1 or not what[0].startswith("resistance")
             changes.append(Change(beam_id, before, after, tuple(what),
-                                  causes(before, after, threshold)))
+                                  causes(before, after, threshold, limits)))
     return changes
 
 
@@ -655,11 +690,12 @@ def migration_report(schedule: Schedule, outcomes: Sequence[Outcome], source: st
     table.add_column("beam", no_wrap=True)
     table.add_column(source, no_wrap=True)
     table.add_column(target, no_wrap=True)
-    table.add_column("what changes", ratio=1, overflow="fold")
-    table.add_column("what caused it", ratio=2, overflow="fold")
+    table.add_column("what changes, and the drivers that differ", ratio=1, overflow="fold")
     for c in changes:
-        _row(table, Text(c.beam, style="bold"), _cell(c.before), _cell(c.after),
-             "\n".join(c.what), "\n".join(c.causes) or "—")
+        text = Text("; ".join(c.what), style="bold")
+        for cause in c.causes:
+            text.append(f"\n· {cause}")
+        _row(table, Text(c.beam, style="bold"), _cell(c.before), _cell(c.after), text)
     keys: dict[str, str] = {}
     parts += [table, _legend([x for c in changes for x in (c.before, c.after)] or outcomes,
                              keys), Text(same_cylinder(outcomes), style="dim"), caution()]
@@ -715,6 +751,7 @@ def _stack_table(a: Assessment) -> Table:
 
 def _parameters_table(a: Assessment) -> Table:
     table = _plain_table("parameter", "value", "meaning", "clause", "supplied by")
+    table.columns[0].no_wrap = True  # spelled as an annex file must spell it
     for p in a.parameters:
         value = (f"{number(p.value, 6)} {p.unit}".strip() if isinstance(p.value, float | int)
                  else str(p.value))
