@@ -75,6 +75,9 @@ def _output_options(parser: argparse.ArgumentParser) -> None:
                         help="write to this file instead of the screen; without --format "
                              "its extension picks the format: .json, .toml, .csv, .html, "
                              ".pdf, or a text report as .txt")
+    parser.add_argument("--paper", choices=("A4", "Letter"), default="A4",
+                        help="page size of a PDF sheet (default A4); an HTML sheet prints "
+                             "on either")
 
 
 def _run_options(parser: argparse.ArgumentParser) -> None:
@@ -348,7 +351,7 @@ def _beam_figures(folder: Path, outcomes: Sequence[Outcome], kind: str) -> None:
             print(f"{PROGRAM}: no figure for beam {o.entry.beam.id} under {o.edition} "
                   f"({o.status})", file=sys.stderr)
             continue
-        figure = figures.beam_figure(a)
+        figure = figures.beam_figure(a, o.notation, o.entry.bar_groups)
         figures.save(figure, folder / f"{_safe(o.entry.beam.id)}_{_safe(o.edition)}.{kind}")
         written += 1
     print(f"{PROGRAM}: {written} figure(s) written to {folder}", file=sys.stderr)
@@ -363,7 +366,7 @@ def _comparison_figures(folder: Path, outcomes: Sequence[Outcome], kind: str) ->
         by_beam.setdefault(o.entry.beam.id, []).append(o)
     written = 0
     for beam_id, group in by_beam.items():
-        if any(o.assessment for o in group):
+        if group:
             figures.save(figures.utilisation_figure(group),
                          folder / f"{_safe(beam_id)}_editions.{kind}")
             written += 1
@@ -434,7 +437,8 @@ def _publish(args: argparse.Namespace, schedule: Schedule, outcomes: Sequence[Ou
     elif kind in ("html", "pdf"):
         from clausewise.sheet import calculation_sheet
 
-        _emit_sheet(calculation_sheet(schedule, outcomes, what), kind, args.out)
+        paper = args.paper if kind == "pdf" else ""
+        _emit_sheet(calculation_sheet(schedule, outcomes, what, paper=paper), kind, args.out)
     else:
         _emit_document(results.document(schedule, outcomes, units=args.units,
                                         digits=args.digits), kind, args.out)

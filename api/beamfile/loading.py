@@ -30,6 +30,9 @@ class BeamEntry:
 
     beam: Beam
     shown: dict[str, str]
+    # per layer (tension, then compression): bar count and largest diameter (mm), or
+    # None where the layer was given as an area; for drawing the bars
+    bar_groups: tuple[tuple[int, float] | None, ...] = ()
 
 
 @dataclass(frozen=True)
@@ -149,7 +152,7 @@ def _schedule(data: dict[str, Any], source: str, base: Path) -> Schedule:
         if beam is None:
             report(reader.problems)
         else:
-            entries.append(BeamEntry(beam, reader.shown))
+            entries.append(BeamEntry(beam, reader.shown, tuple(reader.bar_groups)))
     return Schedule(Path(source), project, tuple(entries), tuple(problems))
 
 
