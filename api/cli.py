@@ -440,7 +440,13 @@ def _publish(args: argparse.Namespace, schedule: Schedule, outcomes: Sequence[Ou
         paper = args.paper if kind == "pdf" else ""
         _emit_sheet(calculation_sheet(schedule, outcomes, what, paper=paper), kind, args.out)
     else:
-        _emit_document(results.document(schedule, outcomes, units=args.units,
+        units = args.units
+        if kind == "csv" and units == "beam" and len(
+                {e.beam.unit_system for e in schedule.entries}) > 1:
+            print(f"{PROGRAM}: the file mixes SI and US customary beams; the CSV is in SI "
+                  "(one unit per column)", file=sys.stderr)
+            units = "SI"
+        _emit_document(results.document(schedule, outcomes, units=units,
                                         digits=args.digits), kind, args.out)
 
 
@@ -455,7 +461,7 @@ def _run_batch(schedule: Schedule, editions: Sequence[Edition], form: str | None
                situation: str, out: Path | None) -> int:
     """The batch path: rows streamed to ``out`` (CSV, or JSON Lines for .jsonl), progress
     on a terminal for runs longer than a second, and a summary at the end."""
-    from clausewise.stream import LazyProgress, RowWriter, stream_schedule
+    from clausewise.stream import LazyProgress, RowWriter, schedule_system, stream_schedule
 
     progress = LazyProgress(sys.stderr.isatty())
     try:
@@ -465,7 +471,8 @@ def _run_batch(schedule: Schedule, editions: Sequence[Edition], form: str | None
             kind = "jsonl" if out.suffix.lower() in (".jsonl", ".ndjson") else "csv"
             with out.open("w", encoding="utf-8", newline="") as handle:
                 summary = stream_schedule(schedule, editions, form, situation,
-                                          RowWriter(handle, kind), progress)
+                                          RowWriter(handle, kind, schedule_system(schedule)),
+                                          progress)
     finally:
         progress.close()
     from clausewise.report import batch_summary
