@@ -230,8 +230,8 @@ def checks_table(checks: Sequence[Check], units: Units, edition: str, title: str
         table.add_column("limit", justify="right", overflow="fold")
         table.add_column("utilisation" if not narrow else "util.", no_wrap=True)
         table.add_column("result", no_wrap=True)
-        table.add_column("clause", ratio=2 if narrow else None, overflow="fold",
-                         min_width=None if narrow else 18)
+        table.add_column("clause", no_wrap=narrow, overflow="fold",
+                         min_width=None if narrow else 18)  # a reference is never split
         for c, name in zip(checks, names, strict=True):
             symbol = f"{say(c.symbol, n)} " if c.symbol else ""
             utilisation = (Text(number(c.utilisation, 3)) if narrow
@@ -315,7 +315,7 @@ def summary_table(outcomes: Sequence[Outcome]) -> RenderableType:
             a = o.assessment
             governing: RenderableType = Text(o.error, style="magenta")
             if check is not None and a is not None:
-                governing = Text(f"{check.name} [{_where(check.clause)}]")
+                governing = Text(f"{check.name} [{_where(check.clause, o.edition)}]")
             _row(table, o.entry.beam.id, o.edition, _status(o.shown_status),
                  number(check.utilisation, 3) if check else "", governing)
         return table
@@ -677,6 +677,7 @@ def migration(outcomes: Sequence[Outcome], source: str, target: str,
 def migration_report(schedule: Schedule, outcomes: Sequence[Outcome], source: str,
                      target: str, threshold: float) -> Group:
     """Only the beams that change from one edition to the other, with the drivers."""
+    outcomes = [o for o in outcomes if o.edition in (source, target)]
     changes = migration(outcomes, source, target, threshold)
     parts: list[RenderableType] = [
         header(schedule, f"from {source} to {target}", _situation(outcomes),

@@ -82,7 +82,9 @@ def _toml_loads(text: str, source: str) -> dict[str, Any]:
         raise InputError(f"{source}: not a valid TOML file: nested too deeply") from exc
 
 
-def _header(data: dict[str, Any], source: str, base: Path) -> ProjectInfo:
+def _header(data: dict[str, Any], source: str, base: Path
+            ) -> tuple[ProjectInfo | None, list[InputProblem]]:
+    """The project and run tables, or None with their problems."""
     unknown = [k for k in data if k not in _TOP_LEVEL]
     problems = [InputProblem(source, None, key, _text(data[key]), "no top-level table or key "
                              f"of this name{_did_you_mean(key, _TOP_LEVEL) or ''} (the file "
@@ -102,11 +104,11 @@ def _header(data: dict[str, Any], source: str, base: Path) -> ProjectInfo:
                                              f"an annex file that exists (looked for {path})"))
             annexes.append(path)
     if problems or header is None:
-        raise InputError("\n".join(p.message for p in problems), tuple(problems))
+        return None, problems
     p, run = header.project, header.run
     return ProjectInfo(p.name, p.building, p.town, p.engineer, p.notes, UnitSystem(p.units),
                        tuple(run.editions), tuple(run.require), tuple(annexes), run.form,
-                       run.situation)
+                       run.situation), []
 
 
 def _beam_id(raw: Any) -> str | None:
@@ -116,7 +118,7 @@ def _beam_id(raw: Any) -> str | None:
 
 
 def _schedule(data: dict[str, Any], source: str, base: Path) -> Schedule:
-    project = _header(data, source, base)
+    project, header_problems = _header(data, source, base)
     beams = data.get("beam")
     if not beams:
         raise InputError(f"{source}: no beams; add at least one [[beam]] table")
@@ -146,13 +148,17 @@ def _schedule(data: dict[str, Any], source: str, base: Path) -> Schedule:
                      f"{first_seen[model.id]} has it)")])
             continue
         first_seen[model.id] = index
-        system = _SYSTEMS[model.units] if model.units else project.unit_system
+        system = _SYSTEMS[model.units] if model.units else (
+            project.unit_system if project else UnitSystem.SI)
         reader = _BeamReader(model, system)
         beam = reader.read()
         if beam is None:
             report(reader.problems)
         else:
             entries.append(BeamEntry(beam, reader.shown, tuple(reader.bar_groups)))
+    if project is None:  # every problem of the file at once: the header's and the beams'
+        found = [*header_problems, *problems]
+        raise InputError("\n".join(p.message for p in found), tuple(found))
     return Schedule(Path(source), project, tuple(entries), tuple(problems))
 
 

@@ -69,6 +69,13 @@ def csv_row(rec: dict[str, Any]) -> dict[str, Any]:
     return dict(zip(result_columns(rec["units"]), values, strict=True))
 
 
+def _cell(value: Any) -> Any:
+    """Blank for a missing value; a number as its shortest text ("420", not "420.0")."""
+    if value is None:
+        return ""
+    return format(value, ".15g") if isinstance(value, float) else value
+
+
 def to_csv(data: dict[str, Any]) -> str:
     """One row per beam and edition, then one per refused beam; the header is the first
     row and the caution is a column. Every record must share one unit system (the
@@ -85,7 +92,7 @@ def to_csv(data: dict[str, Any]) -> str:
     writer = csv.DictWriter(out, columns, lineterminator="\n")
     writer.writeheader()
     for rec in data["results"]:
-        writer.writerow({k: "" if v is None else v for k, v in csv_row(rec).items()})
+        writer.writerow({k: _cell(v) for k, v in csv_row(rec).items()})
     for problem in data["problems"]:
         writer.writerow({"beam": problem["beam"] or "", "status": INPUT_PROBLEM,
                          "summary": problem["message"], "caution": CAUTION})
