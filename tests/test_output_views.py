@@ -164,7 +164,7 @@ def test_explain_and_listings_are_never_cut(schedule, everything, width):
     edition = registry.edition("aci318-19")
     text = render(parameters_report(edition, "SI"), width)
     readable(text, width)
-    for name in edition.parameters(Context(form="SI")):  # what an annex file must spell, whole on its line
+    for name in edition.parameters(Context(form="SI")):  # as an annex file must spell it
         assert re.search(rf"(^|\s){re.escape(name)}(\s|$)", text, re.M), name
 
 
