@@ -197,6 +197,8 @@ def _edition_part(outcome: Outcome, figures: bool) -> str:
             ("neutral axis", f"{n.neutral_axis} = {units.length(r.c)}"),
             ("net tensile strain", f"{n.strain} = {number(r.net_tensile_strain, 4)}"),
             ("nominal moment", f"{n.nominal} = {units.moment(r.nominal_moment)}"),
+            ("design resistance", f"{n.resistance} = {units.moment(a.design_resistance.value)}"
+             if a.design_resistance is not None else ""),
             ("regime", a.resistance.regime.name if a.resistance else ""),
             ("design moment", f"{n.demand} = {units.moment(a.demand.value)} "
              f"({a.demand.governing_candidate.label} governs)" if a.demand is not None
