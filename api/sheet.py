@@ -173,10 +173,11 @@ def _edition_part(outcome: Outcome, figures: bool) -> str:
              _facts([("edition", a.edition_title), ("edition stack", stack),
                      ("form", f"{a.form} ({a.form_basis})"),
                      ("design situation", outcome.situation),
-                     ("status", outcome.shown_status)]),
-             "<h4>inputs in this edition's symbols</h4>",
-             _facts([(input_label(k, n), v) for k, v in outcome.entry.shown.items()
-                     if input_label(k, n) != k])]
+                     ("status", outcome.shown_status)])]
+    renamed = [(input_label(k, n), v) for k, v in outcome.entry.shown.items()
+               if input_label(k, n) != k]
+    if renamed:
+        parts += ["<h4>inputs in this edition's symbols</h4>", _facts(renamed)]
     if a.effective_width is not None:
         parts += [f"<h4>{_e(a.effective_width.name)} ({_e(a.effective_width.bound)} "
                   "governs)</h4>", _envelope(a.effective_width, units)]
