@@ -477,7 +477,7 @@ def _run_batch(schedule: Schedule, editions: Sequence[Edition], form: str | None
         progress.close()
     from clausewise.report import batch_summary
 
-    _emit_report(batch_summary(schedule, summary, out))
+    _emit_report(batch_summary(schedule, summary, out, situation))
     statuses = {s for counts in summary.counts.values() for s in counts}
     if schedule.problems or ERROR in statuses:
         return 2

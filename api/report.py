@@ -365,15 +365,17 @@ def check_report(schedule: Schedule, outcomes: Sequence[Outcome],
                                           editions)]
     if schedule.problems:
         parts.append(problems_table(schedule.problems))
-    if len(outcomes) > 1:
-        parts.append(summary_table(outcomes))
     shown = editions if details is True else [] if details is False else list(details)
+    if len(editions) > 1 and not shown:  # the summary at a glance: a line per beam
+        parts.append(comparison_table(outcomes, editions))
+    elif len(outcomes) > 1:
+        parts.append(summary_table(outcomes))
     parts += [beam_panel(o) for o in outcomes if o.edition in shown]
     if len(shown) < len(editions):
         parts.append(Text(
             f"Each beam's report is shown for {', '.join(shown) or 'no edition'}; give "
             "--edition ID, or --details, for the others.", style="dim"))
-    if len(outcomes) > 1:
+    if len(outcomes) > 1 and shown:
         parts.append(status_counts(outcomes, editions))
     parts.append(caution())
     return Group(*parts)
@@ -899,12 +901,13 @@ def parameters_report(edition: Edition, form: str) -> Group:
 
 # --- a large schedule through the batch path ---------------------------------------------------
 
-def batch_summary(schedule: Schedule, summary: BatchSummary, out: Path | None) -> Group:
+def batch_summary(schedule: Schedule, summary: BatchSummary, out: Path | None,
+                  situation: str = "persistent") -> Group:
     """Counts by status per edition and the worst beams, after a batch run."""
     statuses = ("pass", "fail", "outside scope", "no equilibrium", "error", "refused")
     counts = Table(title="beams by status, per edition", title_justify="left",
-                   title_style="bold", box=box.SIMPLE_HEAD)
-    counts.add_column("edition")
+                   title_style="bold", box=box.SIMPLE_HEAD, pad_edge=False)
+    counts.add_column("edition", no_wrap=True)
     for status in statuses:
         counts.add_column(status, justify="right")
     for edition, tally in summary.counts.items():
@@ -912,15 +915,17 @@ def batch_summary(schedule: Schedule, summary: BatchSummary, out: Path | None) -
                                   for s in statuses))
     worst = Table(title="highest utilisation", title_justify="left", title_style="bold",
                   box=box.SIMPLE_HEAD)
-    for column in ("beam", "edition", "utilisation", "governed by"):
-        worst.add_column(column)
+    for column in ("beam", "edition", "utilisation"):
+        worst.add_column(column, no_wrap=True)
+    worst.add_column("governed by", overflow="fold")
     for utilisation, beam, edition, check in summary.worst_first():
         worst.add_row(beam, edition, _status(FAIL if utilisation > 1 else PASS).append(
             f" {utilisation:.3f}"), check)
     written = Text(f"{summary.rows:,} rows written to {out}" if out else
                    "rows not written: give --out results.csv (or .jsonl) to keep them",
                    style="dim")
-    parts: list[RenderableType] = [header(schedule, "schedule checked (batch path)"), counts,
+    parts: list[RenderableType] = [header(schedule, "schedule checked (batch path)", situation,
+                                          list(summary.counts)), counts,
                                    worst, written]
     if schedule.problems:
         parts.append(problems_table(schedule.problems))

@@ -216,7 +216,8 @@ def test_check_without_editions_shows_the_summary_and_says_how_to_see_more(tmp_p
     path.write_text(SCHEDULE, encoding="utf-8")
     main(["check", str(path)])
     short = capsys.readouterr().out
-    assert "summary" in short and "section and strength" not in short
+    assert "editions side by side" in short and "section and strength" not in short
+    assert sum(line.startswith("SH-2 ") for line in short.splitlines()) == 1  # one line
     assert "--details" in short and CAUTION in words(short)
     main(["check", str(path), "--details"])
     assert words(capsys.readouterr().out).count("section and strength") == 3 * len(
