@@ -336,7 +336,8 @@ def utilisation_figure(outcomes: Sequence[Outcome]) -> Figure:
         labels.append(o.edition)
         values.append(u if np.isfinite(u) and gave_verdict else 0.0)
         refused.append(not gave_verdict)
-        colors.append("#ffffff" if not gave_verdict else COMPRESSION if a.passed else TENSION)
+        colors.append(COMPRESSION if a is not None and a.passed
+                      else TENSION if gave_verdict else "#ffffff")
         if a is None:
             notes.append(f"refused: not assessed ({o.error[:60]})")
         elif not gave_verdict:

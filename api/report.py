@@ -371,10 +371,12 @@ def check_report(schedule: Schedule, outcomes: Sequence[Outcome],
     elif len(outcomes) > 1:
         parts.append(summary_table(outcomes))
     parts += [beam_panel(o) for o in outcomes if o.edition in shown]
-    if len(shown) < len(editions):
-        parts.append(Text(
-            f"Each beam's report is shown for {', '.join(shown) or 'no edition'}; give "
-            "--edition ID, or --details, for the others.", style="dim"))
+    if not shown:
+        parts.append(Text("Each beam's full report: give --edition ID, or --details for "
+                          "every edition.", style="dim"))
+    elif len(shown) < len(editions):
+        parts.append(Text(f"Each beam's full report is shown for {', '.join(shown)}; "
+                          "--details shows it for every edition.", style="dim"))
     if len(outcomes) > 1 and shown:
         parts.append(status_counts(outcomes, editions))
     parts.append(caution())
