@@ -317,3 +317,12 @@ def test_every_input_problem_comes_out_at_once_before_any_result(tmp_path, capsy
     captured = capsys.readouterr()
     assert "web_width" in captured.err.splitlines()[1]  # on stderr before the results
     assert "input problem" in captured.out
+
+
+def test_a_misspelt_field_does_not_hide_the_beam_s_other_problems():
+    text = SCHEDULE.replace('web_width = "350 mm"', 'web_widht = "350 mm"\nweb_width = "35 MPa"')
+    text = text.replace('yield_strength = "500 MPa"\ntension = [{ bars = "3 x 25 mm"',
+                        'yield_strength = "500 kN"\ntension = [{ bars = "3 x 25 mm"')
+    problems = [(p.beam, p.field) for p in parse_schedule(text, "hall.toml").problems]
+    assert problems == [("SH-2", "web_widht"), ("SH-2", "web_width"),
+                        ("SH-2", "yield_strength")]

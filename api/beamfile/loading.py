@@ -142,6 +142,7 @@ def _schedule(data: dict[str, Any], source: str, base: Path) -> Schedule:
             model = BeamModel.model_validate(raw)
         except ValidationError as exc:
             report(_from_pydantic(exc, _BEAM_FIELDS))
+            report(_beyond_the_shape(raw, exc, project))
             continue
         if model.id in first_seen:
             report([("id", model.id, f"an id not used by another beam (beam number "
@@ -160,6 +161,23 @@ def _schedule(data: dict[str, Any], source: str, base: Path) -> Schedule:
         found = [*header_problems, *problems]
         raise InputError("\n".join(p.message for p in found), tuple(found))
     return Schedule(Path(source), project, tuple(entries), tuple(problems))
+
+
+def _beyond_the_shape(raw: dict[str, Any], exc: ValidationError,
+                      project: ProjectInfo | None) -> list[tuple[str, str, str]]:
+    """The value problems (units, ranges, bars) of a beam whose shape was refused, read
+    from the fields that were not, so that one reading finds every problem. Nothing
+    when the rest cannot be read without the refused fields."""
+    refused = {str(error["loc"][0]) for error in exc.errors() if error["loc"]}
+    try:
+        model = BeamModel.model_validate({k: v for k, v in raw.items() if k not in refused})
+    except ValidationError:
+        return []
+    system = _SYSTEMS[model.units] if model.units else (
+        project.unit_system if project else UnitSystem.SI)
+    reader = _BeamReader(model, system)
+    reader.read()
+    return [p for p in reader.problems if p[0].split(".")[0].split("[")[0] not in refused]
 
 
 @contextmanager
