@@ -140,7 +140,8 @@ def beam_figure(assessment: Assessment, notation: Notation | None = None,
     strain_ax.annotate("neutral axis", (0.02, frame.y(r.c)), xycoords=("axes fraction", "data"),
                        xytext=(0, 3), textcoords="offset points", fontsize=SMALL,
                        color="#555555")
-    _caption(figure, f"{a.beam.id} under {a.edition_id} ({a.form} form): {a.summary()}")
+    _caption(figure, f"{a.beam.id} under {a.edition_id} ({a.form} form, {a.situation}): "
+             f"{a.summary()}")
     spread_labels(figure)
     return figure
 
