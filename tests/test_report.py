@@ -10,7 +10,6 @@ from __future__ import annotations
 
 import re
 import tomllib
-import xml.etree.ElementTree as ET
 
 import jsonschema
 import pytest
@@ -176,14 +175,6 @@ def test_an_outcome_without_assessment_shows_its_error(schedule, outcomes):
     broken = Outcome(outcomes[0].entry, "aci318-19", error="edition 'x' has no form 'Z'")
     text = words(render(check_report(schedule, [broken])))
     assert "not assessed" in text and "has no form 'Z'" in text and CAUTION in text
-
-
-def test_rich_report_exports_as_svg(schedule, outcomes):
-    console = Console(record=True, width=110, file=open("/dev/null", "w"))  # noqa: SIM115
-    console.print(check_report(schedule, outcomes[:1]))
-    root = ET.fromstring(console.export_svg(title="clausewise report"))
-    assert root.tag.endswith("svg")
-    assert "clausewise report" in "".join(root.itertext()).replace("\xa0", " ")
 
 
 # --- comparison and audit trail ------------------------------------------------------------------
