@@ -1,8 +1,9 @@
 """The ``clausewise`` command: list editions, check, compare and explain beams of a file.
 
-Output: a report for people by default (colour only on a terminal); ``--format
-json|toml|csv`` for programs. Without ``--format``, an ``--out`` name ending in
-.json, .toml or .csv picks that format, and a report goes to .txt, .svg or .html.
+Output: a text report for people by default (colour only on a terminal); ``--format
+html`` a printable calculation sheet (``.pdf`` printed from it by headless Chromium);
+``--format json|toml|csv`` for programs. Without ``--format``, an ``--out`` name ending
+in .json, .toml, .csv, .html or .pdf picks that format, and a report goes to .txt.
 Files are written whole or not at all.
 
 Exit status: 0 every check passes; 1 a check fails, or a beam is outside an
@@ -35,8 +36,9 @@ if TYPE_CHECKING:
     from clausewise.results import Outcome
 
 PROGRAM = "clausewise"
-FORMATS = ("rich", "json", "toml", "csv")
-BY_SUFFIX = {".json": "json", ".toml": "toml", ".csv": "csv"}
+FORMATS = ("text", "html", "pdf", "json", "toml", "csv")
+BY_SUFFIX = {".json": "json", ".toml": "toml", ".csv": "csv", ".html": "html", ".htm": "html",
+             ".pdf": "pdf", ".txt": "text"}
 REPORT_WIDTH = 110  # columns of a report that does not go to a terminal
 BATCH_FROM = 2_000  # beam-editions beyond which check takes the batch path (rich or CSV)
 
@@ -66,12 +68,16 @@ class UsageError(ClausewiseError, ValueError):
 
 def _output_options(parser: argparse.ArgumentParser) -> None:
     parser.add_argument("--format", choices=FORMATS,
-                        help="rich: a report for people (the default); json, toml, csv: "
-                             "results for programs")
+                        help="text: a report for people (the default); html: a printable "
+                             "calculation sheet; pdf: that sheet printed (needs --out and "
+                             "Chromium); json, toml, csv: results for programs")
     parser.add_argument("--out", type=Path, metavar="PATH",
                         help="write to this file instead of the screen; without --format "
-                             "its extension picks the format: .json, .toml, .csv, or a "
-                             "report as .txt, .svg, .html")
+                             "its extension picks the format: .json, .toml, .csv, .html, "
+                             ".pdf, or a text report as .txt")
+    parser.add_argument("--paper", choices=("A4", "Letter"), default="A4",
+                        help="page size of a PDF sheet (default A4); an HTML sheet prints "
+                             "on either")
 
 
 def _run_options(parser: argparse.ArgumentParser) -> None:
@@ -84,6 +90,13 @@ def _run_options(parser: argparse.ArgumentParser) -> None:
     parser.add_argument("--annex", type=Path, action="append", default=[], metavar="FILE",
                         help="load a parameter file as an extra edition (repeatable)")
     _output_options(parser)
+    parser.add_argument("--units", choices=("beam", "SI"), default="beam",
+                        help="units of json, toml and csv results: each beam's own system "
+                             "(default) or SI (kN·m, kN, mm, mm², MPa); named in every "
+                             "column")
+    parser.add_argument("--digits", type=int, default=6, metavar="N",
+                        help="significant figures of the numbers in json, toml and csv "
+                             "results (default 6)")
 
 
 def _figure_options(parser: argparse.ArgumentParser, what: str) -> None:
@@ -128,6 +141,10 @@ def build_parser() -> argparse.ArgumentParser:
     check.add_argument("--edition", action="append", metavar="ID",
                        help="edition to check against (repeatable; default: the file's "
                             "editions, else every installed one)")
+    check.add_argument("--details", action="store_true",
+                       help="each beam's report under every edition checked (without "
+                            "--edition and editions in the file, only the summary is "
+                            "shown by default)")
     _figure_options(check, "the section, strains and stresses of every beam")
     check.set_defaults(handler=check_command)
 
@@ -137,6 +154,16 @@ def build_parser() -> argparse.ArgumentParser:
     _run_options(compare)
     compare.add_argument("--edition", action="append", metavar="ID",
                          help="edition to compare (repeatable; default: every installed one)")
+    compare.add_argument("--details", action="store_true",
+                         help="per beam, the moments and the governing clause of each "
+                              "edition")
+    compare.add_argument("--from", dest="source", metavar="ID",
+                         help="with --to: list only the beams that change from this edition")
+    compare.add_argument("--to", dest="target", metavar="ID",
+                         help="with --from: the edition they change to")
+    compare.add_argument("--threshold", type=float, default=2.0, metavar="PERCENT",
+                         help="with --from/--to: a change of design resistance larger than "
+                              "this percentage counts (default 2)")
     _figure_options(compare, "the utilisation per edition of every beam")
     compare.set_defaults(handler=compare_command)
 
@@ -250,8 +277,8 @@ def _chosen_format(args: argparse.Namespace) -> str:
     if args.format:
         return str(args.format)
     if args.out is not None:
-        return BY_SUFFIX.get(args.out.suffix.lower(), "rich")
-    return "rich"
+        return BY_SUFFIX.get(args.out.suffix.lower(), "text")
+    return "text"
 
 
 def _emit_text(text: str, out: Path | None) -> None:
@@ -264,8 +291,8 @@ def _emit_text(text: str, out: Path | None) -> None:
 
 
 def _emit_report(renderable: Any, width: int = REPORT_WIDTH, out: Path | None = None) -> None:
-    """Print a rich report (``width`` columns unless on a terminal), or write it to a
-    file as text, SVG or HTML."""
+    """Print a text report (``width`` columns unless on a terminal), or write it to a
+    file as plain text."""
     from rich.console import Console
 
     from clausewise.results import write_atomic
@@ -274,17 +301,33 @@ def _emit_report(renderable: Any, width: int = REPORT_WIDTH, out: Path | None = 
         terminal = sys.stdout.isatty()
         Console(width=None if terminal else width, highlight=False).print(renderable)
         return
-    kind = out.suffix.lower()
-    styled = kind in (".svg", ".html")
-    console = Console(file=io.StringIO(), record=True, width=width, highlight=False,
-                      force_terminal=styled, color_system="truecolor" if styled else None)
+    console = Console(file=io.StringIO(), record=True, width=width, highlight=False)
     console.print(renderable)
-    if kind == ".svg":
-        write_atomic(out, console.export_svg(title=f"{PROGRAM} report"))
-    elif kind == ".html":
-        write_atomic(out, console.export_html())
-    else:
-        write_atomic(out, console.export_text())
+    write_atomic(out, console.export_text())
+
+
+def _emit_sheet(page: str, kind: str, out: Path | None) -> None:
+    """The calculation sheet as HTML, or printed to PDF by headless Chromium."""
+    if kind == "html":
+        _emit_text(page, out)
+        return
+    if out is None:
+        raise UsageError("--format pdf needs --out FILE.pdf")
+    from clausewise.results import write_atomic
+    from clausewise.sheet import print_pdf
+
+    write_atomic(out, print_pdf(page))
+
+
+def _problems_first(schedule: Schedule, args: argparse.Namespace) -> None:
+    """Every input problem of the file on stderr before any result, unless a text report
+    on the screen shows them at its top anyway."""
+    if not schedule.problems or (_chosen_format(args) == "text" and args.out is None):
+        return
+    print(f"{PROGRAM}: {len(schedule.problems)} input problem(s); these beams are not "
+          "assessed:", file=sys.stderr)
+    for p in schedule.problems:
+        print(f"  {p.message}", file=sys.stderr)
 
 
 def _emit_document(data: dict[str, Any], kind: str, out: Path | None,
@@ -311,7 +354,7 @@ def _beam_figures(folder: Path, outcomes: Sequence[Outcome], kind: str) -> None:
             print(f"{PROGRAM}: no figure for beam {o.entry.beam.id} under {o.edition} "
                   f"({o.status})", file=sys.stderr)
             continue
-        figure = figures.beam_figure(a)
+        figure = figures.beam_figure(a, o.notation, o.entry.bar_groups)
         figures.save(figure, folder / f"{_safe(o.entry.beam.id)}_{_safe(o.edition)}.{kind}")
         written += 1
     print(f"{PROGRAM}: {written} figure(s) written to {folder}", file=sys.stderr)
@@ -326,7 +369,7 @@ def _comparison_figures(folder: Path, outcomes: Sequence[Outcome], kind: str) ->
         by_beam.setdefault(o.entry.beam.id, []).append(o)
     written = 0
     for beam_id, group in by_beam.items():
-        if any(o.assessment for o in group):
+        if group:
             figures.save(figures.utilisation_figure(group),
                          folder / f"{_safe(beam_id)}_editions.{kind}")
             written += 1
@@ -340,13 +383,16 @@ def editions_command(args: argparse.Namespace) -> int:
 
     registry = _registry(args.annex)
     kind = _chosen_format(args)
+    if kind in ("html", "pdf"):
+        raise UsageError(f"--format {kind}: the calculation sheet is made by check, compare "
+                         "and explain; editions are listed as text, json, toml or csv")
     if args.parameters:
         edition = registry.edition(args.parameters)
         form = args.form or edition.forms[0]
         if form not in edition.forms:
             raise UsageError(f"edition {edition.id!r} has no form {form!r} "
                              f"(it has: {', '.join(edition.forms)})")
-        if kind == "rich":
+        if kind == "text":
             from clausewise.report import parameters_report
 
             _emit_report(parameters_report(edition, form), out=args.out)
@@ -356,7 +402,7 @@ def editions_command(args: argparse.Namespace) -> int:
         return 0
     if args.edition:
         edition = registry.edition(args.edition)
-        if kind == "rich":
+        if kind == "text":
             from clausewise.report import topics_report
 
             _emit_report(topics_report(edition), out=args.out)
@@ -364,7 +410,7 @@ def editions_command(args: argparse.Namespace) -> int:
             _emit_document(results.topics_document(edition), kind, args.out,
                            results.topics_csv)
         return 0
-    if kind == "rich":
+    if kind == "text":
         from clausewise.report import editions_report
 
         _emit_report(editions_report(registry), out=args.out)
@@ -386,22 +432,35 @@ def _assess(args: argparse.Namespace, default_ids: Callable[[Schedule, Registry]
 
     schedule, registry, form, situation = _load(args)
     editions = _editions(registry, args.edition or default_ids(schedule, registry))
+    _problems_first(schedule, args)
     return schedule, editions, list(run(schedule, editions, form, situation))
 
 
 def _publish(args: argparse.Namespace, schedule: Schedule, outcomes: Sequence[Outcome],
-             build: Callable[[Any], tuple[Any, int]]) -> None:
+             build: Callable[[Any], tuple[Any, int]], what: str = "flexural check") -> None:
     """The results in the chosen format; ``build`` makes the report and its width from the
     report module, which is imported only when a report is wanted."""
     from clausewise import results
 
     kind = _chosen_format(args)
-    if kind == "rich":
+    if kind == "text":
         from clausewise import report
 
         _emit_report(*build(report), out=args.out)
+    elif kind in ("html", "pdf"):
+        from clausewise.sheet import calculation_sheet
+
+        paper = args.paper if kind == "pdf" else ""
+        _emit_sheet(calculation_sheet(schedule, outcomes, what, paper=paper), kind, args.out)
     else:
-        _emit_document(results.document(schedule, outcomes), kind, args.out)
+        units = args.units
+        if kind == "csv" and units == "beam" and len(
+                {e.beam.unit_system for e in schedule.entries}) > 1:
+            print(f"{PROGRAM}: the file mixes SI and US customary beams; the CSV is in SI "
+                  "(one unit per column)", file=sys.stderr)
+            units = "SI"
+        _emit_document(results.document(schedule, outcomes, units=units,
+                                        digits=args.digits), kind, args.out)
 
 
 def batch_command(args: argparse.Namespace) -> int:
@@ -415,7 +474,7 @@ def _run_batch(schedule: Schedule, editions: Sequence[Edition], form: str | None
                situation: str, out: Path | None) -> int:
     """The batch path: rows streamed to ``out`` (CSV, or JSON Lines for .jsonl), progress
     on a terminal for runs longer than a second, and a summary at the end."""
-    from clausewise.stream import LazyProgress, RowWriter, stream_schedule
+    from clausewise.stream import LazyProgress, RowWriter, schedule_system, stream_schedule
 
     progress = LazyProgress(sys.stderr.isatty())
     try:
@@ -425,12 +484,13 @@ def _run_batch(schedule: Schedule, editions: Sequence[Edition], form: str | None
             kind = "jsonl" if out.suffix.lower() in (".jsonl", ".ndjson") else "csv"
             with out.open("w", encoding="utf-8", newline="") as handle:
                 summary = stream_schedule(schedule, editions, form, situation,
-                                          RowWriter(handle, kind), progress)
+                                          RowWriter(handle, kind, schedule_system(schedule)),
+                                          progress)
     finally:
         progress.close()
     from clausewise.report import batch_summary
 
-    _emit_report(batch_summary(schedule, summary, out))
+    _emit_report(batch_summary(schedule, summary, out, situation))
     statuses = {s for counts in summary.counts.values() for s in counts}
     if schedule.problems or ERROR in statuses:
         return 2
@@ -441,25 +501,41 @@ def check_command(args: argparse.Namespace) -> int:
     from clausewise.results import run
 
     schedule, registry, form, situation = _load(args)
-    editions = _editions(registry, args.edition or list(schedule.project.editions)
-                         or registry.ids())
+    chosen = args.edition or list(schedule.project.editions)
+    editions = _editions(registry, chosen or registry.ids())
     if (len(schedule.entries) * len(editions) > BATCH_FROM and not args.figures
-            and _chosen_format(args) in ("rich", "csv")):
+            and _chosen_format(args) in ("text", "csv")):
         return _run_batch(schedule, editions, form, situation, args.out)
+    _problems_first(schedule, args)
     outcomes = list(run(schedule, editions, form, situation))
-    _publish(args, schedule, outcomes,
-             lambda report: (report.check_report(schedule, outcomes), REPORT_WIDTH))
+    # every installed edition by default: the summary, and each beam only behind --details
+    details = bool(chosen or args.details)
+    _publish(args, schedule, outcomes, lambda report: (
+        report.check_report(schedule, outcomes, details), REPORT_WIDTH))
     if args.figures:
         _beam_figures(args.figures, outcomes, args.figure_format)
     return exit_status(outcomes, schedule)
 
 
 def compare_command(args: argparse.Namespace) -> int:
+    if (args.source is None) != (args.target is None):
+        raise UsageError("--from and --to go together: compare --from ID --to ID FILE")
+    if args.threshold < 0:
+        raise UsageError(f"--threshold {args.threshold}: expected a percentage of 0 or more")
+    migrating = args.source is not None
+    if migrating:
+        args.edition = [args.source, args.target]
     schedule, editions, outcomes = _assess(args, lambda s, r: r.ids())
     ids = [e.id for e in editions]
-    _publish(args, schedule, outcomes, lambda report: (
-        report.comparison_report(schedule, outcomes, ids),
-        max(REPORT_WIDTH, report.comparison_width(len(ids)))))
+    if migrating:
+        _publish(args, schedule, outcomes, lambda report: (
+            report.migration_report(schedule, outcomes, args.source, args.target,
+                                    args.threshold / 100), REPORT_WIDTH),
+            f"from {args.source} to {args.target}")
+    else:
+        _publish(args, schedule, outcomes, lambda report: (
+            report.comparison_report(schedule, outcomes, ids, args.details), REPORT_WIDTH),
+            "editions compared")
     if args.figures:
         _comparison_figures(args.figures, outcomes, args.figure_format)
     return exit_status(outcomes, schedule)
@@ -482,7 +558,8 @@ def explain_command(args: argparse.Namespace) -> int:
     outcomes = list(run(beam_only, [edition], form, situation))
 
     _publish(args, beam_only, outcomes,
-             lambda report: (report.explain_report(schedule, outcomes[0]), REPORT_WIDTH))
+             lambda report: (report.explain_report(schedule, outcomes[0]), REPORT_WIDTH),
+             "audit trail")
     if args.figures:
         _beam_figures(args.figures, outcomes, args.figure_format)
     return exit_status(outcomes, beam_only)

@@ -1,9 +1,11 @@
 """Figures (matplotlib, Agg): the section, its strains and its stresses; utilisation per edition.
 
 Drawn in the beam's own units with the slab on top, so a hogging section shows
-its compression zone at the soffit. The section is drawn to scale where its
-proportions allow. SVG or PNG by the file's extension. This module is imported
-only when figures are asked for.
+its compression zone at the soffit, and an L beam's flange on the side its slab
+is. The section is drawn to scale where its proportions allow, with every bar of
+a layer at its depth, spread across the web. Labels are nudged apart until none
+overlaps another. Symbols follow the edition's notation. SVG or PNG by the file's
+extension. This module is imported only when figures are asked for.
 """
 
 from __future__ import annotations
@@ -19,9 +21,10 @@ import numpy as np
 
 matplotlib.use("Agg")
 from matplotlib.figure import Figure  # noqa: E402  (after choosing the backend)
-from matplotlib.patches import Rectangle  # noqa: E402
+from matplotlib.patches import Circle, Rectangle  # noqa: E402
 from matplotlib.ticker import MaxNLocator  # noqa: E402
 
+from clausewise.provisions import Notation  # noqa: E402
 from clausewise.provisions.beam import Bending, Shape  # noqa: E402
 from clausewise.provisions.engine import CAUTION, Assessment  # noqa: E402
 from clausewise.results import Outcome, Units, convert, write_atomic  # noqa: E402
@@ -90,11 +93,15 @@ class _Frame:
         return low * self.depth * self.scale, high * self.depth * self.scale
 
 
-def beam_figure(assessment: Assessment) -> Figure:
+def beam_figure(assessment: Assessment, notation: Notation | None = None,
+                bar_groups: Sequence[tuple[int, float] | None] = ()) -> Figure:
     """Three panels at one height scale: the section with its effective flange, the
-    compression zone shaded and the steel layers; the strains; the stresses and forces.
+    compression zone shaded and every bar (``bar_groups``: count and diameter per layer,
+    tension then compression; a layer given as an area is one marker); the strains; the
+    stresses and forces.
     """
     a = assessment
+    n = notation or Notation()
     r = a.response
     if r is None or not r.equilibrium:
         raise ValueError(f"beam {a.beam.id!r} under {a.edition_id}: no solved section to draw "
@@ -119,10 +126,11 @@ def beam_figure(assessment: Assessment) -> Figure:
         x += panel_width + GAP
     section_ax, strain_ax, stress_ax = axes
 
-    _draw_section(section_ax, a, arrays, frame, to_scale=abs(wanted - section_width) < 1e-9)
+    _draw_section(section_ax, a, arrays, frame, to_scale=abs(wanted - section_width) < 1e-9,
+                  bar_groups=bar_groups)
     section_ax.set_xlim(*x_range)
-    _draw_strains(strain_ax, a, float(law.ultimate_strain), frame)
-    _draw_stresses(stress_ax, a, law, frame)
+    _draw_strains(strain_ax, a, float(law.ultimate_strain), frame, n)
+    _draw_stresses(stress_ax, a, law, frame, n)
     for ax in axes:
         ax.set_ylim(*y_range)
         ax.axhline(frame.y(r.c), color="#555555", lw=0.8, ls="--")
@@ -132,13 +140,64 @@ def beam_figure(assessment: Assessment) -> Figure:
     strain_ax.annotate("neutral axis", (0.02, frame.y(r.c)), xycoords=("axes fraction", "data"),
                        xytext=(0, 3), textcoords="offset points", fontsize=SMALL,
                        color="#555555")
-    _caption(figure, f"{a.beam.id} under {a.edition_id} ({a.form} form): {a.summary()}")
+    _caption(figure, f"{a.beam.id} under {a.edition_id} ({a.form} form, {a.situation}): "
+             f"{a.summary()}")
+    spread_labels(figure)
     return figure
 
 
+def slab_on_left(a: Assessment) -> bool:
+    """Whether an L beam's slab (and so its flange) is on the left: only where the floor
+    gives a slab on the left and none on the right."""
+    layout = a.beam.layout
+    return (a.beam.shape is Shape.ELL and layout is not None
+            and layout.clear_left is not None and layout.clear_right is None)
+
+
 def _left_edge(a: Assessment, width: float, web: float) -> float:
-    """An L beam's flange runs from the web's left face; the rest are symmetric."""
-    return -web / 2 if a.beam.shape is Shape.ELL else -width / 2
+    """An L beam's flange runs from the web's face on its slab's side; the rest are
+    symmetric about the web's centre line."""
+    if a.beam.shape is not Shape.ELL:
+        return -width / 2
+    return web / 2 - width if slab_on_left(a) else -web / 2
+
+
+def bar_positions(count: int, diameter: float, web: float, edge: float) -> np.ndarray:
+    """Centres across the web (mm from its centre line) of ``count`` bars of ``diameter``,
+    evenly spaced with their centres ``edge`` from the side faces (the same cover as at
+    the nearer top or bottom face, as is common practice); bars that do not fit are
+    drawn touching (a bundle)."""
+    if count == 1:
+        return np.zeros(1)
+    reach = max(web / 2 - edge, (count - 1) * diameter / 2)
+    return np.linspace(-reach, reach, count)
+
+
+def spread_labels(figure: Figure, passes: int = 60) -> None:
+    """Nudge the figure's offset labels apart vertically until no two overlap."""
+    from matplotlib.backends.backend_agg import FigureCanvasAgg
+    from matplotlib.text import Annotation
+
+    renderer = FigureCanvasAgg(figure).get_renderer()
+    labels = [t for ax in figure.axes for t in ax.texts
+              if isinstance(t, Annotation) and t.get_text() and t.anncoords == "offset points"]
+    boxes = [t.get_window_extent(renderer) for t in labels]
+    points_per_pixel = 72 / figure.dpi
+    for _ in range(passes):
+        moved = False
+        for i in range(len(labels)):
+            for j in range(i + 1, len(labels)):
+                if not boxes[i].overlaps(boxes[j]):
+                    continue
+                lower, upper = (i, j) if boxes[i].y0 <= boxes[j].y0 else (j, i)
+                gap = boxes[lower].y1 - boxes[upper].y0 + 1.0
+                for k, sign in ((lower, -1), (upper, 1)):
+                    x, y = labels[k].xyann
+                    labels[k].xyann = (x, y + sign * gap / 2 * points_per_pixel)
+                    boxes[k] = labels[k].get_window_extent(renderer)
+                moved = True
+        if not moved:
+            return
 
 
 def _section_extent(a: Assessment, arrays: Any) -> tuple[float, float]:
@@ -151,7 +210,8 @@ def _section_extent(a: Assessment, arrays: Any) -> tuple[float, float]:
     return ((left - margin) * scale, (right + margin + 0.35 * web) * scale)
 
 
-def _draw_section(ax: Any, a: Assessment, arrays: Any, frame: _Frame, to_scale: bool) -> None:
+def _draw_section(ax: Any, a: Assessment, arrays: Any, frame: _Frame, to_scale: bool,
+                  bar_groups: Sequence[tuple[int, float] | None] = ()) -> None:
     r = a.response
     assert r is not None
     units, s = frame.units, frame.scale
@@ -172,17 +232,30 @@ def _draw_section(ax: Any, a: Assessment, arrays: Any, frame: _Frame, to_scale: 
             ax.annotate(f"effective flange {units.length(width)}", (left + width * s / 2, y1),
                         xytext=(0, 3), textcoords="offset points", ha="center", va="bottom",
                         fontsize=SMALL)
-    for layer in r.layers:
-        xs = np.linspace(-0.3 * web, 0.3 * web, 3) * s
-        ax.plot(xs, [frame.y(layer.depth)] * 3, "o", color=STEEL, ms=5)
-        ax.annotate(units.value(layer.area, "mm²"), (float(xs[-1]), frame.y(layer.depth)),
-                    xytext=(7, 0), textcoords="offset points", va="center", fontsize=SMALL)
+    overall = float(edges[-1])
+    for i, layer in enumerate(r.layers):
+        group = bar_groups[i] if i < len(bar_groups) else None
+        y = frame.y(layer.depth)
+        if group is None:  # an area without bars: one marker for the layer
+            xs = np.zeros(1)
+            ax.plot(xs, [y], "s", color=STEEL, ms=6, gid="steel-layer")
+            label = units.value(layer.area, "mm²")
+        else:
+            count, diameter = group
+            face = min(float(layer.depth), overall - float(layer.depth))
+            xs = bar_positions(count, diameter, web, max(face, diameter)) * s
+            for x in xs:
+                ax.add_patch(Circle((x, y), diameter / 2 * s, facecolor=STEEL,
+                                    edgecolor="none", gid="bar"))
+            label = f"{count} × {units.length(diameter)} ({units.value(layer.area, 'mm²')})"
+        ax.annotate(label, (float(xs.max()), y), xytext=(7, 0), textcoords="offset points",
+                    va="center", fontsize=SMALL)
     ax.set_title(f"section: {r.block_case}" + ("" if to_scale else " (not to scale)"),
                  fontsize=9)
     ax.set_xlabel(f"width ({units.unit('mm')}); shaded: compression zone", fontsize=SMALL)
 
 
-def _draw_strains(ax: Any, a: Assessment, eps_cu: float, frame: _Frame) -> None:
+def _draw_strains(ax: Any, a: Assessment, eps_cu: float, frame: _Frame, n: Notation) -> None:
     r = a.response
     assert r is not None
     depths = np.array([0.0, frame.depth])
@@ -201,12 +274,12 @@ def _draw_strains(ax: Any, a: Assessment, eps_cu: float, frame: _Frame) -> None:
     span = max(abs(strains).max(), eps_cu)
     ax.set_xlim(-1.15 * span, 1.15 * span)
     ax.xaxis.set_major_locator(MaxNLocator(5))
-    ax.set_title(f"strains: c = {frame.units.length(r.c)}, εt = {r.net_tensile_strain:.4g}",
-                 fontsize=9)
+    ax.set_title(f"strains: {n.neutral_axis} = {frame.units.length(r.c)}, "
+                 f"{n.strain} = {r.net_tensile_strain:.4g}", fontsize=9)
     ax.set_xlabel("strain (shortening positive)", fontsize=SMALL)
 
 
-def _draw_stresses(ax: Any, a: Assessment, law: Any, frame: _Frame) -> None:
+def _draw_stresses(ax: Any, a: Assessment, law: Any, frame: _Frame, n: Notation) -> None:
     """Concrete stress over the depth; every resultant force as an arrow to one scale."""
     r = a.response
     assert r is not None
@@ -237,7 +310,8 @@ def _draw_stresses(ax: Any, a: Assessment, law: Any, frame: _Frame) -> None:
                         ha="center", va="bottom", fontsize=SMALL, color=color)
     ax.axvline(0, color="black", lw=0.6)
     ax.set_xlim(-1.1 * peak, 1.25 * peak)
-    ax.set_title(f"stresses and forces: Mn = {units.moment(r.nominal_moment)}", fontsize=9)
+    ax.set_title(f"stresses and forces: {n.nominal} = {units.moment(r.nominal_moment)}",
+                 fontsize=9)
     ax.set_xlabel(f"concrete stress ({units.unit('MPa')}); arrows: forces to one scale",
                   fontsize=SMALL)
 
@@ -245,31 +319,48 @@ def _draw_stresses(ax: Any, a: Assessment, law: Any, frame: _Frame) -> None:
 # --- editions compared ---------------------------------------------------------------------
 
 def utilisation_figure(outcomes: Sequence[Outcome]) -> Figure:
-    """The governing utilisation of one beam under each edition, with what governs."""
-    assessed = [(o, o.assessment) for o in outcomes if o.assessment is not None]
-    if not assessed:
-        raise ValueError("no assessed edition to draw")
-    beam = assessed[0][0].entry.beam
-    height = 1.3 + 0.45 * len(assessed)
+    """The governing utilisation of one beam under each edition, with what governs; an
+    edition that refused the beam (not assessed, outside its scope, no equilibrium)
+    keeps its row, hatched and marked with the reason."""
+    if not outcomes:
+        raise ValueError("no edition to draw")
+    beam = outcomes[0].entry.beam
+    height = 1.3 + 0.45 * len(outcomes)
     figure = Figure(figsize=(8.5, height))
     ax = figure.add_axes((1.6 / 8.5, 0.75 / height, 6.7 / 8.5, (height - 1.25) / height))
-    labels, values, colors, notes = [], [], [], []
-    for o, a in assessed:
-        check = a.governing
+    labels, values, colors, notes, refused = [], [], [], [], []
+    for o in outcomes:
+        a = o.assessment
+        check = a.governing if a is not None else None
         u = float(check.utilisation) if check is not None else 0.0
+        gave_verdict = a is not None and a.status in ("pass", "fail")
         labels.append(o.edition)
-        values.append(u if np.isfinite(u) else 0.0)
-        colors.append(COMPRESSION if a.passed else TENSION)
-        notes.append(f"{u:.3f} {a.status}: {check.name}" if check else a.status)
+        values.append(u if np.isfinite(u) and gave_verdict else 0.0)
+        refused.append(not gave_verdict)
+        colors.append(COMPRESSION if a is not None and a.passed
+                      else TENSION if gave_verdict else "#ffffff")
+        if a is None:
+            notes.append(f"refused: not assessed ({o.error[:60]})")
+        elif not gave_verdict:
+            notes.append(f"refused: {a.status}")
+        else:
+            notes.append(f"{u:.3f} {o.shown_status}: {check.name}" if check else o.shown_status)
     positions = np.arange(len(labels))
-    ax.barh(positions, values, color=colors, height=0.6)
+    bars = ax.barh(positions, values, color=colors, height=0.6, edgecolor="#555555")
+    for bar, no in zip(bars, refused, strict=True):
+        if no:
+            bar.set_hatch("///")
+            bar.set_width(0.05)
+            bar.set_gid("refused")
     ax.axvline(1.0, color="black", lw=1.0, ls="--")
     for y, value, note in zip(positions, values, notes, strict=True):
-        ax.annotate(note, (value, y), xytext=(4, 0), textcoords="offset points", va="center",
-                    fontsize=SMALL, bbox={"facecolor": "white", "edgecolor": "none", "pad": 1})
+        ax.annotate(note, (max(value, 0.05), y), xytext=(4, 0), textcoords="offset points",
+                    va="center", fontsize=SMALL,
+                    bbox={"facecolor": "white", "edgecolor": "none", "pad": 1})
     ax.set_yticks(positions, labels, fontsize=SMALL)
     ax.invert_yaxis()
     ax.set_xlim(0, max(1.2, max(values)) * 1.7)
-    ax.set_xlabel("governing utilisation (1.0 is the limit)", fontsize=SMALL)
+    ax.set_xlabel("governing utilisation (1.0 is the limit); hatched: the edition refused "
+                  "the beam", fontsize=SMALL)
     _caption(figure, f"{beam.id}: governing utilisation per edition")
     return figure

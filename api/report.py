@@ -1,30 +1,37 @@
-"""The engineer's report (rich): a check per beam and edition, a comparison, an audit.
+"""The engineer's report (text): a check per beam and edition, a comparison, an audit.
 
 Quantities follow each beam's unit system: kN·m, mm, MPa for SI beams; kip·ft,
-in, psi (ksi above 100 000 psi) for US customary beams. Every report ends with
-the caution. Imported only by the commands that print a report.
+in, psi (ksi above 100 000 psi) for US customary beams. Symbols follow each
+edition's own notation (``EditionInfo.notation``). Every report states the design
+situation in its header, puts the summary before the details, and ends with the
+caution. Tables that could outgrow a narrow terminal lay themselves out for the
+width they get, so the verdict and the clause are never the columns dropped.
+Imported only by the commands that print a report.
 """
 
 from __future__ import annotations
 
 import math
-from collections.abc import Sequence
-from typing import TYPE_CHECKING
+from collections import Counter
+from collections.abc import Callable, Iterable, Sequence
+from dataclasses import dataclass
+from typing import TYPE_CHECKING, Any
 
 from rich import box
-from rich.console import Group, RenderableType
-from rich.panel import Panel
+from rich.console import Console, ConsoleOptions, Group, RenderableType, RenderResult
 from rich.rule import Rule
 from rich.table import Table
 from rich.text import Text
 
+from clausewise.provisions import Notation
 from clausewise.provisions.engine import CAUTION, FAIL, PASS, Assessment
 from clausewise.provisions.hookspecs import HOOKS, TOPICS
 from clausewise.provisions.registry import TopicAnswer
 from clausewise.provisions.verdicts import ERROR
 from clausewise.provisions.vocabulary import Check, Clause, Envelope, Factor, Sense
 from clausewise.provisions.widths import OverhangEnvelope
-from clausewise.results import Outcome, Units, number
+from clausewise.results import Outcome, Units, convert, number
+from clausewise.results.running import CAPACITY_ONLY
 
 if TYPE_CHECKING:
     from pathlib import Path
@@ -33,9 +40,17 @@ if TYPE_CHECKING:
     from clausewise.provisions.registry import Edition, PluginRecord, Registry
     from clausewise.stream import Summary as BatchSummary
 
-STATUS_STYLE = {PASS: "bold green", FAIL: "bold red", ERROR: "bold magenta"}
-SAME_CYLINDER = ("f'c of the ACI, CSA and AS editions and fck of EN 1992-1-1 are taken as the "
-                 "same specified cylinder strength; IS 456 converts it to cube strength.")
+STATUS_STYLE = {PASS: "bold green", FAIL: "bold red", ERROR: "bold magenta",
+                CAPACITY_ONLY: "bold cyan"}
+# one character per status in the comparison's cells (the legend spells them out)
+STATUS_MARK = {PASS: "✓", FAIL: "✗", "outside scope": "⊘", "no equilibrium": "?",
+               ERROR: "!", CAPACITY_ONLY: "○"}
+# short codes of the governing check, by words of its name (first match wins)
+CHECK_CODES = (("flexural strength", "M"), ("minimum strength", "Mmin"),
+               ("minimum", "min"), ("maximum", "max"), ("steel ratio", "ρ"),
+               ("net tensile strain", "εt"), ("neutral-axis", "x/d"))
+SCOPE_CODE = "scope"
+NARROW = 100  # below this many columns, tables take their compact layout
 
 
 def _units(outcome: Outcome) -> Units:
@@ -52,6 +67,31 @@ def _where(clause: Clause, edition: str = "") -> str:
         else clause.ref
 
 
+def say(symbol: str, notation: Notation) -> str:
+    """The engine's neutral symbol in the edition's own notation."""
+    return {"M_Rd": notation.resistance, "M_Ed": notation.demand, "Mn": notation.nominal,
+            "c": notation.neutral_axis, "εt": notation.strain}.get(symbol, symbol)
+
+
+def input_label(label: str, notation: Notation) -> str:
+    """An input's label in the edition's symbols (a cylinder strength keeps its own name
+    under an edition that works in cube strength, and the other way round)."""
+    if label == "f'c":
+        return "cylinder strength f'c" if notation.cube else notation.concrete
+    if label == "fck,cube":
+        return notation.concrete if notation.cube else "cube strength fck,cube"
+    return notation.steel if label == "fy" else label
+
+
+def check_code(check: Check, in_scope: bool = True) -> str:
+    """A short code for a check (a scope check is ``scope``)."""
+    if not in_scope:
+        return SCOPE_CODE
+    name = check.name.lower()
+    return next((code for words, code in CHECK_CODES if words in name),
+                "".join(w[0] for w in name.split())[:3])
+
+
 def utilisation_bar(u: float, width: int = 10) -> Text:
     """The utilisation as a number and a bar that fills at 1.0."""
     if not math.isfinite(u):
@@ -64,9 +104,10 @@ def utilisation_bar(u: float, width: int = 10) -> Text:
     return bar
 
 
-def caution() -> Panel:
-    return Panel(Text(CAUTION), title="caution", title_align="left", border_style="yellow",
-                 box=box.HEAVY)
+def caution() -> Text:
+    text = Text("CAUTION: ", style="bold yellow")
+    text.append(CAUTION)
+    return text
 
 
 def _row(table: Table, *cells: RenderableType) -> None:
@@ -83,10 +124,10 @@ def two_lines(main: str, sub: str) -> Text:
 
 
 def _facts() -> Table:
-    """Two borderless columns: a dim label and its value."""
+    """Two borderless columns: a dim label and its value (the value wraps)."""
     table = Table.grid(padding=(0, 2))
-    table.add_column(style="dim")
-    table.add_column()
+    table.add_column(style="dim", no_wrap=True)
+    table.add_column(ratio=1, overflow="fold")
     return table
 
 
@@ -94,23 +135,45 @@ def _sign(sense: Sense) -> str:
     return "≤" if sense is Sense.AT_MOST else "≥"
 
 
+@dataclass(frozen=True)
+class ByWidth:
+    """A renderable built for the width it is given (a narrow terminal gets the compact
+    layout instead of a table rich would have to crop)."""
+
+    build: Callable[[int], RenderableType]
+
+    def __rich_console__(self, console: Console, options: ConsoleOptions) -> RenderResult:
+        yield self.build(options.max_width)
+
+
+def _heading(text: str) -> Text:
+    return Text(text, style="bold")
+
+
 # --- one beam under one edition ------------------------------------------------------------
 
-def _inputs_table(outcome: Outcome, pairs: int = 1) -> Table:
-    """The inputs as written, in ``pairs`` side-by-side label/value columns."""
-    items = list(outcome.entry.shown.items())
-    rows = -(-len(items) // pairs)
-    table = Table(box=None, show_header=False, pad_edge=False, padding=(0, 2, 0, 0))
-    for _ in range(pairs):
-        table.add_column(style="dim")
-        table.add_column(ratio=1)
-    for i in range(rows):
-        cells = [text for label_value in items[i::rows] for text in label_value]
-        _row(table, *cells, *[""] * (2 * pairs - len(cells)))
-    return table
+def _inputs_table(outcome: Outcome, pairs: int = 1) -> RenderableType:
+    """The inputs as written, in ``pairs`` side-by-side label/value columns where the
+    width allows (one pair on a narrow terminal)."""
+    items = [(input_label(k, outcome.notation), v) for k, v in outcome.entry.shown.items()]
+
+    def build(width: int) -> Table:
+        n = pairs if width >= NARROW else 1
+        rows = -(-len(items) // n)
+        table = Table(box=None, show_header=False, pad_edge=False, padding=(0, 2, 0, 0))
+        for _ in range(n):
+            table.add_column(style="dim", no_wrap=True)
+            table.add_column(ratio=1, overflow="fold")
+        for i in range(rows):
+            cells = [text for label_value in items[i::rows] for text in label_value]
+            _row(table, *cells, *[""] * (2 * n - len(cells)))
+        return table
+
+    return ByWidth(build)
 
 
-def _findings_table(a: Assessment, units: Units) -> Table:
+def _findings_table(outcome: Outcome, a: Assessment, units: Units) -> Table:
+    n = outcome.notation
     table = _facts()
     if a.effective_width is not None:
         e = a.effective_width
@@ -121,60 +184,77 @@ def _findings_table(a: Assessment, units: Units) -> Table:
     r = a.response
     if r is not None:
         _row(table, "compression zone", f"{r.block_case}; depth {units.length(r.zone_depth)}")
-        _row(table, "neutral axis", f"c = {units.length(r.c)}, c/d = {number(r.c_over_d, 3)}")
-        _row(table, "net tensile strain", f"εt = {number(r.net_tensile_strain, 3)}")
+        _row(table, "neutral axis", f"{n.neutral_axis} = {units.length(r.c)}, "
+             f"{n.neutral_axis}/d = {number(r.c_over_d, 3)}")
+        _row(table, "net tensile strain", f"{n.strain} = {number(r.net_tensile_strain, 3)}")
     if a.resistance is not None:
         f, regime = a.resistance.factor, a.resistance.regime
         _row(table, "regime", f"{regime.name} [{_where(regime.clause, a.edition_id)}]")
         _row(table, "resistance factor", f"{f.symbol} = {number(f.value, 3)}")
-    if r is not None:
-        _row(table, "nominal moment", f"Mn = {units.moment(r.nominal_moment)}")
+    if r is not None and n.nominal != n.resistance:
+        _row(table, "nominal moment", f"{n.nominal} = {units.moment(r.nominal_moment)}")
     if a.design_resistance is not None:
         _row(table, "design resistance",
-             Text(f"{a.design_resistance.symbol} = "
-                  f"{units.moment(a.design_resistance.value)}", style="bold"))
+             Text(f"{n.resistance} = {units.moment(a.design_resistance.value)}",
+                  style="bold"))
     if a.demand is not None:
         _row(table, "design moment",
-             Text(f"{a.demand.symbol} = {units.moment(a.demand.value)} "
+             Text(f"{n.demand} = {units.moment(a.demand.value)} "
                   f"({a.demand.governing_candidate.label} governs)", style="bold"))
     else:
-        _row(table, "design moment", "none given: capacity only")
+        _row(table, "design moment", Text(f"none given: {CAPACITY_ONLY}", style="cyan"))
     return table
 
 
 def checks_table(checks: Sequence[Check], units: Units, edition: str, title: str = "checks",
-                 notes: bool = False) -> RenderableType:
+                 notes: bool = False, notation: Notation | None = None) -> RenderableType:
     """Each check with its value, limit, utilisation, verdict and clause (its supplier
-    named when not ``edition``); with ``notes`` the checks' notes follow as footnotes."""
-    table = Table(title=title or None, title_justify="left", title_style="bold",
-                  box=box.SIMPLE_HEAD, pad_edge=False)
-    table.add_column("check", min_width=22)
-    table.add_column("value", justify="right", no_wrap=True)
-    table.add_column("limit", justify="right", no_wrap=True)
-    table.add_column("utilisation", no_wrap=True)
-    table.add_column("result", no_wrap=True)
-    table.add_column("clause", min_width=18)
+    named when not ``edition``); with ``notes`` the checks' notes follow as footnotes.
+    On a narrow terminal the utilisation loses its bar and the clause its title, never
+    the verdict or the clause reference."""
+    n = notation or Notation()
     footnotes = Text(style="dim")
-    marker = 0
+    names: list[Text] = []
     for c in checks:
         name = Text(c.name)
         if notes and c.note:
-            marker += 1
+            marker = len(footnotes.plain.splitlines()) + 1
             name.append(f" [{marker}]", style="dim")
             footnotes.append(f"[{marker}] {c.name}: {c.note}\n")
-        symbol = f"{c.symbol} " if c.symbol else ""
-        _row(table, name, f"{symbol}{units.value(c.value, c.unit)}",
-             f"{_sign(c.sense)} {units.value(c.limit, c.unit)}",
-             utilisation_bar(c.utilisation), _status(PASS if c.passed else FAIL),
-             two_lines(_where(c.clause, edition), c.clause.title))
-    if not marker:
-        return table
+        names.append(name)
     footnotes.rstrip()
-    return Group(table, footnotes)
+
+    def build(width: int) -> RenderableType:
+        narrow = width < NARROW
+        table = Table(title=title or None, title_justify="left", title_style="bold",
+                      box=box.SIMPLE_HEAD, pad_edge=False, expand=narrow)
+        table.add_column("check", ratio=3, overflow="fold")
+        table.add_column("value", justify="right", overflow="fold")
+        table.add_column("limit", justify="right", overflow="fold")
+        table.add_column("utilisation" if not narrow else "util.", no_wrap=True)
+        table.add_column("result", no_wrap=True)
+        table.add_column("clause", no_wrap=narrow, overflow="fold",
+                         min_width=None if narrow else 18)  # a reference is never split
+        for c, name in zip(checks, names, strict=True):
+            symbol = f"{say(c.symbol, n)} " if c.symbol else ""
+            utilisation = (Text(number(c.utilisation, 3)) if narrow
+                           else utilisation_bar(c.utilisation))
+            clause = _where(c.clause, edition)
+            _row(table, name, f"{symbol}{units.value(c.value, c.unit)}",
+                 f"{_sign(c.sense)} {units.value(c.limit, c.unit)}",
+                 utilisation, _status(PASS if c.passed else FAIL),
+                 Text(clause) if narrow else two_lines(clause, c.clause.title))
+        return Group(table, footnotes) if footnotes else table
+
+    return ByWidth(build)
 
 
-def _verdict(a: Assessment) -> Text:
-    text = Text("▶ ", style=STATUS_STYLE.get(a.status, "bold yellow"))
+def _verdict(outcome: Outcome) -> Text:
+    a = outcome.assessment
+    assert a is not None
+    status = outcome.shown_status
+    text = Text("▶ ", style=STATUS_STYLE.get(status, "bold yellow"))
+    text.append(f"{outcome.entry.beam.id} under {a.edition_id}: ", style="bold")
     text.append(a.summary(), style="bold")
     return text
 
@@ -193,134 +273,453 @@ def _upper_layers_line(a: Assessment) -> str:
     return "; ".join(said)
 
 
-def beam_panel(outcome: Outcome) -> Panel:
-    """One beam under one edition: inputs beside findings, the checks, what governs."""
+def _beam_title(outcome: Outcome) -> str:
     beam = outcome.entry.beam
     name = f"{beam.id}" + (f" · {beam.title}" if beam.title else "")
     a = outcome.assessment
     if a is None:
-        return Panel(Text(outcome.error, style="magenta"),
-                     title=Text(f"{name} · {outcome.edition}"), title_align="left",
-                     subtitle="not assessed", border_style="magenta")
+        return f"{name} · {outcome.edition} ({outcome.situation})"
+    return f"{name} · {a.edition_id} ({a.form} form, {outcome.situation})"
+
+
+def beam_panel(outcome: Outcome) -> Group:
+    """One beam under one edition: its heading (edition, form, design situation), the
+    inputs, the findings, the checks and what governs."""
+    a = outcome.assessment
+    heading = Group(Text(""), Rule(style=STATUS_STYLE.get(outcome.shown_status, "yellow")),
+                    Text(_beam_title(outcome), style="bold"))
+    if a is None:
+        return Group(heading, Text(f"not assessed: {outcome.error}", style="magenta"))
     units = _units(outcome)
     parts: list[RenderableType] = [
-        Text("inputs", style="bold"), _inputs_table(outcome, pairs=2),
-        Text("\nsection and strength", style="bold"), _findings_table(a, units)]
+        heading, Text(f"edition stack: {_stack_line(a)}", style="dim"),
+        _heading("inputs"), _inputs_table(outcome, pairs=2),
+        _heading("\nsection and strength"), _findings_table(outcome, a, units)]
     if a.checks or a.status != PASS:
         shown = a.checks if a.checks else a.applicability
         parts += [Text(""), checks_table(shown, units, a.edition_id,
-                                         "checks" if a.checks else "scope")]
-    parts.append(_verdict(a))
+                                         "checks" if a.checks else "scope",
+                                         notation=outcome.notation)]
+    parts.append(_verdict(outcome))
     upper = _upper_layers_line(a)
     if upper:
         parts.append(Text(upper, style="dim"))
-    border = {PASS: "green", FAIL: "red"}.get(a.status, "yellow")
-    return Panel(Group(*parts), title=Text(f"{name} · {a.edition_id} ({a.form} form, "
-                 f"{outcome.situation})"), title_align="left",
-                 subtitle=Text(_stack_line(a)), subtitle_align="right", border_style=border)
+    return Group(*parts)
 
 
-def summary_table(outcomes: Sequence[Outcome]) -> Table:
-    table = Table(title="summary", title_justify="left", title_style="bold",
-                  box=box.SIMPLE_HEAD)
-    for column in ("beam", "edition", "status", "governing check", "utilisation"):
-        table.add_column(column)
-    for o in outcomes:
-        a = o.assessment
-        check = a.governing if a else None
-        _row(table, o.entry.beam.id, o.edition, _status(o.status),
-             f"{check.name} [{_where(check.clause)}]" if check else
-             Text(o.error, style="magenta"),
-             utilisation_bar(check.utilisation) if check else "")
-    return table
+def _governing(outcome: Outcome) -> tuple[Check | None, bool]:
+    """The governing check and whether it is one of the checks proper (not scope)."""
+    a = outcome.assessment
+    if a is None:
+        return None, True
+    check = a.governing
+    return check, check is not None and check in a.checks
+
+
+def summary_table(outcomes: Sequence[Outcome]) -> RenderableType:
+    """One line per beam and edition: status, utilisation and governing check."""
+    def build(width: int) -> Table:
+        table = Table(title="summary", title_justify="left", title_style="bold",
+                      box=box.SIMPLE_HEAD, pad_edge=False)
+        table.add_column("beam", no_wrap=True)
+        table.add_column("edition", no_wrap=True)
+        table.add_column("status", no_wrap=True)
+        table.add_column("util.", justify="right", no_wrap=True)
+        table.add_column("governing check", ratio=1, overflow="fold")
+        for o in outcomes:
+            check, _ = _governing(o)
+            a = o.assessment
+            governing: RenderableType = Text(o.error, style="magenta")
+            if check is not None and a is not None:
+                governing = Text(f"{check.name} [{_where(check.clause, o.edition)}]")
+            _row(table, o.entry.beam.id, o.edition, _status(o.shown_status),
+                 number(check.utilisation, 3) if check else "", governing)
+        return table
+
+    return ByWidth(build)
 
 
 def problems_table(problems: Sequence[InputProblem]) -> Table:
-    table = Table(title="beams not assessed: input problems", title_justify="left",
-                  title_style="bold magenta", box=box.SIMPLE_HEAD)
-    for column in ("beam", "field", "given", "expected"):
-        table.add_column(column)
+    table = Table(title="beams not assessed: input problems (all of them, found in one "
+                  "reading)", title_justify="left", title_style="bold magenta",
+                  box=box.SIMPLE_HEAD, pad_edge=False)
+    table.add_column("beam", no_wrap=True)
+    table.add_column("field", overflow="fold")
+    table.add_column("given", overflow="fold")
+    table.add_column("expected", ratio=1, overflow="fold")
     for p in problems:
-        _row(table, p.beam or "(no usable id)", p.field, p.value or "(missing)", p.expected)
+        _row(table, p.beam or "(file)", p.field, p.value or "(missing)", p.expected)
     return table
 
 
-def header(schedule: Schedule, what: str) -> Group:
+def header(schedule: Schedule, what: str, situation: str | None = None,
+           editions: Sequence[str] = ()) -> Group:
+    """The report's head: what it is, the project, the file, the design situation and
+    the editions."""
     p = schedule.project
     where = ", ".join(x for x in (p.building, p.town) if x)
     facts = _facts()
     for label, value in (("project", p.name), ("building", where), ("engineer", p.engineer),
-                         ("file", str(schedule.source)), ("notes", p.notes)):
+                         ("file", str(schedule.source)), ("notes", p.notes),
+                         ("design situation", situation or ""),
+                         ("editions", ", ".join(editions))):
         if value:
             _row(facts, label, value)
     return Group(Rule(Text(f"clausewise · {what}"), align="left", style="bold"), facts)
 
 
-def check_report(schedule: Schedule, outcomes: Sequence[Outcome]) -> Group:
-    """Every beam under every edition, a summary, the refused beams and the caution."""
-    parts: list[RenderableType] = [header(schedule, "flexural check")]
-    parts += [beam_panel(o) for o in outcomes]
-    if len(outcomes) > 1:
-        parts.append(summary_table(outcomes))
+def _situation(outcomes: Sequence[Outcome]) -> str:
+    return ", ".join(dict.fromkeys(o.situation for o in outcomes)) or "persistent"
+
+
+def check_report(schedule: Schedule, outcomes: Sequence[Outcome],
+                 details: bool | Iterable[str] = True) -> Group:
+    """The input problems and the summary first, then each beam's report (``details``:
+    all, none, or only those of the editions named), then the caution."""
+    editions = list(dict.fromkeys(o.edition for o in outcomes))
+    parts: list[RenderableType] = [header(schedule, "flexural check", _situation(outcomes),
+                                          editions)]
     if schedule.problems:
         parts.append(problems_table(schedule.problems))
+    shown = editions if details is True else [] if details is False else list(details)
+    if len(editions) > 1 and not shown:  # the summary at a glance: a line per beam
+        parts.append(comparison_table(outcomes, editions))
+    elif len(outcomes) > 1:
+        parts.append(summary_table(outcomes))
+    parts += [beam_panel(o) for o in outcomes if o.edition in shown]
+    if not shown:
+        parts.append(Text("Each beam's full report: give --edition ID, or --details for "
+                          "every edition.", style="dim"))
+    elif len(shown) < len(editions):
+        parts.append(Text(f"Each beam's full report is shown for {', '.join(shown)}; "
+                          "--details shows it for every edition.", style="dim"))
+    if len(outcomes) > 1 and shown:
+        parts.append(status_counts(outcomes, editions))
     parts.append(caution())
     return Group(*parts)
 
 
+def status_counts(outcomes: Sequence[Outcome], editions: Sequence[str]) -> RenderableType:
+    """Beams by status, one line per edition."""
+    counts = {e: Counter(o.shown_status for o in outcomes if o.edition == e) for e in editions}
+    statuses = [s for s in STATUS_MARK if any(c[s] for c in counts.values())]
+    table = Table(title="beams by status, per edition", title_justify="left",
+                  title_style="bold", box=box.SIMPLE_HEAD, pad_edge=False)
+    table.add_column("edition", no_wrap=True)
+    for s in statuses:
+        table.add_column(s, justify="right")
+    for e, tally in counts.items():
+        _row(table, e, *(str(tally[s]) if tally[s] else "·" for s in statuses))
+    return table
+
+
 # --- editions side by side -------------------------------------------------------------------
 
-def _cell(outcome: Outcome) -> Text:
-    """Utilisation and verdict, M_Rd and M_Ed (numbers only: the row names the unit),
-    the governing check and its clause."""
-    a = outcome.assessment
-    if a is None:
-        return Text(f"not assessed\n{outcome.error}", style="magenta")
-    check = a.governing
-    style = STATUS_STYLE.get(a.status, "bold yellow")
-    text = Text()
-    text.append(f"{check.utilisation:.3f} {a.status}" if check else a.status, style=style)
-    units = _units(outcome)
-    moment_unit = units.unit("N·mm")
-    if a.design_resistance is not None:
-        text.append(f"\nM_Rd {units.moment(a.design_resistance.value).removesuffix(moment_unit)}")
-    if a.demand is not None:
-        text.append(f"\nM_Ed {units.moment(a.demand.value).removesuffix(moment_unit)}")
-    if check is not None:
-        text.append(f"\n{check.name}", style="italic")
-        text.append(f"\n{_where(check.clause, a.edition_id)}", style="dim")
+def _cell(outcome: Outcome | None, percent: bool = False) -> Text:
+    """Utilisation, a status mark and the governing check's code: ``0.85✓M`` (or
+    ``85✓M`` in per cent, where the width is short)."""
+    if outcome is None:
+        return Text("—", style="dim")
+    status = outcome.shown_status
+    style = STATUS_STYLE.get(status, "bold yellow")
+    check, proper = _governing(outcome)
+    if check is None:
+        return Text(f"{STATUS_MARK.get(status, '?')}", style=style)
+    u = check.utilisation
+    if not math.isfinite(u):
+        shown = "∞"
+    elif percent:
+        shown = f"{100 * u:.0f}" if u < 10 else ">999"
+    else:
+        shown = f"{u:.2f}" if u < 10 else f"{u:.1f}" if u < 100 else ">99"
+    text = Text(shown)
+    text.append(STATUS_MARK.get(status, "?"), style=style)
+    text.append(check_code(check, proper), style="italic")
     return text
 
 
-def comparison_width(editions: int) -> int:
-    """Columns a comparison needs to keep each edition's cell readable."""
-    return 16 + 15 * editions
-
-
-def comparison_report(schedule: Schedule, outcomes: Sequence[Outcome],
-                      editions: Sequence[str]) -> Group:
-    """Beams as rows, editions as columns: utilisation, M_Rd, M_Ed and what governs."""
-    table = Table(title="editions side by side (governing utilisation)", title_justify="left",
-                  title_style="bold", box=box.SQUARE, show_lines=True)
-    table.add_column("beam")
-    for edition in editions:
-        table.add_column(edition)
+def _by_beam(outcomes: Sequence[Outcome]) -> dict[str, dict[str, Outcome]]:
     by_beam: dict[str, dict[str, Outcome]] = {}
     for o in outcomes:
         by_beam.setdefault(o.entry.beam.id, {})[o.edition] = o
-    for beam_id, row in by_beam.items():
-        beam = next(iter(row.values())).entry.beam
-        label = Text()
-        label.append(beam_id, style="bold")
-        if beam.title:
-            label.append(f"\n{beam.title}")
-        label.append(f"\nmoments in {Units(beam.unit_system).unit('N·mm')}", style="dim")
-        _row(table, label, *(_cell(row[e]) if e in row else Text("—") for e in editions))
-    parts: list[RenderableType] = [header(schedule, "editions compared"), table,
-                                   Text(SAME_CYLINDER, style="dim")]
+    return by_beam
+
+
+def _keys(editions: Sequence[str]) -> list[str]:
+    return [chr(ord("A") + i) if i < 26 else f"E{i + 1}" for i in range(len(editions))]
+
+
+def _legend(outcomes: Sequence[Outcome], keys: dict[str, str], percent: bool = False) -> Text:
+    """What the marks, codes and column keys of the comparison mean."""
+    text = Text(style="dim")
+    statuses = dict.fromkeys(o.shown_status for o in outcomes)
+    text.append("marks: " + ", ".join(f"{STATUS_MARK.get(s, '?')} {s}" for s in statuses))
+    codes: dict[str, str] = {}
+    for o in outcomes:
+        check, proper = _governing(o)
+        if check is not None:
+            codes.setdefault(check_code(check, proper),
+                             check.name if proper else "a scope check (outside scope)")
+    if codes:
+        text.append("\ngoverning check: " + "; ".join(f"{c} {n}" for c, n in codes.items()))
+    if keys:
+        text.append("\neditions: " + "; ".join(f"{k} {e}" for e, k in keys.items()))
+    text.append(f"\ncells: governing utilisation{' in per cent' if percent else ''}, "
+                "status mark, governing check; counts of beams at the foot")
+    return text
+
+
+def same_cylinder(outcomes: Sequence[Outcome]) -> str:
+    """How the one specified concrete strength is read by each edition compared."""
+    symbols: dict[str, list[str]] = {}
+    converts: list[str] = []
+    for o in outcomes:
+        n = o.notation
+        (converts if n.cube else symbols.setdefault(n.concrete, [])).append(o.edition)
+    read = "; ".join(f"{s} of {', '.join(dict.fromkeys(ids))}" for s, ids in symbols.items())
+    text = f"The specified cylinder strength is taken as {read}" if read else ""
+    if converts:
+        text += ("; " if text else "") + (f"{', '.join(dict.fromkeys(converts))} "
+                                          "converts it to cube strength")
+    return text + "." if text else ""
+
+
+def comparison_table(outcomes: Sequence[Outcome], editions: Sequence[str]) -> RenderableType:
+    """One line per beam, one compact cell per edition, counts per edition at the foot.
+
+    Laid out for the width it gets: utilisation in per cent when decimals do not fit,
+    letters with a legend for the edition ids when the ids do not fit, and the editions
+    split into blocks of columns as a last resort; an id or a cell is never cut."""
+    by_beam = _by_beam(outcomes)
+    statuses = [s for s in STATUS_MARK if any(o.shown_status == s for o in outcomes)]
+    counts = {s: Counter(o.edition for o in outcomes if o.shown_status == s) for s in statuses}
+    beam_width = max([6, *(len(b) for b in by_beam)])
+
+    def cells(percent: bool) -> dict[str, list[Text]]:
+        return {e: [_cell(row.get(e), percent) for row in by_beam.values()] for e in editions}
+
+    def widths(table: dict[str, list[Text]], keys: dict[str, str]) -> dict[str, int]:
+        return {e: max([len(keys.get(e, e)), *(c.cell_len for c in column),
+                        *(len(str(counts[s][e])) for s in statuses)])
+                for e, column in table.items()}
+
+    def build(width: int) -> RenderableType:
+        letters = dict(zip(editions, _keys(editions), strict=True))
+        for percent, keys in ((False, {}), (True, {}), (False, letters), (True, letters)):
+            table = cells(percent)
+            sizes = widths(table, keys)
+            if beam_width + sum(w + 1 for w in sizes.values()) <= width:
+                break
+        blocks: list[list[str]] = [[]]
+        used = beam_width
+        for e in editions:
+            if blocks[-1] and used + sizes[e] + 1 > width:
+                blocks.append([])
+                used = beam_width
+            blocks[-1].append(e)
+            used += sizes[e] + 1
+        parts: list[RenderableType] = []
+        for block in blocks:
+            grid = Table(box=box.SIMPLE_HEAD, show_edge=False, padding=(0, 0),
+                         title="editions side by side" if not parts else None,
+                         title_justify="left", title_style="bold")
+            grid.add_column("beam", no_wrap=True, min_width=beam_width)
+            for e in block:
+                grid.add_column(keys.get(e, e), no_wrap=True)
+            for i, beam_id in enumerate(by_beam):
+                grid.add_row(Text(beam_id, style="bold"), *(table[e][i] for e in block))
+            if grid.rows:
+                grid.rows[-1].end_section = True
+            for s in statuses:
+                grid.add_row(Text(f"{STATUS_MARK[s]} {s}", style="dim"),
+                             *(Text(str(counts[s][e]) if counts[s][e] else "·")
+                               for e in block))
+            parts.append(grid)
+        return Group(*parts, _legend(outcomes, keys, percent))
+
+    return ByWidth(build)
+
+
+def details_tables(outcomes: Sequence[Outcome]) -> list[RenderableType]:
+    """Per beam, one line per edition: status, utilisation, design resistance and design
+    moment in the edition's symbols, the governing check and its clause."""
+    parts: list[RenderableType] = []
+    for beam_id, row in _by_beam(outcomes).items():
+        first = next(iter(row.values()))
+        beam = first.entry.beam
+        unit = _units(first).unit("N·mm")
+        table = Table(title=f"{beam_id}" + (f" · {beam.title}" if beam.title else "")
+                      + f" (moments in {unit})", title_justify="left", title_style="bold",
+                      box=box.SIMPLE_HEAD, pad_edge=False)
+        table.add_column("edition", no_wrap=True)
+        table.add_column("status", no_wrap=True)
+        table.add_column("util.", justify="right", no_wrap=True)
+        table.add_column("resistance", justify="right", no_wrap=True)
+        table.add_column("demand", justify="right", no_wrap=True)
+        table.add_column("governing check", ratio=1, overflow="fold")
+        for edition, o in row.items():
+            a, n = o.assessment, o.notation
+            if a is None:
+                _row(table, edition, _status(ERROR), "", "", "", Text(o.error, style="magenta"))
+                continue
+            check, _ = _governing(o)
+            units = _units(o)
+
+            def moment(value: Any, symbol: str, units: Units = units) -> str:
+                if value is None:
+                    return "—"
+                return f"{symbol} {number(convert(value, 'N·mm', units.system)[0])}"
+
+            _row(table, edition, _status(o.shown_status),
+                 number(check.utilisation, 3) if check else "",
+                 moment(a.design_resistance.value if a.design_resistance else None,
+                        n.resistance),
+                 moment(a.demand.value if a.demand else None, n.demand),
+                 f"{check.name} [{_where(check.clause, edition)}]" if check else a.summary())
+        parts.append(table)
+    return parts
+
+
+def comparison_report(schedule: Schedule, outcomes: Sequence[Outcome],
+                      editions: Sequence[str], details: bool = False) -> Group:
+    """Beams as rows, editions as columns, one compact cell each; with ``details`` a
+    table per beam with the moments and what governs."""
+    parts: list[RenderableType] = [
+        header(schedule, "editions compared", _situation(outcomes), editions)]
     if schedule.problems:
         parts.append(problems_table(schedule.problems))
-    parts.append(caution())
+    parts.append(comparison_table(outcomes, editions))
+    if details:
+        parts += details_tables(outcomes)
+    else:
+        parts.append(Text("--details: the moments and the governing clause of every cell",
+                          style="dim"))
+    parts += [Text(same_cylinder(outcomes), style="dim"), caution()]
+    return Group(*parts)
+
+
+# --- from one edition to another ---------------------------------------------------------------
+
+@dataclass(frozen=True)
+class Change:
+    """One beam whose verdict moves between two editions, and the drivers that differ."""
+
+    beam: str
+    before: Outcome
+    after: Outcome
+    what: tuple[str, ...]
+    causes: tuple[str, ...]
+
+
+def _drivers(outcome: Outcome) -> dict[str, tuple[str, float, str, bool]]:
+    """What sets a beam's resistance and limits, by role: (how it is named, value, unit,
+    whether it sets the resistance rather than a steel limit)."""
+    a = outcome.assessment
+    found: dict[str, tuple[str, float, str, bool]] = {}
+    if a is None:
+        return found
+    if a.resistance is not None:
+        f = a.resistance.factor
+        found["resistance factor"] = (f.symbol, float(f.value), "", True)
+    if a.effective_width is not None:
+        e = a.effective_width
+        found["effective width"] = (e.symbol, float(e.value), "mm", True)
+    for f in (*a.concrete_factors, *a.steel_factors):
+        found[f.symbol] = (f.symbol, float(f.value), f.unit, True)
+    for c in a.checks:
+        if "minimum" in c.name or "maximum" in c.name:
+            found[c.name] = (f"{c.name} {c.symbol}", float(c.limit), c.unit, False)
+    return found
+
+
+def _relative(before: float, after: float) -> float:
+    if before == after:
+        return 0.0
+    if not (math.isfinite(before) and math.isfinite(after)) or before == 0:
+        return math.inf
+    return (after - before) / abs(before)
+
+
+def causes(before: Outcome, after: Outcome, threshold: float, limits: bool = True,
+           most: int = 3) -> tuple[str, ...]:
+    """The drivers both editions have that differ by more than ``threshold`` (a fraction),
+    largest first: resistance factor, effective width, stress-block and material factors,
+    and with ``limits`` the steel limits."""
+    units = _units(before)
+    b, a = _drivers(before), _drivers(after)
+    moved: list[tuple[float, str]] = []
+    for role in b.keys() & a.keys():
+        (nb, vb, unit, sets), (na, va, _, _) = b[role], a[role]
+        change = _relative(vb, va)
+        if (sets or limits) and (abs(change) > threshold or nb != na):
+            name = nb if nb == na else f"{nb} → {na}"
+            percent = f" ({change:+.0%})" if math.isfinite(change) and change else ""
+            moved.append((abs(change) if math.isfinite(change) else 1e300,
+                          f"{name} {units.value(vb, unit)} → {units.value(va, unit)}{percent}"))
+    moved.sort(key=lambda m: -m[0])
+    found = tuple(text for _, text in moved[:most])
+    if not found:
+        own = [r for r in a if r not in b][:4]
+        found = (f"rules of {after.edition} without a counterpart: {', '.join(own)}",) \
+            if own else ()
+    return found
+
+
+def migration(outcomes: Sequence[Outcome], source: str, target: str,
+              threshold: float) -> list[Change]:
+    """The beams whose status, governing check or design resistance (by more than
+    ``threshold``, a fraction) changes from ``source`` to ``target``."""
+    changes = []
+    for beam_id, row in _by_beam(outcomes).items():
+        if source not in row or target not in row:
+            continue
+        before, after = row[source], row[target]
+        what = []
+        if before.shown_status != after.shown_status:
+            what.append(f"status {before.shown_status} → {after.shown_status}")
+        gb, ga = _governing(before)[0], _governing(after)[0]
+        if gb is not None and ga is not None and gb.name != ga.name:
+            what.append(f"governing {gb.name} → {ga.name}")
+        rb, ra = (o.assessment.design_resistance if o.assessment else None
+                  for o in (before, after))
+        if rb is not None and ra is not None:
+            change = _relative(float(rb.value), float(ra.value))
+            if abs(change) > threshold:
+                what.append(f"resistance {change:+.1%}" if math.isfinite(change)
+                            else "resistance lost")
+        if what:
+            limits = len(what) > 1 or not what[0].startswith("resistance")
+            changes.append(Change(beam_id, before, after, tuple(what),
+                                  causes(before, after, threshold, limits)))
+    return changes
+
+
+def migration_report(schedule: Schedule, outcomes: Sequence[Outcome], source: str,
+                     target: str, threshold: float) -> Group:
+    """Only the beams that change from one edition to the other, with the drivers."""
+    outcomes = [o for o in outcomes if o.edition in (source, target)]
+    changes = migration(outcomes, source, target, threshold)
+    parts: list[RenderableType] = [
+        header(schedule, f"from {source} to {target}", _situation(outcomes),
+               [source, target])]
+    if schedule.problems:
+        parts.append(problems_table(schedule.problems))
+    beams = len(_by_beam(outcomes))
+    table = Table(title=f"{len(changes)} of {beams} beams change (status, governing check, "
+                  f"or design resistance by more than {threshold:.0%})", title_justify="left",
+                  title_style="bold", box=box.SIMPLE_HEAD, pad_edge=False, show_lines=True)
+    table.add_column("beam", no_wrap=True)
+    table.add_column(source, no_wrap=True)
+    table.add_column(target, no_wrap=True)
+    table.add_column("what changes, and the drivers that differ", ratio=1, overflow="fold")
+    for c in changes:
+        text = Text("; ".join(c.what), style="bold")
+        for cause in c.causes:
+            text.append(f"\n· {cause}")
+        _row(table, Text(c.beam, style="bold"), _cell(c.before), _cell(c.after), text)
+    keys: dict[str, str] = {}
+    parts += [table, _legend([x for c in changes for x in (c.before, c.after)] or outcomes,
+                             keys), Text(same_cylinder(outcomes), style="dim"), caution()]
     return Group(*parts)
 
 
@@ -333,7 +732,7 @@ def _section(title: str) -> Rule:
 def _plain_table(*columns: str) -> Table:
     table = Table(box=box.SIMPLE_HEAD, pad_edge=False)
     for column in columns:
-        table.add_column(column)
+        table.add_column(column, overflow="fold")
     return table
 
 
@@ -400,6 +799,7 @@ def topics_report(edition: Edition) -> Group:
 
 def _parameters_table(a: Assessment) -> Table:
     table = _plain_table("parameter", "value", "meaning", "clause", "supplied by")
+    table.columns[0].no_wrap = True  # spelled as an annex file must spell it
     for p in a.parameters:
         value = (f"{number(p.value, 6)} {p.unit}".strip() if isinstance(p.value, float | int)
                  else str(p.value))
@@ -408,18 +808,19 @@ def _parameters_table(a: Assessment) -> Table:
     return table
 
 
-def _response_tables(a: Assessment, units: Units) -> list[RenderableType]:
+def _response_tables(a: Assessment, units: Units, n: Notation) -> list[RenderableType]:
     r = a.response
     if r is None:
         return []
     state = _facts()
     _row(state, "equilibrium", r.message)
     _row(state, "compression zone", f"{r.block_case}; depth {units.length(r.zone_depth)}")
-    _row(state, "neutral axis", f"c = {units.length(r.c)}; c/d = {number(r.c_over_d, 4)}; "
-         f"c/dt = {number(r.c_over_dt, 4)}")
+    x = n.neutral_axis
+    _row(state, "neutral axis", f"{x} = {units.length(r.c)}; {x}/d = {number(r.c_over_d, 4)}; "
+         f"{x}/dt = {number(r.c_over_dt, 4)}")
     _row(state, "depths", f"d = {units.length(r.effective_depth)}; "
          f"dt = {units.length(r.extreme_tension_depth)}")
-    _row(state, "net tensile strain", f"εt = {number(r.net_tensile_strain, 4)}")
+    _row(state, "net tensile strain", f"{n.strain} = {number(r.net_tensile_strain, 4)}")
     _row(state, "solver", f"{r.iterations} iterations, force residual {r.residual:.1e}")
     forces = _plain_table("concrete", "force", "depth of resultant")
     if r.overhang_force > 0:
@@ -441,24 +842,26 @@ def _response_tables(a: Assessment, units: Units) -> list[RenderableType]:
 
 def explain_report(schedule: Schedule, outcome: Outcome) -> Group:
     """The full audit trail of one beam under one edition."""
-    parts: list[RenderableType] = [header(schedule, "audit trail")]
+    parts: list[RenderableType] = [header(schedule, "audit trail", outcome.situation,
+                                          [outcome.edition])]
     a = outcome.assessment
     beam = outcome.entry.beam
     if a is None:
         parts += [beam_panel(outcome), caution()]
         return Group(*parts)
-    units = _units(outcome)
+    units, n = _units(outcome), outcome.notation
     facts = _facts()
     _row(facts, "beam", beam.id + (f" · {beam.title}" if beam.title else ""))
     _row(facts, "edition", f"{a.edition_id} · {a.edition_title}")
     _row(facts, "form", f"{a.form} ({a.form_basis})")
     _row(facts, "design situation", outcome.situation)
-    _row(facts, "status", _status(a.status))
+    _row(facts, "status", _status(outcome.shown_status))
     parts += [Text(""), facts, _section("inputs"), _inputs_table(outcome),
               _section("edition stack (base first)"), _stack_table(a),
               _section("who answered each topic"), topics_table(a.topics),
               _section("parameters and who supplied them"), _parameters_table(a),
-              _section("scope"), checks_table(a.applicability, units, a.edition_id, "", notes=True)]
+              _section("scope"), checks_table(a.applicability, units, a.edition_id, "", notes=True,
+                                              notation=n)]
     if a.effective_width is not None:
         parts += [_section(f"{a.effective_width.name} ({a.effective_width.bound} governs)"),
                   envelope_table(a.effective_width, units)]
@@ -468,11 +871,14 @@ def explain_report(schedule: Schedule, outcome: Outcome) -> Group:
         parts += [_section("material factors"),
                   factors_table((*a.concrete_factors, *a.steel_factors), units)]
     if a.response is not None:
-        parts += [_section("section at the ultimate state"), *_response_tables(a, units)]
+        parts += [_section("section at the ultimate state"), *_response_tables(a, units, n)]
     if a.resistance is not None and a.design_resistance is not None:
         res = a.resistance
+        resistance = Factor(n.resistance, a.design_resistance.value, a.design_resistance.clause,
+                            f"{res.factor.symbol} = {number(res.factor.value, 4)} times the "
+                            f"nominal moment {n.nominal}", "N·mm")
         parts += [_section("design resistance"),
-                  factors_table((res.factor, a.design_resistance), units),
+                  factors_table((res.factor, resistance), units),
                   Text(f"regime: {res.regime.name} [{_where(res.regime.clause)}] — "
                        f"{res.regime.description}"),
                   Text(f"requirement: {_where(res.requirement)} {res.requirement.title}")]
@@ -480,8 +886,9 @@ def explain_report(schedule: Schedule, outcome: Outcome) -> Group:
         parts += [_section(f"{a.demand.name} ({a.demand.bound} governs)"),
                   envelope_table(a.demand, units)]
     if a.checks:
-        parts += [_section("checks"), checks_table(a.checks, units, a.edition_id, "", notes=True)]
-    parts += [_verdict(a), caution()]
+        parts += [_section("checks"), checks_table(a.checks, units, a.edition_id, "",
+                                                   notes=True, notation=n)]
+    parts += [_verdict(outcome), caution()]
     return Group(*parts)
 
 
@@ -490,10 +897,9 @@ def explain_report(schedule: Schedule, outcome: Outcome) -> Group:
 def editions_report(registry: Registry) -> Group:
     table = Table(title="installed editions", title_justify="left", title_style="bold",
                   box=box.SIMPLE_HEAD)
-    for column in ("id", "title", "year", "extends", "forms", "distribution", "version"):
-        table.add_column(column)
-    table.columns[1].overflow = "fold"  # the title, and under it what the layer answers
-    table.columns[0].min_width = max((len(i) for i in registry.ids()), default=2)
+    table.add_column("id", no_wrap=True)
+    for column in ("title", "year", "extends", "forms", "distribution", "version"):
+        table.add_column(column, overflow="fold")
     for r in registry.records:
         if r.ok and r.info:
             _row(table, Text(r.info.id, style="bold"),
@@ -543,8 +949,9 @@ def parameters_report(edition: Edition, form: str) -> Group:
 
     table = Table(title=f"parameters of {edition.id} ({form} form)", title_justify="left",
                   title_style="bold", box=box.SIMPLE_HEAD)
-    for column in ("name", "value", "may be set to", "meaning", "clause", "supplied by"):
-        table.add_column(column)
+    table.add_column("name", no_wrap=True)  # spelled as an annex file must spell it
+    for column in ("value", "may be set to", "meaning", "clause", "supplied by"):
+        table.add_column(column, overflow="fold")
     for p in edition.parameters(Context(form=form)).values():
         allowed = (" | ".join(p.choices) if p.choices else
                    f"{p.bounds[0]:g} to {p.bounds[1]:g}" if p.bounds else "any")
@@ -557,12 +964,13 @@ def parameters_report(edition: Edition, form: str) -> Group:
 
 # --- a large schedule through the batch path ---------------------------------------------------
 
-def batch_summary(schedule: Schedule, summary: BatchSummary, out: Path | None) -> Group:
+def batch_summary(schedule: Schedule, summary: BatchSummary, out: Path | None,
+                  situation: str = "persistent") -> Group:
     """Counts by status per edition and the worst beams, after a batch run."""
     statuses = ("pass", "fail", "outside scope", "no equilibrium", "error", "refused")
     counts = Table(title="beams by status, per edition", title_justify="left",
-                   title_style="bold", box=box.SIMPLE_HEAD)
-    counts.add_column("edition")
+                   title_style="bold", box=box.SIMPLE_HEAD, pad_edge=False)
+    counts.add_column("edition", no_wrap=True)
     for status in statuses:
         counts.add_column(status, justify="right")
     for edition, tally in summary.counts.items():
@@ -570,15 +978,17 @@ def batch_summary(schedule: Schedule, summary: BatchSummary, out: Path | None) -
                                   for s in statuses))
     worst = Table(title="highest utilisation", title_justify="left", title_style="bold",
                   box=box.SIMPLE_HEAD)
-    for column in ("beam", "edition", "utilisation", "governed by"):
-        worst.add_column(column)
+    for column in ("beam", "edition", "utilisation"):
+        worst.add_column(column, no_wrap=True)
+    worst.add_column("governed by", overflow="fold")
     for utilisation, beam, edition, check in summary.worst_first():
         worst.add_row(beam, edition, _status(FAIL if utilisation > 1 else PASS).append(
             f" {utilisation:.3f}"), check)
     written = Text(f"{summary.rows:,} rows written to {out}" if out else
                    "rows not written: give --out results.csv (or .jsonl) to keep them",
                    style="dim")
-    parts: list[RenderableType] = [header(schedule, "schedule checked (batch path)"), counts,
+    parts: list[RenderableType] = [header(schedule, "schedule checked (batch path)", situation,
+                                          list(summary.counts)), counts,
                                    worst, written]
     if schedule.problems:
         parts.append(problems_table(schedule.problems))

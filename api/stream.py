@@ -20,20 +20,23 @@ from typing import IO, TYPE_CHECKING, Any
 import numpy as np
 
 from clausewise.provisions.batch import BatchTable, iter_assess_many
+from clausewise.provisions.beam import UnitSystem
 from clausewise.provisions.engine import CAUTION
 from clausewise.provisions.registry import Edition
+from clausewise.results.display import scale
+from clausewise.results.records import units_table
+from clausewise.results.writers import result_columns
 
 if TYPE_CHECKING:
     from clausewise.beamfile import Schedule
 
 REFUSED = "refused"
-KN_M = 1e6  # N·mm per kN·m
-COLUMNS = (
-    "beam", "edition", "form", "status", "M_Rd_kNm", "M_Ed_kNm", "Mn_kNm", "phi",
-    "utilisation", "governing_check", "governing_clause", "effective_width_mm",
-    "width_governed_by", "combination", "c_mm", "net_tensile_strain", "regime",
-    "block_case", "message",
-)
+
+
+def schedule_system(schedule: Schedule) -> UnitSystem:
+    """The unit system of the rows: the beams' own when they share one, else SI."""
+    systems = {entry.beam.unit_system for entry in schedule.entries}
+    return systems.pop() if len(systems) == 1 else UnitSystem.SI
 
 
 @dataclass
@@ -68,19 +71,22 @@ class Summary:
         return sorted(self.worst, reverse=True)
 
 
-def _numbers(values: Any, scale: float = 1.0, digits: int = 6) -> list[str]:
-    """A column of numbers as text, blank where there is none."""
+def _numbers(values: Any, factor: float = 1.0, digits: int = 6) -> list[str]:
+    """A column of numbers as text (``digits`` significant figures), blank where there
+    is none."""
     spec = f".{digits}g"
     return ["" if v != v else format(v, spec)  # v != v: NaN
-            for v in (np.asarray(values, float) / scale).tolist()]
+            for v in (np.asarray(values, float) * factor).tolist()]
 
 
 def _words(values: Any) -> list[str]:
     return [str(v) for v in values]
 
 
-def table_rows(table: BatchTable) -> list[tuple[str, ...]]:
-    """One CSV row per beam of a batch table (SI units: kN·m, mm), built column-wise."""
+def table_rows(table: BatchTable, system: UnitSystem = UnitSystem.SI,
+               situation: str = "persistent", stack: str = "") -> list[tuple[str, ...]]:
+    """One row per beam of a batch table in the columns of ``result_columns`` (the same
+    as check's CSV), in ``system``'s units, built column-wise."""
     width_key = next((k for k in table.governing_candidate if "width" in k), "")
     demand_key = next((k for k in table.governing_candidate if k != width_key), "")
     blank = [""] * table.size
@@ -89,38 +95,40 @@ def table_rows(table: BatchTable) -> list[tuple[str, ...]]:
         column = table.governing_candidate.get(key)
         return blank if column is None else _words(column)
 
+    moment, length = scale("N·mm", system)[0], scale("mm", system)[0]
     columns = [
         table.beam_ids, [table.edition_id] * table.size, _words(table.form),
-        _words(table.status), _numbers(table.design_resistance, KN_M),
-        _numbers(table.demand, KN_M), _numbers(table.nominal_moment, KN_M),
-        _numbers(table.resistance_factor, digits=4),
-        _numbers(table.governing_utilisation, digits=4), _words(table.governing_check),
-        _words(table.governing_clause), _numbers(table.effective_width, digits=5),
-        candidates(width_key), candidates(demand_key), _numbers(table.neutral_axis, digits=5),
-        _numbers(table.net_tensile_strain, digits=5), _words(table.regime),
-        _words(table.block_case), _words(table.message),
+        [situation] * table.size, _words(table.status),
+        _numbers(table.governing_utilisation), _words(table.governing_check),
+        _words(table.governing_clause), _numbers(table.demand, moment),
+        _numbers(table.design_resistance, moment), _numbers(table.nominal_moment, moment),
+        _numbers(table.resistance_factor), _numbers(table.effective_width, length),
+        candidates(width_key), candidates(demand_key), _numbers(table.neutral_axis, length),
+        _numbers(table.net_tensile_strain), _words(table.regime), _words(table.block_case),
+        [stack] * table.size, _words(table.message), [CAUTION] * table.size,
     ]
     return list(zip(*columns, strict=True))
 
 
 class RowWriter:
-    """CSV (caution as the first line, then a header) or JSON Lines (one object a row)."""
+    """CSV (the header first; the caution a column of every row) or JSON Lines (one
+    object a row, after one naming the caution and the columns)."""
 
-    def __init__(self, out: IO[str], kind: str) -> None:
+    def __init__(self, out: IO[str], kind: str, system: UnitSystem = UnitSystem.SI) -> None:
         self.out, self.kind = out, kind
+        self.columns = result_columns(units_table(system))
         if kind == "csv":
             self.csv = csv.writer(out, lineterminator="\n")
-            self.csv.writerow([f"# {CAUTION}"])
-            self.csv.writerow(COLUMNS)
+            self.csv.writerow(self.columns)
         else:
-            out.write(json.dumps({"caution": CAUTION, "columns": COLUMNS}) + "\n")
+            out.write(json.dumps({"caution": CAUTION, "columns": self.columns}) + "\n")
         out.flush()
 
     def write(self, rows: Sequence[Sequence[str]]) -> None:
         if self.kind == "csv":
             self.csv.writerows(rows)
         else:
-            self.out.write("".join(json.dumps(dict(zip(COLUMNS, r, strict=True))) + "\n"
+            self.out.write("".join(json.dumps(dict(zip(self.columns, r, strict=True))) + "\n"
                                    for r in rows))
         self.out.flush()
 
@@ -134,10 +142,13 @@ def stream_schedule(schedule: Schedule, editions: Sequence[Edition], form: str |
     summary = Summary()
     total = len(beams) * len(editions)
     done = 0
+    system = schedule_system(schedule)
+    stacks = {e.id: " over ".join(f"{r.info.id} {r.version} ({r.distribution})"  # type: ignore[union-attr]
+                                  for r in reversed(e.layers)) for e in editions}
     for _, table in iter_assess_many(beams, editions, form=form, situation=situation,
                                      chunk=chunk):
         if writer is not None:
-            writer.write(table_rows(table))
+            writer.write(table_rows(table, system, situation, stacks[table.edition_id]))
         summary.add(table)
         done += table.size
         if progress is not None:
@@ -146,7 +157,9 @@ def stream_schedule(schedule: Schedule, editions: Sequence[Edition], form: str |
         ids = [e.id for e in editions]
         summary.refused(ids, len({p.beam for p in schedule.problems}))
         if writer is not None:
-            writer.write([[p.beam or "?", edition_id, "", REFUSED, *[""] * 14, p.message]
+            blank = [""] * (len(writer.columns) - 7)
+            writer.write([[p.beam or "?", edition_id, "", situation, REFUSED, *blank,
+                           p.message, CAUTION]
                           for p in schedule.problems for edition_id in ids])
     return summary
 

@@ -44,6 +44,7 @@ from clausewise.provisions import (
     Envelope,
     Factor,
     MaterialModel,
+    Notation,
     Parameter,
     Parameters,
     RectangularBlock,
@@ -64,6 +65,7 @@ from clausewise.provisions.widths import OverhangRule, half_clear_distance, over
 
 INCH_POUND = "inch-pound"
 FORMS = ("SI", INCH_POUND)
+NOTATION = Notation("f'c", "fy", "c", "εt", "Mn", "φMn", "Mu")  # the family's symbols
 
 # Clause numbers by topic as 318-14 reorganised the code by member; 318-19 kept them.
 CLAUSES_2014: Mapping[str, str] = MappingProxyType({

@@ -24,7 +24,7 @@ from types import MappingProxyType
 
 import numpy as np
 
-from clausewise.plugins.aci318 import FORMS, Aci318
+from clausewise.plugins.aci318 import FORMS, NOTATION, Aci318
 from clausewise.provisions import Beam, Candidate, EditionInfo, Shape
 from clausewise.provisions.widths import OverhangRule
 
@@ -57,6 +57,7 @@ class Aci318_11(Aci318):
 
     info = EditionInfo(
         "aci318-11", "ACI 318-11 structural concrete building code", 2011, forms=FORMS,
+        notation=NOTATION,
         summary="US code; φ from the net tensile strain, flange width from the span",
     )
     clauses = CLAUSES_2011

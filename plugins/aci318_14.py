@@ -18,7 +18,7 @@ Contents
 
 from __future__ import annotations
 
-from clausewise.plugins.aci318 import FORMS, Aci318
+from clausewise.plugins.aci318 import FORMS, NOTATION, Aci318
 from clausewise.provisions import EditionInfo
 
 
@@ -27,6 +27,7 @@ class Aci318_14(Aci318):
 
     info = EditionInfo(
         "aci318-14", "ACI 318-14 structural concrete building code", 2014, forms=FORMS,
+        notation=NOTATION,
         summary="US code; φ from the net tensile strain, tension-controlled from 0.005",
     )
 

@@ -21,7 +21,7 @@ from typing import Any
 
 import numpy as np
 
-from clausewise.plugins.aci318 import FORMS, Aci318
+from clausewise.plugins.aci318 import FORMS, NOTATION, Aci318
 from clausewise.provisions import Beam, EditionInfo, Factor, Parameter, Parameters
 
 
@@ -30,6 +30,7 @@ class Aci318_19(Aci318):
 
     info = EditionInfo(
         "aci318-19", "ACI 318-19 structural concrete building code", 2019, forms=FORMS,
+        notation=NOTATION,
         summary="US code; member factor φ from the net tensile strain",
     )
 

@@ -34,6 +34,7 @@ from clausewise.provisions import (
     Factor,
     FloorLayout,
     MaterialModel,
+    Notation,
     Parameter,
     Parameters,
     RectangularBlock,
@@ -53,6 +54,7 @@ from clausewise.provisions.widths import OverhangRule, half_clear_distance, over
 EDITION = EditionInfo(
     "as3600:2018", "AS 3600-2018 concrete structures", 2018,
     summary="Australian standard; capacity reduction factor φ from kuo",
+    notation=Notation("f'c", "fsy", "dn", "εst", "Muo", "φMuo", "M*"),
 )
 clause = EDITION.clause
 LOADS = clause("AS/NZS 1170.0 4.2.2", "strength load combinations of the loading standard")

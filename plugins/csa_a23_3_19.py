@@ -32,6 +32,7 @@ from clausewise.provisions import (
     Envelope,
     Factor,
     MaterialModel,
+    Notation,
     Parameter,
     Parameters,
     RectangularBlock,
@@ -50,6 +51,7 @@ from clausewise.provisions.widths import OverhangRule, half_clear_distance, over
 EDITION = EditionInfo(
     "csa-a23.3:19", "CSA A23.3-19 design of concrete structures", 2019,
     summary="Canadian standard; material resistance factors φc and φs inside the forces",
+    notation=Notation("f'c", "fy", "c", "εs", "Mr", "Mr", "Mf"),
 )
 clause = EDITION.clause
 LOADS = clause("NBC 4.1.3.2", "load combinations of the national building code")

@@ -40,6 +40,7 @@ from clausewise.provisions import (
     Factor,
     FloorLayout,
     MaterialModel,
+    Notation,
     ParabolaRectangle,
     Parameter,
     Parameters,
@@ -61,6 +62,7 @@ EDITION = EditionInfo(
     "en1992-1-1:2004", "EN 1992-1-1:2004 concrete structures, general rules "
     "(recommended values)", 2004,
     summary="Eurocode 2; partial factors on the materials, no member factor",
+    notation=Notation("fck", "fyk", "x", "εs", "M_Rd", "M_Rd", "M_Ed"),
 )
 clause = EDITION.clause
 

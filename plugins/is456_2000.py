@@ -35,6 +35,7 @@ from clausewise.provisions import (
     Factor,
     FloorLayout,
     MaterialModel,
+    Notation,
     ParabolaRectangle,
     Parameter,
     Parameters,
@@ -52,6 +53,7 @@ from clausewise.provisions.widths import given_width, half_clear_distance
 EDITION = EditionInfo(
     "is456:2000", "IS 456:2000 plain and reinforced concrete, code of practice", 2000,
     summary="Indian code; cube strength, partial factors on the materials, xu ≤ xu,max",
+    notation=Notation("fck", "fy", "xu", "εs", "Mu,R", "Mu,R", "Mu", cube=True),
 )
 clause = EDITION.clause
 

@@ -20,6 +20,7 @@ _EXPORTS = {
     "SectionError": "clausewise.core",
     "EditionInfo": "clausewise.provisions.answers",
     "MaterialModel": "clausewise.provisions.answers",
+    "Notation": "clausewise.provisions.answers",
     "ParameterError": "clausewise.provisions.answers",
     "Parameters": "clausewise.provisions.answers",
     "Resistance": "clausewise.provisions.answers",
@@ -82,6 +83,7 @@ if TYPE_CHECKING:
     from clausewise.provisions.answers import (
         EditionInfo,
         MaterialModel,
+        Notation,
         ParameterError,
         Parameters,
         Resistance,
@@ -169,6 +171,7 @@ __all__ = [
     "MM_PER_IN",
     "MPA_PER_PSI",
     "MaterialModel",
+    "Notation",
     "ParabolaRectangle",
     "Parameter",
     "ParameterError",

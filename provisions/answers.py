@@ -11,10 +11,27 @@ from clausewise.provisions.vocabulary import Clause, Factor, Parameter, Regime
 
 
 @dataclass(frozen=True)
+class Notation:
+    """The symbols an edition's own text uses, so a report in that edition reads like it:
+    concrete and steel strengths, the neutral-axis depth, the net tensile strain, the
+    nominal moment, the design resistance and the design moment."""
+
+    concrete: str = "f'c"
+    steel: str = "fy"
+    neutral_axis: str = "c"
+    strain: str = "εt"
+    nominal: str = "Mn"
+    resistance: str = "φMn"
+    demand: str = "Mu"
+    cube: bool = False  # the concrete symbol names a cube strength (converted from cylinder)
+
+
+@dataclass(frozen=True)
 class EditionInfo:
     """Who an edition is. ``extends`` names the edition it layers over; ``forms`` the
     published forms it implements (the first is the default). Left out, ``forms`` is
-    the base's for an extending edition and ("SI",) for a base."""
+    the base's for an extending edition and ("SI",) for a base. ``notation`` likewise:
+    left out, an extending edition reads in its base's symbols."""
 
     id: str
     title: str
@@ -22,6 +39,7 @@ class EditionInfo:
     extends: str | None = None
     forms: tuple[str, ...] | None = None
     summary: str = ""
+    notation: Notation | None = None
 
     def clause(self, ref: str, title: str) -> Clause:
         """A clause of this edition (so that every value names its supplier)."""

@@ -144,3 +144,108 @@ def test_a_beam_outside_scope_has_no_section_to_draw(outcomes):
     assert outside.assessment.status == "outside scope"
     with pytest.raises(ValueError, match="no solved section"):
         drawn(outside)
+
+
+# --- every bar, the flange on its slab's side, labels apart, refused editions kept ----------
+
+BARS = """
+[[beam]]
+id = "E-1"
+shape = "L"
+web_width = "300 mm"
+overall_depth = "600 mm"
+slab_thickness = "150 mm"
+concrete_strength = "30 MPa"
+yield_strength = "500 MPa"
+tension = [{ bars = "5 x 20 mm", depth = "540 mm" }, { bars = "2 x 16 mm", depth = "525 mm" }]
+compression = [{ bars = "2 x 12 mm", depth = "50 mm" }]
+floor = { span = "6 m", clear_left = "2.4 m" }
+moments = { factored = "250 kN m" }
+
+[[beam]]
+id = "E-2"
+shape = "L"
+web_width = "300 mm"
+overall_depth = "600 mm"
+slab_thickness = "150 mm"
+concrete_strength = "30 MPa"
+yield_strength = "500 MPa"
+tension = [{ bars = "3 x 25 mm", depth = "540 mm" }]
+floor = { span = "6 m", clear_right = "2.4 m" }
+moments = { factored = "250 kN m" }
+"""
+
+
+@pytest.fixture(scope="module")
+def bar_outcomes():
+    schedule = parse_schedule(BARS, "edge.toml")
+    edition = default_registry().edition("aci318-19")
+    return {o.entry.beam.id: o for o in run(schedule, [edition], None, "persistent")}
+
+
+def bar_figure(outcome):
+    return figs.beam_figure(outcome.assessment, outcome.notation, outcome.entry.bar_groups)
+
+
+def test_every_bar_is_drawn_at_its_depth_inside_the_web(bar_outcomes):
+    from matplotlib.patches import Circle
+
+    section = bar_figure(bar_outcomes["E-1"]).axes[0]
+    bars = [p for p in section.patches if isinstance(p, Circle)]
+    assert len(bars) == 5 + 2 + 2  # the true count of every layer
+    heights = sorted({round(b.center[1], 6) for b in bars})
+    assert heights == [600 - 540, 600 - 525, 600 - 50]  # sagging: height = h - depth
+    for b in bars:  # every bar inside the web (x from the web's centre line, mm)
+        assert abs(b.center[0]) + b.radius <= 150 + 1e-9
+    bottom = sorted(b.center[0] for b in bars if round(b.center[1]) == 60)
+    assert len(bottom) == 5 and np.allclose(np.diff(bottom), np.diff(bottom)[0])  # even
+    radii = {round(b.radius, 6) for b in bars}
+    assert radii == {10.0, 8.0, 6.0}  # to scale: half of 20, 16 and 12 mm
+
+
+def test_an_l_beam_s_flange_is_drawn_on_its_slab_s_side(bar_outcomes):
+    for beam, left in (("E-1", True), ("E-2", False)):
+        section = bar_figure(bar_outcomes[beam]).axes[0]
+        flange = max(rectangles(section), key=lambda p: p.get_width())
+        web = min(rectangles(section), key=lambda p: p.get_width())
+        assert web.get_width() == pytest.approx(300)
+        if left:  # the slab is on the left: the flange ends at the web's right face
+            assert flange.get_x() + flange.get_width() == pytest.approx(150)
+            assert flange.get_x() < -150
+        else:
+            assert flange.get_x() == pytest.approx(-150)
+            assert flange.get_x() + flange.get_width() > 150
+
+
+def test_no_two_labels_overlap(bar_outcomes, outcomes):
+    """E-1's two tension layers are 15 mm apart: their labels (and strains) would
+    overlap where they were drawn; spread_labels moves them apart."""
+    from matplotlib.backends.backend_agg import FigureCanvasAgg
+
+    figures = [bar_figure(o) for o in bar_outcomes.values()]
+    figures += [drawn(outcomes[("K-1", "aci318-19")]), drawn(outcomes[("K-2", "aci318-19")])]
+    for figure in figures:
+        renderer = FigureCanvasAgg(figure).get_renderer()
+        boxes = [t.get_window_extent(renderer) for ax in figure.axes for t in ax.texts
+                 if t.get_text()]
+        assert len(boxes) >= 6
+        for i, a in enumerate(boxes):
+            for b in boxes[i + 1:]:
+                assert not a.overlaps(b), (a, b)
+
+
+def test_the_bar_chart_keeps_an_edition_that_refused_the_beam(outcomes):
+    from clausewise.results import Outcome
+
+    assessed = outcomes[("K-1", "aci318-19")]
+    refused = Outcome(assessed.entry, "broken-edition:1", error="plugin raised")
+    outside = outcomes[("K-3", "aci318-19")]  # outside scope: no verdict to draw
+    figure = figs.utilisation_figure([assessed, refused, outside])
+    ax = figure.axes[0]
+    assert [t.get_text() for t in ax.get_yticklabels()] == [
+        "aci318-19", "broken-edition:1", "aci318-19"]
+    marked = [p for p in ax.patches if p.get_gid() == "refused"]
+    assert len(marked) == 2 and all(p.get_hatch() for p in marked)
+    notes = [t.get_text() for t in ax.texts]
+    assert any(n.startswith("refused: not assessed") for n in notes)
+    assert "refused: outside scope" in notes

@@ -12,11 +12,14 @@ import tomli_w
 import clausewise
 from clausewise.beamfile import load_schedule
 from clausewise.cli import BATCH_FROM, main
-from clausewise.provisions import assess
-from clausewise.stream import COLUMNS, RowWriter, stream_schedule
+from clausewise.provisions import UnitSystem, assess
+from clausewise.results.records import units_table
+from clausewise.results.writers import result_columns
+from clausewise.stream import RowWriter, stream_schedule
 from clausewise.synthetic import schedule_document, synthetic_beams
 
 EDITIONS = ["aci318-19", "en1992-1-1:2004"]
+COLUMNS = result_columns(units_table(UnitSystem.SI))  # the synthetic beams are SI
 
 
 @pytest.fixture(scope="module")
@@ -31,9 +34,10 @@ def schedule_file(tmp_path_factory):
 def read_rows(path):
     with path.open(encoding="utf-8") as handle:
         lines = list(csv.reader(handle))
-    assert "licensed engineer" in lines[0][0]  # the caution leads the file
-    assert tuple(lines[1]) == COLUMNS
-    return [dict(zip(COLUMNS, row, strict=True)) for row in lines[2:]]
+    assert tuple(lines[0]) == COLUMNS  # the header is the first row
+    rows = [dict(zip(COLUMNS, row, strict=True)) for row in lines[1:]]
+    assert all("licensed engineer" in r["caution"] for r in rows)  # the caution in each row
+    return rows
 
 
 def test_batch_writes_every_beam_under_every_edition(schedule_file, tmp_path, capsys):
@@ -45,7 +49,7 @@ def test_batch_writes_every_beam_under_every_edition(schedule_file, tmp_path, ca
     assert len(rows) == 400 * len(EDITIONS)
     refused = [r for r in rows if r["status"] == "refused"]
     assert {r["edition"] for r in refused} == set(EDITIONS)
-    assert all("web_width" in r["message"] for r in refused)
+    assert all("web_width" in r["summary"] for r in refused)
     report = capsys.readouterr().out
     assert "beams by status, per edition" in report and "licensed engineer" in report
     assert f"{len(rows) - len(refused):,} rows written" in report
@@ -101,3 +105,17 @@ def test_check_takes_the_batch_path_for_a_large_file(schedule_file, capsys):
     assert 400 * len(clausewise.editions()) > BATCH_FROM  # enough beam-editions
     main(["check", str(schedule_file)])
     assert "schedule checked (batch path)" in capsys.readouterr().out
+
+
+def test_check_and_batch_csv_share_one_column_scheme(schedule_file, tmp_path):
+    batch_out, check_out = tmp_path / "batch.csv", tmp_path / "check.csv"
+    main(["batch", str(schedule_file), "--out", str(batch_out), "--edition", EDITIONS[1]])
+    small = tmp_path / "small.toml"
+    document = schedule_document(synthetic_beams(3, seed=5))
+    small.write_bytes(tomli_w.dumps(document).encode())
+    main(["check", str(small), "--out", str(check_out), "--edition", EDITIONS[1]])
+    batch_rows = read_rows(batch_out)
+    check_rows = read_rows(check_out)  # the same header, asserted in read_rows
+    first = next(r for r in batch_rows if r["beam"] == check_rows[0]["beam"])
+    for column in ("M_Rd_kNm", "b_eff_mm", "c_mm", "resistance_factor"):
+        assert math.isclose(float(first[column]), float(check_rows[0][column]), rel_tol=1e-5)

@@ -30,6 +30,9 @@ class BeamEntry:
 
     beam: Beam
     shown: dict[str, str]
+    # per layer (tension, then compression): bar count and largest diameter (mm), or
+    # None where the layer was given as an area; for drawing the bars
+    bar_groups: tuple[tuple[int, float] | None, ...] = ()
 
 
 @dataclass(frozen=True)
@@ -79,7 +82,9 @@ def _toml_loads(text: str, source: str) -> dict[str, Any]:
         raise InputError(f"{source}: not a valid TOML file: nested too deeply") from exc
 
 
-def _header(data: dict[str, Any], source: str, base: Path) -> ProjectInfo:
+def _header(data: dict[str, Any], source: str, base: Path
+            ) -> tuple[ProjectInfo | None, list[InputProblem]]:
+    """The project and run tables, or None with their problems."""
     unknown = [k for k in data if k not in _TOP_LEVEL]
     problems = [InputProblem(source, None, key, _text(data[key]), "no top-level table or key "
                              f"of this name{_did_you_mean(key, _TOP_LEVEL) or ''} (the file "
@@ -99,11 +104,11 @@ def _header(data: dict[str, Any], source: str, base: Path) -> ProjectInfo:
                                              f"an annex file that exists (looked for {path})"))
             annexes.append(path)
     if problems or header is None:
-        raise InputError("\n".join(p.message for p in problems), tuple(problems))
+        return None, problems
     p, run = header.project, header.run
     return ProjectInfo(p.name, p.building, p.town, p.engineer, p.notes, UnitSystem(p.units),
                        tuple(run.editions), tuple(run.require), tuple(annexes), run.form,
-                       run.situation)
+                       run.situation), []
 
 
 def _beam_id(raw: Any) -> str | None:
@@ -113,7 +118,7 @@ def _beam_id(raw: Any) -> str | None:
 
 
 def _schedule(data: dict[str, Any], source: str, base: Path) -> Schedule:
-    project = _header(data, source, base)
+    project, header_problems = _header(data, source, base)
     beams = data.get("beam")
     if not beams:
         raise InputError(f"{source}: no beams; add at least one [[beam]] table")
@@ -137,20 +142,42 @@ def _schedule(data: dict[str, Any], source: str, base: Path) -> Schedule:
             model = BeamModel.model_validate(raw)
         except ValidationError as exc:
             report(_from_pydantic(exc, _BEAM_FIELDS))
+            report(_beyond_the_shape(raw, exc, project))
             continue
         if model.id in first_seen:
             report([("id", model.id, f"an id not used by another beam (beam number "
                      f"{first_seen[model.id]} has it)")])
             continue
         first_seen[model.id] = index
-        system = _SYSTEMS[model.units] if model.units else project.unit_system
+        system = _SYSTEMS[model.units] if model.units else (
+            project.unit_system if project else UnitSystem.SI)
         reader = _BeamReader(model, system)
         beam = reader.read()
         if beam is None:
             report(reader.problems)
         else:
-            entries.append(BeamEntry(beam, reader.shown))
+            entries.append(BeamEntry(beam, reader.shown, tuple(reader.bar_groups)))
+    if project is None:  # every problem of the file at once: the header's and the beams'
+        found = [*header_problems, *problems]
+        raise InputError("\n".join(p.message for p in found), tuple(found))
     return Schedule(Path(source), project, tuple(entries), tuple(problems))
+
+
+def _beyond_the_shape(raw: dict[str, Any], exc: ValidationError,
+                      project: ProjectInfo | None) -> list[tuple[str, str, str]]:
+    """The value problems (units, ranges, bars) of a beam whose shape was refused, read
+    from the fields that were not, so that one reading finds every problem. Nothing
+    when the rest cannot be read without the refused fields."""
+    refused = {str(error["loc"][0]) for error in exc.errors() if error["loc"]}
+    try:
+        model = BeamModel.model_validate({k: v for k, v in raw.items() if k not in refused})
+    except ValidationError:
+        return []
+    system = _SYSTEMS[model.units] if model.units else (
+        project.unit_system if project else UnitSystem.SI)
+    reader = _BeamReader(model, system)
+    reader.read()
+    return [p for p in reader.problems if p[0].split(".")[0].split("[")[0] not in refused]
 
 
 @contextmanager

@@ -61,6 +61,7 @@ class _BeamReader:
         self.system = system
         self.problems: list[tuple[str, str, str]] = []
         self.shown: dict[str, str] = {}
+        self.bar_groups: list[tuple[int, float] | None] = []  # per layer, for drawing
 
     def problem(self, field: str, value: str, expected: str) -> None:
         self.problems.append((field, value, expected))
@@ -107,9 +108,12 @@ class _BeamReader:
             depth = self._layer_depth(layer, field, h, tension, symbol, face)
             if area is not None and depth is not None:
                 read.append((area[0], depth[0], f"{area[1]} {depth[1]}"))
+                self.bar_groups.append(area[2])
         return read
 
-    def _layer_area(self, layer: LayerModel, field: str) -> tuple[float, str] | None:
+    def _layer_area(self, layer: LayerModel, field: str
+                    ) -> tuple[float, str, tuple[int, float] | None] | None:
+        """(area, shown text, (bar count, largest diameter) when given as bars)."""
         if (layer.bars is None) == (layer.area is None):
             both = layer.bars is not None
             self.problem(f"{field}.area" if both else field, _text(layer.area) if both else "",
@@ -122,8 +126,9 @@ class _BeamReader:
             except QuantityError as exc:
                 self.problem(f"{field}.bars", exc.value, exc.expected)
                 return None
-            return bars.area, bars.text
-        return self.quantity(layer.area, f"{field}.area", AREA)
+            return bars.area, bars.text, (bars.count, bars.largest_diameter)
+        given = self.quantity(layer.area, f"{field}.area", AREA)
+        return None if given is None else (*given, None)
 
     def _layer_depth(self, layer: LayerModel, field: str, h: tuple[float, str] | None,
                      tension: bool, symbol: str, face: str) -> tuple[float, str] | None:

@@ -1,10 +1,11 @@
 """Results as plain data: one record per beam and edition, for JSON, TOML and CSV.
 
-Machine-readable results use one fixed set of units whatever the beam's input
-units (moments kN·m, forces kN, lengths mm, areas mm², stresses MPa), named in
-the document's ``units`` table; the inputs are kept as the engineer wrote them.
-Every record carries the edition id, the form, the stack's versions, the status,
-the governing check and the caution.
+Machine-readable results are in each beam's own unit system unless SI is asked for,
+to a stated number of significant figures; each record names its units and the
+edition's notation, and the inputs are kept as the engineer wrote them. Every record
+carries the edition id, the form, the stack's versions, the status, the governing
+check and the caution. CSV files of check, compare and batch share one column scheme
+(``writers.result_columns``).
 """
 
 from clausewise.results.display import UNITS, Units, convert, number

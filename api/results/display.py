@@ -4,28 +4,39 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass
+from functools import cache
 from typing import Any
 
-from clausewise.provisions import MM_PER_IN, MPA_PER_PSI, UnitSystem
+from clausewise.provisions import UnitSystem
 
-N_PER_KIP = 4448.2216152605  # 1000 lbf in N, exact by definition of the pound-force
-MM_PER_FT = 12 * MM_PER_IN
-
-# internal unit -> (shown unit, factor) per unit system
-_SCALES: dict[UnitSystem, dict[str, tuple[str, float]]] = {
-    UnitSystem.SI: {"N·mm": ("kN·m", 1e-6), "N": ("kN", 1e-3), "mm": ("mm", 1.0),
-                    "mm²": ("mm²", 1.0), "MPa": ("MPa", 1.0)},
-    UnitSystem.US: {"N·mm": ("kip·ft", 1 / (N_PER_KIP * MM_PER_FT)), "N": ("kip", 1 / N_PER_KIP),
-                    "mm": ("in", 1 / MM_PER_IN), "mm²": ("in²", 1 / MM_PER_IN**2),
-                    "MPa": ("psi", 1 / MPA_PER_PSI)},
+# internal unit -> shown unit per unit system, as (pint spelling, shown spelling)
+_SHOWN: dict[UnitSystem, dict[str, tuple[str, str]]] = {
+    UnitSystem.SI: {"N·mm": ("kN*m", "kN·m"), "N": ("kN", "kN"), "mm": ("mm", "mm"),
+                    "mm²": ("mm**2", "mm²"), "MPa": ("MPa", "MPa")},
+    UnitSystem.US: {"N·mm": ("kip*ft", "kip·ft"), "N": ("kip", "kip"), "mm": ("inch", "in"),
+                    "mm²": ("inch**2", "in²"), "MPa": ("psi", "psi")},
 }
+_INTERNAL = {"N·mm": "N*mm", "N": "N", "mm": "mm", "mm²": "mm**2", "MPa": "MPa"}
 UNITS = {"moment": "kN·m", "force": "kN", "length": "mm", "area": "mm²", "stress": "MPa"}
+
+
+@cache
+def scale(unit: str, system: UnitSystem) -> tuple[float, str]:
+    """The factor from an internal unit to the one shown in ``system``, from pint's
+    definitions (the inch, the pound-force), and the shown unit's name."""
+    if unit not in _INTERNAL:
+        return 1.0, unit
+    from clausewise.units import unit_registry
+
+    target, shown = _SHOWN[system][unit]
+    ureg = unit_registry()
+    return float(ureg.Quantity(1.0, _INTERNAL[unit]).to(target).magnitude), shown
 
 
 def convert(value: Any, unit: str, system: UnitSystem = UnitSystem.SI) -> tuple[float, str]:
     """An internal value (N, mm, MPa, N·mm) in the units shown for a unit system."""
-    shown, scale = _SCALES[system].get(unit, (unit, 1.0))
-    return float(value) * scale, shown
+    factor, shown = scale(unit, system)
+    return float(value) * factor, shown
 
 
 def number(value: Any, digits: int = 4) -> str:

@@ -6,10 +6,19 @@ import math
 from collections.abc import Iterable
 from typing import TYPE_CHECKING, Any
 
-from clausewise.provisions import CAUTION, Assessment, Check, Clause, Envelope, Factor
+from clausewise.provisions import (
+    CAUTION,
+    Assessment,
+    Check,
+    Clause,
+    Envelope,
+    Factor,
+    UnitSystem,
+)
 from clausewise.provisions.verdicts import ERROR
 from clausewise.provisions.widths import OverhangEnvelope
-from clausewise.results.display import UNITS, convert
+from clausewise.results.display import convert
+from clausewise.results.running import CAPACITY_ONLY
 
 if TYPE_CHECKING:
     from clausewise.beamfile import InputProblem, Schedule
@@ -17,118 +26,148 @@ if TYPE_CHECKING:
     from clausewise.results.running import Outcome
 
 INPUT_PROBLEM = "input problem"
-STATUSES = ("pass", "fail", "outside scope", "no equilibrium", ERROR)
+STATUSES = ("pass", "fail", "outside scope", "no equilibrium", ERROR, CAPACITY_ONLY)
+DIGITS = 6  # significant figures of machine-readable numbers unless asked otherwise
 
 
-def _number(value: Any) -> float | None:
-    """A finite float, or None (JSON has no NaN or infinity)."""
-    number = float(value)
-    return number if math.isfinite(number) else None
+def significant(value: float, digits: int) -> float:
+    """``value`` rounded to ``digits`` significant figures."""
+    return float(f"{value:.{digits}g}") if digits > 0 and value else value
 
 
-def _si(value: Any, unit: str) -> tuple[float | None, str]:
-    number, shown = convert(value, unit)
-    return _number(number), shown
+class _Numbers:
+    """Internal values (N, mm, MPa, N·mm) as one unit system's numbers, rounded to a
+    number of significant figures; None where a value does not exist (JSON has no NaN)."""
+
+    def __init__(self, system: UnitSystem, digits: int) -> None:
+        self.system, self.digits = system, digits
+
+    def plain(self, value: Any) -> float | None:
+        number = float(value)
+        return significant(number, self.digits) if math.isfinite(number) else None
+
+    def unit(self, value: Any, unit: str) -> tuple[float | None, str]:
+        number, shown = convert(value, unit, self.system)
+        return self.plain(number), shown
+
+    def value(self, value: Any, unit: str) -> float | None:
+        return self.unit(value, unit)[0]
+
+
+def units_table(system: UnitSystem) -> dict[str, str]:
+    """The unit of each kind of quantity in ``system``."""
+    return {kind: convert(1.0, internal, system)[1] for kind, internal in
+            (("moment", "N·mm"), ("force", "N"), ("length", "mm"), ("area", "mm²"),
+             ("stress", "MPa"))}
 
 
 def _clause(clause: Clause) -> dict[str, str]:
     return {"ref": clause.ref, "title": clause.title, "edition": clause.edition}
 
 
-def _factor(factor: Factor) -> dict[str, Any]:
-    value, unit = _si(factor.value, factor.unit)
+def _factor(factor: Factor, q: _Numbers) -> dict[str, Any]:
+    value, unit = q.unit(factor.value, factor.unit)
     return {"symbol": factor.symbol, "value": value, "unit": unit, "basis": factor.basis,
             "clause": _clause(factor.clause)}
 
 
-def _envelope(envelope: Envelope) -> dict[str, Any]:
-    value, unit = _si(envelope.value, envelope.unit)
+def _envelope(envelope: Envelope, q: _Numbers) -> dict[str, Any]:
+    value, unit = q.unit(envelope.value, envelope.unit)
     return {
         "name": envelope.name, "symbol": envelope.symbol, "bound": str(envelope.bound),
         "value": value, "unit": unit, "governing": envelope.governing_candidate.label,
         "candidates": [
-            {"label": c.label, "value": _si(c.value, envelope.unit)[0],
-             "excess": _si(envelope.excess(c), envelope.unit)[0],
+            {"label": c.label, "value": q.value(c.value, envelope.unit),
+             "excess": q.value(envelope.excess(c), envelope.unit),
              "governs": i == envelope.governing, "clause": _clause(c.clause)}
             for i, c in enumerate(envelope.candidates)],
-    } | _overhangs(envelope)
+    } | _overhangs(envelope, q)
 
 
-def _overhangs(envelope: Envelope) -> dict[str, Any]:
+def _overhangs(envelope: Envelope, q: _Numbers) -> dict[str, Any]:
     """Per slab side, the overhang and the rule that governs it (per-side width rules)."""
     if not isinstance(envelope, OverhangEnvelope):
         return {}
-    return {"overhangs": [{"side": o.side, "width": _si(o.width, "mm")[0], "rule": o.rule.label,
-                           "clause": _clause(o.clause)} for o in envelope.overhangs]}
+    return {"overhangs": [{"side": o.side, "width": q.value(o.width, "mm"),
+                           "rule": o.rule.label, "clause": _clause(o.clause)}
+                          for o in envelope.overhangs]}
 
 
-def _check(check: Check) -> dict[str, Any]:
-    value, unit = _si(check.value, check.unit)
+def _check(check: Check, q: _Numbers) -> dict[str, Any]:
+    value, unit = q.unit(check.value, check.unit)
     return {"name": check.name, "symbol": check.symbol, "value": value,
-            "limit": _si(check.limit, check.unit)[0], "unit": unit, "sense": str(check.sense),
-            "utilisation": _number(check.utilisation), "passed": bool(check.passed),
+            "limit": q.value(check.limit, check.unit), "unit": unit, "sense": str(check.sense),
+            "utilisation": q.plain(check.utilisation), "passed": bool(check.passed),
             "clause": _clause(check.clause), "note": check.note}
 
 
-def _governing(a: Assessment) -> dict[str, Any] | None:
+def _governing(a: Assessment, q: _Numbers) -> dict[str, Any] | None:
     check = a.governing
     if check is None:
         return None
-    return {"name": check.name, "utilisation": _number(check.utilisation),
+    return {"name": check.name, "utilisation": q.plain(check.utilisation),
             "clause": _clause(check.clause)}
 
 
-def _section(a: Assessment) -> dict[str, Any] | None:
+def _section(a: Assessment, q: _Numbers) -> dict[str, Any] | None:
     r = a.response
     if r is None:
         return None
     return {
         "equilibrium": r.equilibrium, "message": r.message,
-        "neutral_axis_depth": _number(r.c), "zone_depth": _number(r.zone_depth),
+        "neutral_axis_depth": q.value(r.c, "mm"), "zone_depth": q.value(r.zone_depth, "mm"),
         "block_case": r.block_case, "block_in_flange": r.block_in_flange,
-        "c_over_d": _number(r.c_over_d), "c_over_dt": _number(r.c_over_dt),
-        "net_tensile_strain": _number(r.net_tensile_strain),
-        "concrete_force": _si(r.concrete_force, "N")[0],
-        "overhang_force": _si(r.overhang_force, "N")[0],
-        "web_force": _si(r.web_force, "N")[0],
-        "nominal_moment": _si(r.nominal_moment, "N·mm")[0],
-        "layers": [{"depth": _number(s.depth), "area": _number(s.area),
-                    "strain": _number(s.strain), "stress": _number(s.stress),
-                    "force": _si(s.force, "N")[0], "yielded": s.yielded}
+        "c_over_d": q.plain(r.c_over_d), "c_over_dt": q.plain(r.c_over_dt),
+        "net_tensile_strain": q.plain(r.net_tensile_strain),
+        "concrete_force": q.value(r.concrete_force, "N"),
+        "overhang_force": q.value(r.overhang_force, "N"),
+        "web_force": q.value(r.web_force, "N"),
+        "nominal_moment": q.value(r.nominal_moment, "N·mm"),
+        "layers": [{"depth": q.value(s.depth, "mm"), "area": q.value(s.area, "mm²"),
+                    "strain": q.plain(s.strain), "stress": q.value(s.stress, "MPa"),
+                    "force": q.value(s.force, "N"), "yielded": s.yielded}
                    for s in r.layers],
     }
 
 
-def _resistance(a: Assessment) -> dict[str, Any] | None:
+def _resistance(a: Assessment, q: _Numbers) -> dict[str, Any] | None:
     if a.resistance is None or a.design_resistance is None:
         return None
-    return {"factor": _factor(a.resistance.factor), "regime": a.resistance.regime.name,
+    return {"factor": _factor(a.resistance.factor, q), "regime": a.resistance.regime.name,
             "regime_clause": _clause(a.resistance.regime.clause),
-            "design_resistance": _si(a.design_resistance.value, "N·mm")[0],
+            "design_resistance": q.value(a.design_resistance.value, "N·mm"),
             "requirement": _clause(a.resistance.requirement)}
 
 
-def record(outcome: Outcome) -> dict[str, Any]:
-    """One beam under one edition as plain data (None where a value does not exist)."""
+def record(outcome: Outcome, units: str = "beam", digits: int = DIGITS) -> dict[str, Any]:
+    """One beam under one edition as plain data (None where a value does not exist), in
+    the beam's own unit system (``units="beam"``) or in SI, to ``digits`` significant
+    figures; the record's ``units`` table names the unit of each kind of quantity."""
     entry, a = outcome.entry, outcome.assessment
+    system = UnitSystem.SI if units == "SI" else entry.beam.unit_system
+    q = _Numbers(system, digits)
+    n = outcome.notation
     base: dict[str, Any] = {
         "beam": entry.beam.id, "title": entry.beam.title, "edition": outcome.edition,
-        "situation": outcome.situation, "status": outcome.status, "caution": CAUTION,
-        "inputs": dict(entry.shown),
+        "situation": outcome.situation, "status": outcome.shown_status, "caution": CAUTION,
+        "units": units_table(system), "inputs": dict(entry.shown),
     }
     if a is None:
         return base | {"error": outcome.error}
     return base | {
         "edition_title": a.edition_title, "form": a.form, "form_basis": a.form_basis,
+        "notation": {"concrete": n.concrete, "steel": n.steel, "neutral_axis": n.neutral_axis,
+                     "strain": n.strain, "nominal": n.nominal, "resistance": n.resistance,
+                     "demand": n.demand},
         "stack": [{"id": s.id, "title": s.title, "distribution": s.distribution,
                    "version": s.version, "source": s.source} for s in a.stack],
-        "summary": a.summary(), "governing_check": _governing(a),
-        "effective_width": _envelope(a.effective_width) if a.effective_width else None,
-        "section": _section(a), "resistance": _resistance(a),
-        "demand": _envelope(a.demand) if a.demand else None,
-        "checks": [_check(c) for c in a.checks],
-        "applicability": [_check(c) for c in a.applicability],
-        "factors": [_factor(f) for f in (*a.concrete_factors, *a.steel_factors)],
+        "summary": a.summary(), "governing_check": _governing(a, q),
+        "effective_width": _envelope(a.effective_width, q) if a.effective_width else None,
+        "section": _section(a, q), "resistance": _resistance(a, q),
+        "demand": _envelope(a.demand, q) if a.demand else None,
+        "checks": [_check(c, q) for c in a.checks],
+        "applicability": [_check(c, q) for c in a.applicability],
+        "factors": [_factor(f, q) for f in (*a.concrete_factors, *a.steel_factors)],
         "parameters": [{"name": p.name, "value": p.value, "unit": p.unit,
                         "description": p.description, "supplier": p.clause.edition,
                         "clause": _clause(p.clause)} for p in a.parameters],
@@ -142,8 +181,11 @@ def problem_record(problem: InputProblem) -> dict[str, Any]:
             "value": problem.value, "expected": problem.expected, "message": problem.message}
 
 
-def document(schedule: Schedule, outcomes: Iterable[Outcome]) -> dict[str, Any]:
-    """The whole run: project, results per beam and edition, and the beams refused."""
+def document(schedule: Schedule, outcomes: Iterable[Outcome], units: str = "beam",
+             digits: int = DIGITS) -> dict[str, Any]:
+    """The whole run: project, results per beam and edition, and the beams refused.
+    ``units``: "beam" (each beam's own system, named in each record's ``units``) or
+    "SI"; numbers to ``digits`` significant figures."""
     from clausewise import __version__
 
     p = schedule.project
@@ -152,8 +194,8 @@ def document(schedule: Schedule, outcomes: Iterable[Outcome]) -> dict[str, Any]:
         "source": str(schedule.source),
         "project": {"name": p.name, "building": p.building, "town": p.town,
                     "engineer": p.engineer, "notes": p.notes},
-        "units": UNITS,
-        "results": [record(o) for o in outcomes],
+        "units": units, "digits": digits,
+        "results": [record(o, units, digits) for o in outcomes],
         "problems": [problem_record(q) for q in schedule.problems],
     }
 

@@ -6,8 +6,8 @@ from collections.abc import Iterator, Sequence
 from dataclasses import dataclass
 from typing import TYPE_CHECKING
 
-from clausewise.provisions import Assessment, ClausewiseError, assess
-from clausewise.provisions.verdicts import ERROR
+from clausewise.provisions import Assessment, ClausewiseError, Notation, assess
+from clausewise.provisions.verdicts import ERROR, PASS
 
 if TYPE_CHECKING:
     from clausewise.beamfile import BeamEntry, Schedule
@@ -23,10 +23,35 @@ class Outcome:
     assessment: Assessment | None = None
     error: str = ""
     situation: str = "persistent"
+    notation: Notation = Notation()
 
     @property
     def status(self) -> str:
         return self.assessment.status if self.assessment else ERROR
+
+    @property
+    def shown_status(self) -> str:
+        """The status as reports and counts show it: a beam that passes without any
+        action given is "capacity only", not "pass"."""
+        return shown_status(self.assessment) if self.assessment else ERROR
+
+
+CAPACITY_ONLY = "capacity only"
+
+
+def shown_status(assessment: Assessment) -> str:
+    """"capacity only" for a beam with no actions that passes its other checks."""
+    if assessment.status == PASS and assessment.demand is None:
+        return CAPACITY_ONLY
+    return assessment.status
+
+
+def notation_of(edition: Edition) -> Notation:
+    """The edition's symbols: its own, else the nearest base's, else the default."""
+    for layer in reversed(edition.layers):
+        if layer.info is not None and layer.info.notation is not None:
+            return layer.info.notation
+    return Notation()
 
 
 def run(schedule: Schedule, editions: Sequence[Edition], form: str | None,
@@ -36,13 +61,16 @@ def run(schedule: Schedule, editions: Sequence[Edition], form: str | None,
     A beam that an edition cannot assess (a broken plugin, a form the edition lacks,
     a degenerate section) becomes an outcome with the error, and the others go on.
     """
+    notations = {edition.id: notation_of(edition) for edition in editions}
     for entry in schedule.entries:
         for edition in editions:
+            notation = notations[edition.id]
             try:
                 found = assess(entry.beam, edition, form=form, situation=situation)
             except ClausewiseError as exc:
-                yield Outcome(entry, edition.id, error=str(exc), situation=situation)
+                yield Outcome(entry, edition.id, error=str(exc), situation=situation,
+                              notation=notation)
             else:
-                yield Outcome(entry, edition.id, found, situation=situation)
+                yield Outcome(entry, edition.id, found, situation=situation, notation=notation)
 
 

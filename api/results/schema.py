@@ -7,7 +7,6 @@ from typing import Any
 
 from clausewise.provisions import CAUTION
 from clausewise.provisions.verdicts import ERROR
-from clausewise.results.display import UNITS
 from clausewise.results.records import STATUSES
 
 
@@ -16,6 +15,7 @@ def _obj(properties: dict[str, Any], required: Sequence[str] = ()) -> dict[str, 
 
 
 _NUM = {"type": ["number", "null"]}
+_KINDS = ("moment", "force", "length", "area", "stress")
 _STR = {"type": "string"}
 _CLAUSE = _obj({"ref": _STR, "title": _STR, "edition": _STR}, ("ref", "title", "edition"))
 _CHECK = _obj({"name": _STR, "symbol": _STR, "value": _NUM, "limit": _NUM, "unit": _STR,
@@ -46,6 +46,8 @@ def results_schema() -> dict[str, Any]:
         "beam": _STR, "title": _STR, "edition": _STR, "edition_title": _STR,
         "situation": _STR, "status": {"enum": list(STATUSES)}, "caution": {"const": CAUTION},
         "inputs": {"type": "object", "additionalProperties": _STR},
+        "units": _obj({k: _STR for k in _KINDS}, _KINDS),
+        "notation": {"type": "object", "additionalProperties": _STR},
         "error": _STR, "form": _STR, "form_basis": _STR, "summary": _STR,
         "stack": {"type": "array", "minItems": 1, "items": _obj(
             {"id": _STR, "title": _STR, "distribution": _STR, "version": _STR,
@@ -79,7 +81,7 @@ def results_schema() -> dict[str, Any]:
             {"hook": _STR, "answered_by": {"type": "array", "items": _STR},
              "wrapped_by": {"type": "array", "items": _STR}},
             ("hook", "answered_by", "wrapped_by"))},
-    }, ("beam", "edition", "situation", "status", "caution", "inputs"))
+    }, ("beam", "edition", "situation", "status", "caution", "units", "inputs"))
     result["if"] = {"properties": {"status": {"const": ERROR}}}
     result["then"] = {"required": ["error"]}
     result["else"] = {"required": ["form", "stack", "summary", "governing_check", "checks"]}
@@ -92,7 +94,8 @@ def results_schema() -> dict[str, Any]:
             "source": _STR,
             "project": _obj({k: _STR for k in ("name", "building", "town", "engineer",
                                                 "notes")}),
-            "units": _obj({k: {"const": v} for k, v in UNITS.items()}, tuple(UNITS)),
+            "units": {"enum": ["beam", "SI"]},
+            "digits": {"type": "integer", "minimum": 1},
             "results": {"type": "array", "items": result},
             "problems": {"type": "array", "items": _obj(
                 {"file": _STR, "beam": {"type": ["string", "null"]}, "field": _STR,

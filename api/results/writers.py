@@ -29,15 +29,23 @@ def to_toml(data: dict[str, Any]) -> str:
     return tomli_w.dumps(_without_none(data))
 
 
-CSV_COLUMNS = (
-    "beam", "edition", "form", "situation", "status", "governing_check", "governing_clause",
-    "utilisation", "M_Ed_kNm", "M_Rd_kNm", "Mn_kNm", "resistance_factor", "b_eff_mm",
-    "block_case", "c_mm", "c_over_d", "net_tensile_strain", "regime", "stack", "summary",
-)
+_COLUMN_UNITS = {"kN·m": "kNm", "kip·ft": "kip_ft", "mm": "mm", "in": "in"}
+
+
+def result_columns(units: dict[str, str]) -> tuple[str, ...]:
+    """The one column scheme of every CSV of results (check, compare, batch): the unit
+    in the name of every column that has one; the caution in every row, so a file or
+    a filtered copy of it never loses it and the header stays the first row."""
+    moment, length = _COLUMN_UNITS[units["moment"]], _COLUMN_UNITS[units["length"]]
+    return ("beam", "edition", "form", "situation", "status", "utilisation",
+            "governing_check", "governing_clause", f"M_Ed_{moment}", f"M_Rd_{moment}",
+            f"Mn_{moment}", "resistance_factor", f"b_eff_{length}", "width_governed_by",
+            "combination", f"c_{length}", "net_tensile_strain", "regime", "block_case",
+            "stack", "summary", "caution")
 
 
 def csv_row(rec: dict[str, Any]) -> dict[str, Any]:
-    """One result record as a flat CSV row (blank where a value does not exist)."""
+    """One result record as a flat CSV row (None where a value does not exist)."""
     governing = rec.get("governing_check") or {}
     section = rec.get("section") or {}
     resistance = rec.get("resistance") or {}
@@ -45,38 +53,49 @@ def csv_row(rec: dict[str, Any]) -> dict[str, Any]:
     width = rec.get("effective_width") or {}
     factor = resistance.get("factor") or {}
     clause = governing.get("clause")
-    return {
-        "beam": rec["beam"], "edition": rec["edition"], "form": rec.get("form", ""),
-        "situation": rec["situation"], "status": rec["status"],
-        "governing_check": governing.get("name", ""),
-        "governing_clause": f"{clause['edition']} {clause['ref']}" if clause else "",
-        "utilisation": governing.get("utilisation"), "M_Ed_kNm": demand.get("value"),
-        "M_Rd_kNm": resistance.get("design_resistance"),
-        "Mn_kNm": section.get("nominal_moment"),
-        "resistance_factor": f"{factor['symbol']} = {factor['value']:.4g}" if factor else "",
-        "b_eff_mm": width.get("value"), "block_case": section.get("block_case", ""),
-        "c_mm": section.get("neutral_axis_depth"), "c_over_d": section.get("c_over_d"),
-        "net_tensile_strain": section.get("net_tensile_strain"),
-        "regime": resistance.get("regime", ""),
-        "stack": "; ".join(f"{s['id']} {s['version']} ({s['distribution']})"
-                           for s in rec.get("stack", ())),
-        "summary": rec.get("summary") or rec.get("error", ""),
-    }
+    values = (
+        rec["beam"], rec["edition"], rec.get("form", ""), rec["situation"], rec["status"],
+        governing.get("utilisation"), governing.get("name", ""),
+        f"{clause['edition']} {clause['ref']}" if clause else "", demand.get("value"),
+        resistance.get("design_resistance"), section.get("nominal_moment"),
+        factor.get("value"), width.get("value"), width.get("governing", ""),
+        demand.get("governing", ""), section.get("neutral_axis_depth"),
+        section.get("net_tensile_strain"), resistance.get("regime", ""),
+        section.get("block_case", ""),
+        "; ".join(f"{s['id']} {s['version']} ({s['distribution']})"
+                  for s in rec.get("stack", ())),
+        rec.get("summary") or rec.get("error", ""), rec["caution"],
+    )
+    return dict(zip(result_columns(rec["units"]), values, strict=True))
+
+
+def _cell(value: Any) -> Any:
+    """Blank for a missing value; a number as its shortest text ("420", not "420.0")."""
+    if value is None:
+        return ""
+    return format(value, ".15g") if isinstance(value, float) else value
 
 
 def to_csv(data: dict[str, Any]) -> str:
-    """One row per beam and edition, then one per refused beam; the caution is the
-    first row, so a spreadsheet shows it in its first cell."""
+    """One row per beam and edition, then one per refused beam; the header is the first
+    row and the caution is a column. Every record must share one unit system (the
+    command line asks for SI when a file mixes them)."""
+    from clausewise.provisions import CAUTION
+    from clausewise.results.display import UNITS
+
+    systems = {tuple(r["units"].items()) for r in data["results"]}
+    if len(systems) > 1:
+        raise ValueError("these results mix unit systems; a CSV needs one: use --units SI")
+    units = data["results"][0]["units"] if data["results"] else UNITS
+    columns = result_columns(units)
     out = io.StringIO()
-    writer = csv.writer(out, lineterminator="\n")
-    writer.writerow([f"# {data['caution']}"])
-    columns = csv.DictWriter(out, CSV_COLUMNS, lineterminator="\n")
-    columns.writeheader()
+    writer = csv.DictWriter(out, columns, lineterminator="\n")
+    writer.writeheader()
     for rec in data["results"]:
-        columns.writerow({k: "" if v is None else v for k, v in csv_row(rec).items()})
+        writer.writerow({k: _cell(v) for k, v in csv_row(rec).items()})
     for problem in data["problems"]:
-        columns.writerow({"beam": problem["beam"] or "", "status": INPUT_PROBLEM,
-                          "summary": problem["message"]})
+        writer.writerow({"beam": problem["beam"] or "", "status": INPUT_PROBLEM,
+                         "summary": problem["message"], "caution": CAUTION})
     return out.getvalue()
 
 
