@@ -19,7 +19,7 @@ from rich.table import Table
 from rich.text import Text
 
 from clausewise.provisions.engine import CAUTION, FAIL, PASS, Assessment
-from clausewise.provisions.verdicts import ERROR
+from clausewise.provisions.verdicts import ERROR, Status
 from clausewise.provisions.vocabulary import Check, Clause, Envelope, Factor, Sense
 from clausewise.results import Outcome, Units, number
 
@@ -496,7 +496,7 @@ def parameters_report(edition: Edition, form: str) -> Group:
 
 def batch_summary(schedule: Schedule, summary: BatchSummary, out: Path | None) -> Group:
     """Counts by status per edition and the worst beams, after a batch run."""
-    statuses = ("pass", "fail", "outside scope", "no equilibrium", "error", "refused")
+    statuses = (*Status, "refused")
     counts = Table(title="beams by status, per edition", title_justify="left",
                    title_style="bold", box=box.SIMPLE_HEAD)
     counts.add_column("edition")

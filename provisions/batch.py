@@ -23,16 +23,9 @@ from numpy.typing import NDArray
 
 from clausewise.core.errors import ClausewiseError
 from clausewise.provisions.beam import Actions, Beam, Context, FloorLayout, Layer
-from clausewise.provisions.engine import (
-    ERROR,
-    FAIL,
-    NO_EQUILIBRIUM,
-    OUT_OF_SCOPE,
-    PASS,
-    evaluate,
-    resolve_form,
-)
+from clausewise.provisions.engine import evaluate, resolve_form
 from clausewise.provisions.registry import Edition, Registry, default_registry
+from clausewise.provisions.verdicts import ERROR, governing, status
 
 _NUMERIC_PARTS = (Beam, FloorLayout, Actions, Layer)
 
@@ -201,41 +194,29 @@ def _floats(value: Any, n: int) -> NDArray[np.float64]:
     return np.array(np.broadcast_to(np.asarray(value, dtype=float), (n,)), dtype=float)
 
 
-def _block_cases(response: Any) -> NDArray[np.str_]:
-    labels = response.labels
-    if len(labels) == 1:
-        return _texts("rectangular section", response.size)
-    names = np.array([f"block inside the {labels[0]}"]
-                     + [f"block enters the {label}" for label in labels[1:]], dtype=object)
-    return names[response.zone_strip]
-
-
 def _scope_table(edition: Edition, ids: list[str], form: str, checks: Sequence[Any],
                  in_scope: NDArray[np.bool_]) -> BatchTable:
     table = BatchTable.empty(edition.id, ids)
     table.form[:] = form
-    table.status[:] = np.where(in_scope, PASS, OUT_OF_SCOPE)
+    table.status[:] = status(in_scope=in_scope, equilibrium=True, checks=(),
+                             has_demand=True)  # the rows in scope are filled in later
     _record_checks(table, checks)
     table.message[:] = np.where(in_scope, "", "outside the edition's scope")
     return table
 
 
-def _record_checks(table: BatchTable, checks: Sequence[Any]) -> NDArray[np.bool_]:
-    """Every check's utilisation and the governing one (highest) per beam; whether all
-    passed."""
+def _record_checks(table: BatchTable, checks: Sequence[Any]) -> None:
+    """Every check's utilisation and the governing one (highest) per beam."""
     n = table.size
     if not checks:
-        return np.ones(n, dtype=bool)
-    util = np.array([_floats(c.utilisation, n) for c in checks])
-    worst = np.argmax(util, axis=0)
+        return
+    worst, utilisation = governing(checks, n)
     table.governing_check[:] = np.array([c.name for c in checks], dtype=object)[worst]
     table.governing_clause[:] = np.array([f"{c.clause.edition} {c.clause.ref}"
                                           for c in checks], dtype=object)[worst]
-    table.governing_utilisation[:] = util[worst, np.arange(n)]
-    for c, u in zip(checks, util, strict=True):
-        table.utilisation[c.name] = u
-    passed: NDArray[np.bool_] = np.all(util <= 1.0 + 1e-12, axis=0)
-    return passed
+    table.governing_utilisation[:] = utilisation
+    for c in checks:
+        table.utilisation[c.name] = _floats(c.utilisation, n)
 
 
 def _group_table(edition: Edition, batch: Beam, ids: list[str], context: Context) -> BatchTable:
@@ -270,12 +251,13 @@ def _group_table(edition: Edition, batch: Beam, ids: list[str], context: Context
     if ev.demand is not None:
         part.governing_candidate[ev.demand.name] = _labels(ev.demand, m)
     part.regime[:] = _texts(ev.resistance.regime.name, m)  # type: ignore[union-attr]
-    part.block_case[:] = _block_cases(resp)
+    part.block_case[:] = resp.block_cases
     for c in scope_checks:
         part.utilisation[c.name] = _floats(c.utilisation, n)[rows]
-    passed = _record_checks(part, ev.checks)
+    _record_checks(part, ev.checks)
     equilibrium = resp.equilibrium
-    part.status[:] = np.where(~equilibrium, NO_EQUILIBRIUM, np.where(passed, PASS, FAIL))
+    part.status[:] = status(in_scope=True, equilibrium=equilibrium, checks=ev.checks,
+                            has_demand=ev.demand is not None)
     part.message[:] = np.where(equilibrium, "", "no equilibrium within the laws' limits")
     if table is None:
         return part

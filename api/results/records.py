@@ -7,7 +7,7 @@ from collections.abc import Iterable
 from typing import TYPE_CHECKING, Any
 
 from clausewise.provisions import CAUTION, Assessment, Check, Clause, Envelope, Factor
-from clausewise.provisions.verdicts import ERROR
+from clausewise.provisions.verdicts import Status
 from clausewise.results.display import UNITS, convert
 
 if TYPE_CHECKING:
@@ -16,7 +16,7 @@ if TYPE_CHECKING:
     from clausewise.results.running import Outcome
 
 INPUT_PROBLEM = "input problem"
-STATUSES = ("pass", "fail", "outside scope", "no equilibrium", ERROR)
+STATUSES = tuple(Status)
 
 
 def _number(value: Any) -> float | None:
