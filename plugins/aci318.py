@@ -38,12 +38,14 @@ from clausewise.provisions import (
     Candidate,
     Check,
     Clause,
+    Combination,
     Context,
     EditionInfo,
     ElasticPlastic,
     Envelope,
     Factor,
     MaterialModel,
+    OverhangRule,
     Parameter,
     Parameters,
     RectangularBlock,
@@ -54,13 +56,15 @@ from clausewise.provisions import (
     choose,
     clamp,
     cylinder_strength,
+    factored_moment,
+    half_clear_distance,
     hookimpl,
     largest_of,
+    overhang_envelope,
+    per_beam,
     smallest_of,
     sqrt,
 )
-from clausewise.provisions.combinations import Combination, factored_moment
-from clausewise.provisions.widths import OverhangRule, half_clear_distance, overhang_envelope
 
 INCH_POUND = "inch-pound"
 FORMS = ("SI", INCH_POUND)
@@ -372,7 +376,7 @@ class Aci318:
             limit = smallest_of(required, 4.0 / 3.0 * by_analysis)
             note += (f"; waived to 4/3 of the area required by analysis where smaller "
                      f"({self.clauses['minimum_steel_waiver']})")
-        return [Check("minimum tension reinforcement", beam.tension_area, _out(limit),
+        return [Check("minimum tension reinforcement", beam.tension_area, per_beam(limit),
                       Sense.AT_LEAST, self.clause("minimum_steel", "minimum flexural "
                                                   "reinforcement"), "As", "mm²", note)]
 
@@ -390,10 +394,7 @@ class Aci318:
         if not (self.isolated_tee(beam) and beam.flange_in_compression):
             return []
         return [Check("flange thickness of an isolated T", beam.flange_thickness,
-                      _out(0.5 * np.asarray(beam.web_width, float)), Sense.AT_LEAST,
+                      per_beam(0.5 * np.asarray(beam.web_width, float)), Sense.AT_LEAST,
                       self.clause("isolated_tee", "isolated T-beam flange"), "hf", "mm",
                       "the beam is marked isolated: its flange is not part of a slab")]
 
-
-def _out(value: Any) -> Any:
-    return value if np.ndim(value) else float(value)

@@ -26,6 +26,7 @@ from clausewise.provisions import (
     Beam,
     BeamDataError,
     Check,
+    Combination,
     Context,
     Continuity,
     EditionInfo,
@@ -34,6 +35,7 @@ from clausewise.provisions import (
     Factor,
     FloorLayout,
     MaterialModel,
+    OverhangRule,
     Parameter,
     Parameters,
     RectangularBlock,
@@ -43,12 +45,14 @@ from clausewise.provisions import (
     choose,
     clamp,
     cylinder_strength,
+    factored_moment,
+    half_clear_distance,
     hookimpl,
     largest_of,
+    overhang_envelope,
+    per_beam,
     sqrt,
 )
-from clausewise.provisions.combinations import Combination, factored_moment
-from clausewise.provisions.widths import OverhangRule, half_clear_distance, overhang_envelope
 
 EDITION = EditionInfo(
     "as3600:2018", "AS 3600-2018 concrete structures", 2018,
@@ -173,7 +177,7 @@ def concrete_law(beam: Beam, params: Parameters, context: Context) -> MaterialMo
     fc = cylinder_strength(beam)
     a2, g = alpha2(fc.value), gamma(fc.value)
     eps_cu = params.value("ultimate_strain")
-    stress = Factor("α2 f'c", _out(a2.value * np.asarray(fc.value, float)), STRESS_BLOCK,
+    stress = Factor("α2 f'c", per_beam(a2.value * np.asarray(fc.value, float)), STRESS_BLOCK,
                     "block intensity", "MPa")
     return MaterialModel(
         RectangularBlock(stress.value, g.value, eps_cu),
@@ -191,7 +195,7 @@ def steel_law(beam: Beam, params: Parameters, context: Context) -> MaterialModel
                 "characteristic yield strength", "MPa"),
          Factor("Es", es, params["steel_modulus"].clause, params["steel_modulus"].description,
                 "MPa"),
-         Factor("εsy", _out(np.asarray(fsy, float) / es), clause("3.2.2", "yield strain"),
+         Factor("εsy", per_beam(np.asarray(fsy, float) / es), clause("3.2.2", "yield strain"),
                 "fsy/Es")),
     )
 
@@ -219,7 +223,7 @@ def capacity_factor(kuo: Any, ductility_class: str, params: Parameters) -> tuple
 
 def kuo_of(beam: Beam, response: Any) -> Any:
     """Neutral-axis depth over the depth of the extreme tension layer, do."""
-    return _out(response.c / np.asarray(beam.extreme_tension_depth, float))
+    return per_beam(response.c / np.asarray(beam.extreme_tension_depth, float))
 
 
 @hookimpl
@@ -245,7 +249,7 @@ def minimum_reinforcement(beam: Beam, section: Any, response: Any, params: Param
     fct = params.value("flexural_tensile_coefficient") * sqrt(cylinder_strength(beam).value)
     ratio = params.value("min_strength_ratio")
     return [Check("minimum strength in bending", response.nominal_moment,
-                  _out(ratio * section.cracking_moment(fct)), Sense.AT_LEAST,
+                  per_beam(ratio * section.cracking_moment(fct)), Sense.AT_LEAST,
                   params["min_strength_ratio"].clause, "Muo", "N·mm",
                   f"Muo at least {ratio:g} Mcr; Mcr = Z f'ct.f of the gross section with its "
                   "effective flange, neglecting shrinkage and prestress")]
@@ -258,6 +262,3 @@ def ductility_limits(beam: Beam, response: Any, params: Parameters,
                   params.value("kuo_limit"), Sense.AT_MOST, params["kuo_limit"].clause, "kuo",
                   "", "kuo = ku/do, do the depth of the extreme tension layer")]
 
-
-def _out(value: Any) -> Any:
-    return value if np.ndim(value) else float(value)

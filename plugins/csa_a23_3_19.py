@@ -25,6 +25,7 @@ import numpy as np
 from clausewise.provisions import (
     Beam,
     Check,
+    Combination,
     Context,
     Continuity,
     EditionInfo,
@@ -32,6 +33,7 @@ from clausewise.provisions import (
     Envelope,
     Factor,
     MaterialModel,
+    OverhangRule,
     Parameter,
     Parameters,
     RectangularBlock,
@@ -39,13 +41,15 @@ from clausewise.provisions import (
     Resistance,
     Sense,
     cylinder_strength,
+    factored_moment,
+    half_clear_distance,
     hookimpl,
     largest_of,
+    overhang_envelope,
+    per_beam,
     smallest_of,
     sqrt,
 )
-from clausewise.provisions.combinations import Combination, factored_moment
-from clausewise.provisions.widths import OverhangRule, half_clear_distance, overhang_envelope
 
 EDITION = EditionInfo(
     "csa-a23.3:19", "CSA A23.3-19 design of concrete structures", 2019,
@@ -165,7 +169,7 @@ def concrete_law(beam: Beam, params: Parameters, context: Context) -> MaterialMo
     stress = Factor("α1 φc f'c", a1.value * phi_c * np.asarray(fc.value, float), STRESS_BLOCK,
                     f"factored block intensity; {params.cite('phi_c')}", "MPa")
     return MaterialModel(
-        RectangularBlock(_out(stress.value), b1.value, eps_cu),
+        RectangularBlock(per_beam(stress.value), b1.value, eps_cu),
         (fc, a1, b1, Factor("φc", phi_c, params["phi_c"].clause), stress,
          Factor("εcu", eps_cu, params["ultimate_strain"].clause)),
     )
@@ -179,14 +183,14 @@ def steel_law(beam: Beam, params: Parameters, context: Context) -> MaterialModel
     # φs·fs with fs = Es·εs ≤ fy from compatibility is the same law as one with modulus
     # φs·Es and plateau φs·fy: the yield strain fy/Es is unchanged.
     return MaterialModel(
-        ElasticPlastic(_out(phi_s * np.asarray(es, float)), _out(phi_s * fy)),
+        ElasticPlastic(per_beam(phi_s * np.asarray(es, float)), per_beam(phi_s * fy)),
         (Factor("fy", beam.yield_strength, clause("8.5.1", "specified yield strength"),
                 "specified yield strength", "MPa"),
          Factor("Es", es, params["steel_modulus"].clause, params["steel_modulus"].description,
                 "MPa"),
          Factor("φs", phi_s, params["phi_s"].clause, "applied to the steel stress"),
-         Factor("φs fy", _out(phi_s * fy), params["phi_s"].clause, "factored plateau", "MPa"),
-         Factor("εy", _out(fy / es), clause("8.5.4.1", "yield strain"), "fy/Es, unfactored")),
+         Factor("φs fy", per_beam(phi_s * fy), params["phi_s"].clause, "factored plateau", "MPa"),
+         Factor("εy", per_beam(fy / es), clause("8.5.4.1", "yield strain"), "fy/Es, unfactored")),
     )
 
 
@@ -226,7 +230,7 @@ def minimum_reinforcement(beam: Beam, section: Any, response: Any, params: Param
         bt, note = np.asarray(beam.web_width, float), "bt = bw (tension zone in the web)"
     coefficient = params.value("min_steel_coefficient")
     required = coefficient * sqrt(fc) / fy * bt * np.asarray(beam.depth, float)
-    return [Check("minimum tension reinforcement", beam.tension_area, _out(required),
+    return [Check("minimum tension reinforcement", beam.tension_area, per_beam(required),
                   Sense.AT_LEAST, params["min_steel_coefficient"].clause, "As", "mm²",
                   f"{coefficient:g}√f'c/fy·bt·h with h the overall depth; {note}")]
 
@@ -236,11 +240,8 @@ def ductility_limits(beam: Beam, response: Any, params: Parameters,
                      context: Context) -> Sequence[Check]:
     k = params.value("ductility_constant")
     limit = k / (k + np.asarray(beam.yield_strength, float))
-    return [Check("neutral-axis depth ratio", _out(response.c / beam.effective_depth),
-                  _out(limit), Sense.AT_MOST, params["ductility_constant"].clause, "c/d", "",
+    return [Check("neutral-axis depth ratio", per_beam(response.c / beam.effective_depth),
+                  per_beam(limit), Sense.AT_MOST, params["ductility_constant"].clause, "c/d", "",
                   f"c from the factored forces; d to the tension steel centroid; "
                   f"limit {k:g}/({k:g} + fy)")]
 
-
-def _out(value: Any) -> Any:
-    return value if np.ndim(value) else float(value)

@@ -30,8 +30,8 @@ from clausewise.provisions import (
     Beam,
     Bending,
     BilinearHardening,
-    Candidate,
     Check,
+    Combination,
     Context,
     Continuity,
     EditionInfo,
@@ -40,6 +40,7 @@ from clausewise.provisions import (
     Factor,
     FloorLayout,
     MaterialModel,
+    OverhangRule,
     ParabolaRectangle,
     Parameter,
     Parameters,
@@ -49,13 +50,17 @@ from clausewise.provisions import (
     Sense,
     choose,
     cylinder_strength,
+    factored_moment,
+    half_clear_distance,
     hookimpl,
     input_clause,
     largest_of,
     log,
+    overhang_envelope,
+    per_beam,
     power,
+    shown,
 )
-from clausewise.provisions.widths import OverhangRule, half_clear_distance, overhang_envelope
 
 EDITION = EditionInfo(
     "en1992-1-1:2004", "EN 1992-1-1:2004 concrete structures, general rules "
@@ -67,6 +72,7 @@ clause = EDITION.clause
 NORMAL_STRENGTH_UP_TO = 50.0  # MPa: Table 3.1 and 3.1.7(3) change form above C50/60
 RECTANGULAR, PARABOLA = "rectangular", "parabola-rectangle"
 HORIZONTAL, INCLINED = "horizontal", "inclined"
+SINGLE_EXPRESSION, PAIR_OF_EXPRESSIONS = "6.10", "6.10a/b"
 SITUATIONS = {"persistent": "", "transient": "", "accidental": "_accidental"}
 
 
@@ -128,6 +134,15 @@ def edition_parameters(context: Context) -> Sequence[Parameter]:
         Parameter("dead_factor", 1.35, combination, "γG on permanent actions", (1.0, 2.0)),
         Parameter("live_factor", 1.5, combination, "γQ on the leading variable action",
                   (1.0, 2.0)),
+        Parameter("combination_rule", SINGLE_EXPRESSION, clause(
+            "EN 1990 6.4.3.2(3)", "expression 6.10, or the less favourable of 6.10a and 6.10b"),
+            f"{SINGLE_EXPRESSION} (recommended) or {PAIR_OF_EXPRESSIONS} (a national choice)",
+            choices=(SINGLE_EXPRESSION, PAIR_OF_EXPRESSIONS)),
+        Parameter("psi_0", 0.7, clause("EN 1990 Table A1.1", "combination value of imposed "
+                  "loads in buildings"), "ψ0 of the imposed load in 6.10a (0.7 for categories "
+                  "A to D; 1.0 for storage)", (0.0, 1.0)),
+        Parameter("xi", 0.85, clause("EN 1990 Table A1.2(B)", "reduction of unfavourable "
+                  "permanent actions in 6.10b"), "ξ in 6.10b", (0.5, 1.0)),
     ]
 
 
@@ -189,15 +204,15 @@ def zero_moment_distance(beam: Beam, layout: FloorLayout) -> tuple[Any, str]:
     if adjacent is None:
         adjacent, assumed = span, "; adjacent span not given, taken equal to l"
     if layout.continuity is Continuity.CANTILEVER:
-        l0 = _out(0.15 * np.asarray(adjacent, float) + span)
+        l0 = per_beam(0.15 * np.asarray(adjacent, float) + span)
         return l0, f"l0 = 0.15 l2 + l (cantilever{assumed})"
     if beam.bending is Bending.HOGGING:
-        l0 = _out(0.15 * (span + np.asarray(adjacent, float)))
+        l0 = per_beam(0.15 * (span + np.asarray(adjacent, float)))
         return l0, f"l0 = 0.15 (l1 + l2) (over a support{assumed})"
     fraction, where = {Continuity.SIMPLE: (1.0, "simple span"),
                        Continuity.END: (0.85, "end span"),
                        Continuity.INTERIOR: (0.7, "interior span")}[layout.continuity]
-    l0 = _out(fraction * span)
+    l0 = per_beam(fraction * span)
     share = "l" if fraction == 1.0 else f"{fraction:g} l"
     return l0, f"l0 = {share} ({where})"
 
@@ -210,7 +225,7 @@ def effective_flange_width(beam: Beam, params: Parameters, context: Context) -> 
         l0 = np.asarray(l0, float)
         half_clear = half_clear_distance(beam)
         width = clause("5.3.2.1(3)", "effective width of each overhang")
-        basis = f"l0 = {_show(l0)} mm"
+        basis = f"l0 = {shown(l0, '.6g')} mm"
         rules = [
             OverhangRule(f"0.2bi + 0.1l0 with {how}", tuple(
                 None if bi is None else 0.2 * bi + 0.1 * l0 for bi in half_clear), width,
@@ -260,7 +275,7 @@ def tensile_strength(fck: Any) -> tuple[Factor, Factor]:
     fcm = np.asarray(fck, float) + 8.0
     normal = np.asarray(fck, float) <= NORMAL_STRENGTH_UP_TO
     fctm = choose(normal, 0.30 * power(fck, 2.0 / 3.0), 2.12 * log(1.0 + fcm / 10.0))
-    return (Factor("fcm", _out(fcm), table, "fck + 8 MPa", "MPa"),
+    return (Factor("fcm", per_beam(fcm), table, "fck + 8 MPa", "MPa"),
             Factor("fctm", fctm, table, "0.30 fck^(2/3) up to C50/60, else "
                    "2.12 ln(1 + fcm/10)", "MPa"))
 
@@ -281,14 +296,14 @@ def concrete_law(beam: Beam, params: Parameters, context: Context) -> MaterialMo
     alpha = params["alpha_cc"]
     alpha_cc = Factor("αcc", alpha.value, alpha.clause, params.cite("alpha_cc"))
     gamma_c = partial_factor(params, "c", context)
-    fcd = Factor("fcd", _out(alpha.value * np.asarray(fck.value, float) / gamma_c.value),
+    fcd = Factor("fcd", per_beam(alpha.value * np.asarray(fck.value, float) / gamma_c.value),
                  clause("3.1.6(1)", "design compressive strength"),
                  f"αcc fck/γc with {params.cite('alpha_cc')}, "
                  f"{params.cite(partial_factor_name('c', context))}", "MPa")
     if params.choice("concrete_model") == RECTANGULAR:
         depth, intensity = block_factors(fck.value)
         eps_cu3 = ultimate_strain(fck.value, "εcu3")
-        stress = Factor("η fcd", _out(intensity.value * np.asarray(fcd.value, float)),
+        stress = Factor("η fcd", per_beam(intensity.value * np.asarray(fcd.value, float)),
                         clause("3.1.7(3)", "rectangular stress block"), "η times fcd", "MPa")
         law: Any = RectangularBlock(stress.value, depth.value, eps_cu3.value)
         shape: tuple[Factor, ...] = (depth, intensity, eps_cu3, stress)
@@ -306,9 +321,9 @@ def steel_law(beam: Beam, params: Parameters, context: Context) -> MaterialModel
     gamma_s = partial_factor(params, "s", context)
     es = beam.steel_modulus if beam.steel_modulus is not None else params.value("steel_modulus")
     diagram = clause("3.2.7(2)", "design diagram of reinforcement")
-    fyd = Factor("fyd", _out(fyk / gamma_s.value), diagram,
+    fyd = Factor("fyd", per_beam(fyk / gamma_s.value), diagram,
                  f"fyk/γs with {params.cite(partial_factor_name('s', context))}", "MPa")
-    eps_yd = Factor("εyd", _out(np.asarray(fyd.value) / es), diagram, "fyd/Es")
+    eps_yd = Factor("εyd", per_beam(np.asarray(fyd.value) / es), diagram, "fyd/Es")
     factors = (Factor("fyk", beam.yield_strength, input_clause("characteristic yield strength"),
                       "as specified", "MPa"),
                gamma_s, fyd,
@@ -321,7 +336,7 @@ def steel_law(beam: Beam, params: Parameters, context: Context) -> MaterialModel
     k, eps_uk = params.value("steel_k"), params.value("steel_eps_uk")
     eps_ud = Factor("εud", params.value("eps_ud_ratio") * eps_uk, params["eps_ud_ratio"].clause,
                     f"{params.cite('eps_ud_ratio')} times {params.cite('steel_eps_uk')}")
-    slope = Factor("Es,h", _out((k - 1.0) * np.asarray(fyd.value) / (eps_uk - eps_yd.value)),
+    slope = Factor("Es,h", per_beam((k - 1.0) * np.asarray(fyd.value) / (eps_uk - eps_yd.value)),
                    diagram, f"from (εyd, fyd) to (εuk, k fyd) with {params.cite('steel_k')}",
                    "MPa")
     return MaterialModel(BilinearHardening(es, fyd.value, slope.value, eps_ud.value),
@@ -345,21 +360,22 @@ def resistance_factor(beam: Beam, response: Any, params: Parameters,
 
 @hookimpl
 def design_actions(beam: Beam, params: Parameters, context: Context) -> Envelope | None:
-    a = beam.actions
-    if a.factored is not None:
-        return Envelope.largest("design moment", "M_Ed", [
-            Candidate("as given", a.factored, input_clause("design moment as given"))], "N·mm")
-    if a.dead is None and a.live is None:
-        return None
-    dead = np.asarray(a.dead if a.dead is not None else 0.0, float)
-    live = np.asarray(a.live if a.live is not None else 0.0, float)
+    """EN 1990 6.10, or the less favourable of 6.10a and 6.10b (its national choice)."""
     g, q = params.value("dead_factor"), params.value("live_factor")
-    label = f"{g:g}G + {q:g}Q"
+    rule = params["dead_factor"].clause
+    if params.choice("combination_rule") == SINGLE_EXPRESSION:
+        combinations = [Combination(g, q, rule)]
+    else:
+        psi, xi = params.value("psi_0"), params.value("xi")
+        pair = params["combination_rule"].clause
+        combinations = [Combination(g, psi * q, pair, f"{g:g}G + {psi:g}×{q:g}Q (6.10a)"),
+                        Combination(xi * g, q, pair, f"{xi:g}×{g:g}G + {q:g}Q (6.10b)")]
     if context.situation == "accidental":
-        label += " (the accidental combination EN 1990 6.11 needs the accidental action: " \
-                 "give the design moment as factored)"
-    return Envelope.largest("design moment", "M_Ed", [
-        Candidate(label, _out(g * dead + q * live), params["dead_factor"].clause)], "N·mm")
+        note = (" (the accidental combination EN 1990 6.11 needs the accidental action: give "
+                "the design moment as factored)")
+        combinations = [replace(c, name=c.label(("G", "Q")) + note) for c in combinations]
+    return factored_moment(beam, combinations, input_clause("design moment as given"),
+                           name="design moment", symbol="M_Ed", symbols=("G", "Q"))
 
 
 # --- reinforcement limits ---------------------------------------------------------------
@@ -381,10 +397,10 @@ def minimum_reinforcement(beam: Beam, section: Any, response: Any, params: Param
         width = "bt = bw (flange in compression)" if beam.flanged else "bt = b"
     return [
         Check("minimum tension reinforcement", beam.tension_area,
-              _out(ratio * np.asarray(bt, float) * beam.effective_depth),
+              per_beam(ratio * np.asarray(bt, float) * beam.effective_depth),
               Sense.AT_LEAST, clause("9.2.1.1(1)", "minimum tension steel"), "As", "mm²",
               f"max(coefficient fctm/fyk, floor) bt d with {width}; "
-              f"fctm = {_show(fctm.value)} MPa; "
+              f"fctm = {shown(fctm.value, '.6g')} MPa; "
               f"{params.cite('asmin_fctm_coeff')}, {params.cite('asmin_ratio_floor')}"),
     ]
 
@@ -405,21 +421,15 @@ def ductility_limits(beam: Beam, section: Any, response: Any, params: Parameters
     cited = ", ".join(params.cite(n) for n in ("redistribution_ratio", "k1", "k2_scale", "k3",
                                                "k4_scale"))
     steel = beam.tension_area + np.asarray(beam.compression_area, float)
-    maximum = Check("maximum reinforcement", _out(steel),
-                    _out(params.value("asmax_ratio") * np.asarray(section.area, float)),
+    maximum = Check("maximum reinforcement", per_beam(steel),
+                    per_beam(params.value("asmax_ratio") * np.asarray(section.area, float)),
                     Sense.AT_MOST, clause("9.2.1.1(3)", "maximum steel"), "As + As'", "mm²",
                     "Ac taken as the gross area of the section with its effective flange; "
                     f"outside lap locations; {params.cite('asmax_ratio')}")
-    return [maximum, Check("neutral-axis depth for the redistribution assumed", _out(
+    return [maximum, Check("neutral-axis depth for the redistribution assumed", per_beam(
         np.asarray(response.c, float) / np.asarray(beam.effective_depth, float)), limit,
         Sense.AT_MOST, clause("5.5(4)", "redistribution limit on the neutral-axis depth"),
         "xu/d", "", "(δ - k1)/k2 up to C50/60, (δ - k3)/k4 above, k = scale (0.6 + "
         f"0.0014/εcu2); {cited}")]
 
 
-def _out(value: Any) -> Any:
-    return value if np.ndim(value) else float(value)
-
-
-def _show(value: Any) -> str:
-    return f"{float(value):.6g}" if np.ndim(value) == 0 else "per beam"

@@ -28,6 +28,7 @@ from clausewise.provisions import (
     BeamDataError,
     Candidate,
     Check,
+    Combination,
     Context,
     Continuity,
     EditionInfo,
@@ -45,9 +46,12 @@ from clausewise.provisions import (
     Shape,
     choose,
     cube_strength,
+    factored_moment,
+    given_width,
+    half_clear_distance,
     hookimpl,
+    per_beam,
 )
-from clausewise.provisions.widths import given_width, half_clear_distance
 
 EDITION = EditionInfo(
     "is456:2000", "IS 456:2000 plain and reinforced concrete, code of practice", 2000,
@@ -170,19 +174,19 @@ def effective_flange_width(beam: Beam, params: Parameters, context: Context) -> 
         b = np.asarray(beam.flange_width, float)
         share, label = (1.0, "l0/(l0/b + 4) + bw") if tee else (0.5, "0.5 l0/(l0/b + 4) + bw")
         isolated = clause("23.1.2(c)", "isolated beams, never wider than the actual flange")
-        candidates += [Candidate(f"{label} ({how})", _out(share * l0 / (l0 / b + 4) + bw),
+        candidates += [Candidate(f"{label} ({how})", per_beam(share * l0 / (l0 / b + 4) + bw),
                                  isolated),
-                       Candidate("actual flange width", _out(b), isolated)]
+                       Candidate("actual flange width", per_beam(b), isolated)]
     else:
         divisor, slab, ref = (6, 6, "23.1.2(a)") if tee else (12, 3, "23.1.2(b)")
         kind = "T-beams" if tee else "L-beams"
         candidates.append(Candidate(f"l0/{divisor} + bw + {slab}Df ({how})",
-                                    _out(l0 / divisor + bw + slab * df),
+                                    per_beam(l0 / divisor + bw + slab * df),
                                     clause(ref, f"{kind} in a floor")))
         known = [h for h in halves if h is not None]
         if len(known) == len(halves):
             candidates.append(Candidate(
-                "bw + half the clear distances to the next webs", _out(bw + sum(known)),
+                "bw + half the clear distances to the next webs", per_beam(bw + sum(known)),
                 clause("23.1.2", "never wider than the web plus half the clear distances")))
         if given is not None:
             candidates.insert(0, given)
@@ -197,7 +201,7 @@ def concrete_law(beam: Beam, params: Parameters, context: Context) -> MaterialMo
     gamma = params.value("gamma_m_concrete")
     ratio = params.value("strength_ratio")
     eps_cu, eps_c2 = params.value("ultimate_strain"), params.value("strain_at_peak")
-    peak = Factor(f"{ratio:g} fck/γm", _out(ratio * np.asarray(fck.value, float) / gamma),
+    peak = Factor(f"{ratio:g} fck/γm", per_beam(ratio * np.asarray(fck.value, float) / gamma),
                   clause("38.1(c)", "design stress of concrete (Fig. 21)"),
                   f"{params.cite('strength_ratio')}, {params.cite('gamma_m_concrete')} "
                   f"(= {ratio / gamma:.3f} fck)", "MPa")
@@ -235,7 +239,7 @@ def steel_modulus(beam: Beam, params: Parameters) -> Any:
 
 def design_strength(beam: Beam, params: Parameters) -> Factor:
     gamma = params.value("gamma_m_steel")
-    return Factor("fyd", _out(np.asarray(beam.yield_strength, float) / gamma),
+    return Factor("fyd", per_beam(np.asarray(beam.yield_strength, float) / gamma),
                   clause("38.1(e)", "design strength of reinforcement"),
                   f"fy/γm, {params.cite('gamma_m_steel')} (≈ 0.87 fy)", "MPa")
 
@@ -251,7 +255,7 @@ def steel_law(beam: Beam, params: Parameters, context: Context) -> MaterialModel
     points = []
     for fraction, inelastic in zip(FIG23_STRESS, FIG23_INELASTIC, strict=True):
         stress = np.asarray(choose(cold, fraction, 1.0)) * fyd.value
-        points.append((_out(stress / es + inelastic), _out(stress)))
+        points.append((per_beam(stress / es + inelastic), per_beam(stress)))
     knee = choose(cold, points[-1][0], np.asarray(fyd.value) / es)
     if np.ndim(cold):
         curve = "per beam: Fig. 23B where cold-worked, else Fig. 23A"
@@ -293,7 +297,7 @@ def limiting_depth_ratio(beam: Beam, params: Parameters) -> Factor:
         basis = f"the note's table for Fe {float(fy):g}"
     else:
         basis = f"εcu/(εcu + 0.002 + fyd/Es) for fy = {float(fy):g} MPa (not a tabulated grade)"
-    return Factor("xu,max/d", _out(np.asarray(value, float)),
+    return Factor("xu,max/d", per_beam(np.asarray(value, float)),
                   clause("38.1 note", "limiting depth of the neutral axis"), basis)
 
 
@@ -313,19 +317,10 @@ def resistance_factor(beam: Beam, response: Any, params: Parameters,
 
 @hookimpl
 def design_actions(beam: Beam, params: Parameters, context: Context) -> Envelope | None:
-    a = beam.actions
-    if a.factored is not None:
-        return Envelope.largest("factored moment", "Mu", [
-            Candidate("as given", a.factored, clause("36.4.1", "factored moment as given"))],
-            "N·mm")
-    if a.dead is None and a.live is None:
-        return None
-    dead = np.asarray(a.dead if a.dead is not None else 0.0, float)
-    live = np.asarray(a.live if a.live is not None else 0.0, float)
     factor = params.value("load_factor")
-    return Envelope.largest("factored moment", "Mu", [
-        Candidate(f"{factor:g}(D + L)", _out(factor * (dead + live)),
-                  params["load_factor"].clause)], "N·mm")
+    return factored_moment(beam, [Combination(factor, factor, params["load_factor"].clause,
+                                              f"{factor:g}(D + L)")],
+                           clause("36.4.1", "factored moment as given"), symbol="Mu")
 
 
 # --- reinforcement limits ---------------------------------------------------------------
@@ -336,7 +331,7 @@ def minimum_reinforcement(beam: Beam, section: Any, response: Any, params: Param
     coefficient = params.value("min_steel_coefficient")
     required = coefficient * np.asarray(beam.web_width, float) * np.asarray(
         beam.effective_depth, float) / np.asarray(beam.yield_strength, float)
-    return [Check("minimum tension reinforcement", beam.tension_area, _out(required),
+    return [Check("minimum tension reinforcement", beam.tension_area, per_beam(required),
                   Sense.AT_LEAST, params["min_steel_coefficient"].clause, "As", "mm²",
                   f"{coefficient:g} bw d / fy")]
 
@@ -349,20 +344,17 @@ def ductility_limits(beam: Beam, response: Any, params: Parameters,
     area_limit = params.value("max_steel_ratio") * np.asarray(beam.web_width, float) * \
         np.asarray(beam.depth, float)
     checks = [
-        Check("neutral-axis depth", _out(ratio), limit.value, Sense.AT_MOST, limit.clause,
+        Check("neutral-axis depth", per_beam(ratio), limit.value, Sense.AT_MOST, limit.clause,
               "xu/d", note=f"{limit.basis}; an over-reinforced section fails this check "
               "(its moment is still the strain-compatibility value)"),
-        Check("maximum tension reinforcement", beam.tension_area, _out(area_limit),
+        Check("maximum tension reinforcement", beam.tension_area, per_beam(area_limit),
               Sense.AT_MOST, params["max_steel_ratio"].clause, "As", "mm²",
               f"{params.value('max_steel_ratio'):g} bw D"),
     ]
     if beam.compression:
         checks.append(Check("maximum compression reinforcement", beam.compression_area,
-                            _out(area_limit), Sense.AT_MOST,
+                            per_beam(area_limit), Sense.AT_MOST,
                             clause("26.5.1.2", "greatest compression steel"), "Asc", "mm²",
                             f"{params.value('max_steel_ratio'):g} bw D"))
     return checks
 
-
-def _out(value: Any) -> Any:
-    return value if np.ndim(value) else float(value)

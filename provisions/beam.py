@@ -15,6 +15,7 @@ from typing import Any
 import numpy as np
 
 from clausewise.core.errors import ClausewiseError
+from clausewise.provisions.vocabulary import per_beam
 
 Value = Any  # float, or numpy array over a batch
 
@@ -84,11 +85,38 @@ class FloorLayout:
 
 @dataclass(frozen=True)
 class Actions:
-    """Moments in N·mm in the beam's bending sense: service dead and live, or a factored one."""
+    """Moments in N·mm in the beam's bending sense: service dead and live, or a factored one.
+
+    What may be left out, for every edition alike: everything (the capacity only); the
+    live moment (dead load alone); or both service moments when a factored moment is
+    given. A live moment without a dead one is refused, so that no edition has to guess
+    whether "no dead moment" means zero: give ``dead = 0`` where there is none.
+    """
 
     dead: Value | None = None
     live: Value | None = None
     factored: Value | None = None
+
+    def __post_init__(self) -> None:
+        problem = self.omission_problem(self.dead, self.live, self.factored)
+        if problem is not None:
+            raise BeamDataError(f"moments.{problem[0]}: {problem[1]}")
+
+    @staticmethod
+    def omission_problem(dead: Any, live: Any, factored: Any) -> tuple[str, str] | None:
+        """The field at fault and why, when a combination of given moments is not allowed
+        (``None`` if it is); the beam-file reader reports the same rule against its file."""
+        if factored is not None and (dead is not None or live is not None):
+            return "factored", "either service moments (dead, live) or a factored moment, " \
+                "not both"
+        if live is not None and dead is None:
+            return "dead", "with a live moment, give the dead moment too (0 if there is none)"
+        return None
+
+    @property
+    def given(self) -> bool:
+        """Whether any action is given (else the assessment is of capacity only)."""
+        return self.factored is not None or self.dead is not None
 
 
 @dataclass(frozen=True)
@@ -150,12 +178,12 @@ class Beam:
     def effective_depth(self) -> Value:
         """Centroid of the tension reinforcement from the compression face (d)."""
         moment = _sum(layer.area * np.asarray(layer.depth, float) for layer in self.tension)
-        return _scalar(moment / np.asarray(self.tension_area, float))
+        return per_beam(moment / np.asarray(self.tension_area, float))
 
     @property
     def extreme_tension_depth(self) -> Value:
         """Depth of the tension layer farthest from the compression face (dt)."""
-        return _scalar(np.maximum.reduce([np.asarray(layer.depth, float)
+        return per_beam(np.maximum.reduce([np.asarray(layer.depth, float)
                                           for layer in self.tension]))
 
     def slab_sides(self) -> int:
@@ -179,11 +207,7 @@ def _numbers(beam: Beam) -> list[Any]:
 
 def _sum(values: Any) -> Value:
     total = sum(np.asarray(v, float) for v in values)
-    return _scalar(np.asarray(total, float))
-
-
-def _scalar(value: np.ndarray) -> Value:
-    return value if np.ndim(value) else float(value)
+    return per_beam(np.asarray(total, float))
 
 
 @dataclass(frozen=True)

@@ -37,7 +37,7 @@ from clausewise.provisions.verdicts import (  # noqa: F401 (re-exported)
     governing,
     status,
 )
-from clausewise.provisions.vocabulary import Check, Clause, Envelope, Factor, Sense
+from clausewise.provisions.vocabulary import Check, Clause, Envelope, Factor, Sense, per_beam, shown
 
 
 @dataclass(frozen=True)
@@ -167,8 +167,8 @@ def evaluate(beam: Beam, edition: Edition, context: Context) -> Evaluation:
     moment = np.where(equilibrium, response.nominal_moment, np.nan)
     phi = resistance.factor
     design_resistance = Factor(
-        "M_Rd", _like(beam, phi.value * moment), resistance.requirement,
-        f"{phi.symbol} = {_fmt(phi.value)} times the nominal moment Mn", "N·mm")
+        "M_Rd", per_beam(phi.value * moment), resistance.requirement,
+        f"{phi.symbol} = {shown(phi.value)} times the nominal moment Mn", "N·mm")
     demand = edition.design_actions(beam, params, context)
 
     checks: list[Check] = []
@@ -190,14 +190,6 @@ def _all_passed(checks: tuple[Check, ...]) -> Any:
         return True
     passed = np.logical_and.reduce(np.broadcast_arrays(*[np.asarray(c.passed) for c in checks]))
     return passed if np.ndim(passed) else bool(passed)
-
-
-def _like(beam: Beam, value: Any) -> Any:
-    return value if beam.is_batch else float(value)
-
-
-def _fmt(value: Any) -> str:
-    return f"{value:.4g}" if np.ndim(value) == 0 else "per beam"
 
 
 def _governing_label(envelope: Envelope) -> str:
