@@ -62,6 +62,7 @@ from clausewise.provisions import (
     largest_of,
     overhang_envelope,
     per_beam,
+    ratio_parameter,
     smallest_of,
     sqrt,
 )
@@ -160,6 +161,8 @@ class Aci318:
             Parameter("fy_max", 80_000 * MPA_PER_PSI if ip else 550.0,
                       c("steel_maximum", "greatest yield strength for flexure"),
                       "80 000 psi" if ip else "550 MPa", (300.0, 700.0), "MPa"),
+            ratio_parameter(self.info.clause("-", "cylinder about 0.8 of cube strength: common "
+                                             "practice, not ACI text")),
             Parameter("dead_only_factor", 1.4, c("combinations", "dead load alone: 1.4D"),
                       "factor on dead load alone", (1.0, 2.0)),
             Parameter("dead_factor", 1.2, c("combinations", "dead with live load: 1.2D + 1.6L"),
@@ -185,7 +188,7 @@ class Aci318:
 
     @hookimpl
     def applicability(self, beam: Beam, params: Parameters, context: Context) -> Sequence[Check]:
-        fc = cylinder_strength(beam).value
+        fc = cylinder_strength(beam, params).value
         return [
             Check("concrete strength at least the code minimum", fc, params.value("fc_min"),
                   Sense.AT_LEAST, params["fc_min"].clause, "f'c", "MPa"),
@@ -263,7 +266,7 @@ class Aci318:
 
     @hookimpl
     def concrete_law(self, beam: Beam, params: Parameters, context: Context) -> MaterialModel:
-        fc = cylinder_strength(beam)
+        fc = cylinder_strength(beam, params)
         b1 = self.beta1(fc.value, context.form)
         alpha = params.value("block_intensity")
         eps_cu = params.value("ultimate_strain")
@@ -347,9 +350,9 @@ class Aci318:
 
     # --- reinforcement limits --------------------------------------------------------
 
-    def minimum_area(self, beam: Beam, width: Any, form: str) -> Any:
+    def minimum_area(self, beam: Beam, width: Any, params: Parameters, form: str) -> Any:
         """As,min for a web (or tension-flange) width in mm: the larger of two ratios."""
-        fc, fy = cylinder_strength(beam).value, np.asarray(beam.yield_strength, float)
+        fc, fy = cylinder_strength(beam, params).value, np.asarray(beam.yield_strength, float)
         if form == INCH_POUND:
             ratio = largest_of(3 * sqrt(psi(fc)) / psi(fy), 200 / psi(fy))
         else:
@@ -366,7 +369,7 @@ class Aci318:
             width = smallest_of(section.max_width, 2 * bw)
             note = (f"width the lesser of bf and 2bw: flange in tension "
                     f"({self.clauses['flange_in_tension']})")
-        limit = required = self.minimum_area(beam, width, context.form)
+        limit = required = self.minimum_area(beam, width, params, context.form)
         # Not needed where the steel provided is at least 4/3 of that required by analysis;
         # the area required is estimated as As·Mu/(φMn), which errs on the safe side.
         if demand is not None:

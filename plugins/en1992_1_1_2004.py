@@ -31,6 +31,7 @@ from clausewise.provisions import (
     Bending,
     BilinearHardening,
     Check,
+    ClassTable,
     Combination,
     Context,
     Continuity,
@@ -59,6 +60,7 @@ from clausewise.provisions import (
     overhang_envelope,
     per_beam,
     power,
+    ratio_parameter,
     shown,
 )
 
@@ -131,6 +133,8 @@ def edition_parameters(context: Context) -> Sequence[Parameter]:
                   "least As/(bt d)", (0.0005, 0.005)),
         Parameter("asmax_ratio", 0.04, clause("9.2.1.1(3)", "maximum steel"),
                   "greatest (As + As')/Ac outside laps", (0.01, 0.1)),
+        ratio_parameter(clause("-", "cylinder about 0.8 of cube strength beyond Table 3.1: "
+                               "common practice, not EN text")),
         Parameter("dead_factor", 1.35, combination, "γG on permanent actions", (1.0, 2.0)),
         Parameter("live_factor", 1.5, combination, "γQ on the leading variable action",
                   (1.0, 2.0)),
@@ -160,16 +164,24 @@ def partial_factor(params: Parameters, material: str, context: Context) -> Facto
                   f"{context.situation} design situation: {params.cite(name)}")
 
 
-def characteristic_strength(beam: Beam) -> Factor:
-    """fck, the specified cylinder strength (converted when given as cube strength)."""
-    return replace(cylinder_strength(beam), symbol="fck")
+# Table 3.1 strength classes, fck (cylinder) / fck,cube (MPa), from memory
+STRENGTH_CLASSES = ClassTable((
+    (12, 15), (16, 20), (20, 25), (25, 30), (30, 37), (35, 45), (40, 50), (45, 55),
+    (50, 60), (55, 67), (60, 75), (70, 85), (80, 95), (90, 105),
+), clause("Table 3.1", "strength classes: cylinder and cube pairs"), "Table 3.1")
+
+
+def characteristic_strength(beam: Beam, params: Parameters) -> Factor:
+    """fck, the specified cylinder strength (converted when given as cube strength: by the
+    class pairs of Table 3.1, beyond them by ``cylinder_cube_ratio``)."""
+    return replace(cylinder_strength(beam, params, STRENGTH_CLASSES), symbol="fck")
 
 
 # --- scope ----------------------------------------------------------------------------
 
 @hookimpl
 def applicability(beam: Beam, params: Parameters, context: Context) -> Sequence[Check]:
-    fck = characteristic_strength(beam)
+    fck = characteristic_strength(beam, params)
     fyk = beam.yield_strength
     return [
         Check("concrete strength at least the lowest class", fck.value,
@@ -292,7 +304,7 @@ def block_factors(fck: Any) -> tuple[Factor, Factor]:
 
 @hookimpl
 def concrete_law(beam: Beam, params: Parameters, context: Context) -> MaterialModel:
-    fck = characteristic_strength(beam)
+    fck = characteristic_strength(beam, params)
     alpha = params["alpha_cc"]
     alpha_cc = Factor("αcc", alpha.value, alpha.clause, params.cite("alpha_cc"))
     gamma_c = partial_factor(params, "c", context)
@@ -384,7 +396,7 @@ def design_actions(beam: Beam, params: Parameters, context: Context) -> Envelope
 def minimum_reinforcement(beam: Beam, section: Any, response: Any, params: Parameters,
                           context: Context) -> Sequence[Check]:
     """9.2.1.1(1) minimum tension steel."""
-    _, fctm = tensile_strength(characteristic_strength(beam).value)
+    _, fctm = tensile_strength(characteristic_strength(beam, params).value)
     fyk = np.asarray(beam.yield_strength, float)
     ratio = largest_of(params.value("asmin_fctm_coeff") * np.asarray(fctm.value) / fyk,
                        params.value("asmin_ratio_floor"))
@@ -411,7 +423,7 @@ def ductility_limits(beam: Beam, section: Any, response: Any, params: Parameters
     """9.2.1.1(3) maximum steel, and 5.5(4) with δ = 1 read as a limit on xu/d for a
     section designed without redistribution: δ ≥ k1 + k2 xu/d up to C50/60,
     δ ≥ k3 + k4 xu/d above."""
-    fck = np.asarray(characteristic_strength(beam).value, float)
+    fck = np.asarray(characteristic_strength(beam, params).value, float)
     strain_term = 0.6 + 0.0014 / np.asarray(ultimate_strain(fck, "εcu2").value)
     delta = params.value("redistribution_ratio")
     k2 = params.value("k2_scale") * strain_term

@@ -1,10 +1,11 @@
 """IS 456:2000, limit state of collapse in flexure.
 
 IS 456 works in the characteristic cube strength fck: a beam given in cylinder
-strength is converted (EN 1992-1-1 Table 3.1 class pairs, else the ratio 0.8) and
-the conversion is recorded. Safety sits in partial factors on the materials, so
-there is no member factor; ductility is a limit on the neutral-axis depth. Values
-from memory of the published code; clause titles are our own words.
+strength is converted by a basis that is not IS 456 text, named in the audit (the
+class pairs of EN 1992-1-1:2004 Table 3.1, or the ratio 0.8 of common practice).
+Safety sits in partial factors on the materials, so there is no member factor;
+ductility is a limit on the neutral-axis depth. Values from memory of the published
+code; clause titles are our own words.
 
 Contents
   scope ............. Table 2 concrete grades, 5.6 reinforcement grades
@@ -28,6 +29,7 @@ from clausewise.provisions import (
     BeamDataError,
     Candidate,
     Check,
+    ClassTable,
     Combination,
     Context,
     Continuity,
@@ -51,6 +53,7 @@ from clausewise.provisions import (
     half_clear_distance,
     hookimpl,
     per_beam,
+    ratio_parameter,
 )
 
 EDITION = EditionInfo(
@@ -58,6 +61,8 @@ EDITION = EditionInfo(
     summary="Indian code; cube strength, partial factors on the materials, xu ≤ xu,max",
 )
 clause = EDITION.clause
+CONVERSION = clause("- (not IS 456 text)", "cube from cylinder strength by the class pairs of "
+                    "EN 1992-1-1:2004 Table 3.1")
 
 STEEL_KINDS = ("unstated", "hot-rolled", "cold-worked", "mild")
 
@@ -65,6 +70,13 @@ STEEL_KINDS = ("unstated", "hot-rolled", "cold-worked", "mild")
 # inelastic strain; total strain = stress/Es + inelastic strain (38.1(e), from memory)
 FIG23_STRESS = (0.80, 0.85, 0.90, 0.95, 0.975, 1.0)
 FIG23_INELASTIC = (0.0, 0.0001, 0.0003, 0.0007, 0.0010, 0.0020)
+
+# Cylinder/cube class pairs as EN 1992-1-1:2004 Table 3.1 tabulates them (MPa, from memory):
+# the default basis for a beam given in cylinder strength; not IS 456 text
+CLASS_PAIRS = ((12, 15), (16, 20), (20, 25), (25, 30), (30, 37), (35, 45), (40, 50), (45, 55),
+               (50, 60), (55, 67), (60, 75), (70, 85), (80, 95), (90, 105))
+BY_CLASS_PAIRS, BY_RATIO = "class pairs", "ratio"
+CLASS_TABLE = ClassTable(CLASS_PAIRS, CONVERSION, "EN 1992-1-1:2004 Table 3.1")
 
 # Note to 38.1: xu,max/d for the three grades the code tabulates (from memory)
 XU_MAX_TABLE = {250.0: 0.53, 415.0: 0.48, 500.0: 0.46}
@@ -109,16 +121,29 @@ def edition_parameters(context: Context) -> Sequence[Parameter]:
                   "least yield strength", (200.0, 300.0), "MPa"),
         Parameter("fy_max", 550.0, clause("5.6", "reinforcement grades: deformed bars up to "
                   "Fe 550"), "greatest yield strength", (415.0, 600.0), "MPa"),
+        Parameter("cube_from_cylinder", BY_CLASS_PAIRS, CONVERSION,
+                  f"{BY_CLASS_PAIRS} (EN 1992-1-1:2004 Table 3.1, else the ratio) or "
+                  f"{BY_RATIO} (cylinder_cube_ratio throughout)",
+                  choices=(BY_CLASS_PAIRS, BY_RATIO)),
+        ratio_parameter(clause("- (not IS 456 text)", "cylinder about 0.8 of cube strength: "
+                               "common practice")),
         Parameter("load_factor", 1.5, clause("36.4.1, Table 18", "load factor D + L"),
                   "partial factor on dead plus imposed load", (1.0, 2.0)),
     ]
+
+
+def characteristic_strength(beam: Beam, params: Parameters) -> Factor:
+    """fck, the characteristic cube strength; converted from a cylinder strength by the
+    basis ``cube_from_cylinder`` chooses."""
+    pairs = params.choice("cube_from_cylinder") == BY_CLASS_PAIRS
+    return cube_strength(beam, params, CLASS_TABLE if pairs else None)
 
 
 # --- scope ----------------------------------------------------------------------------
 
 @hookimpl
 def applicability(beam: Beam, params: Parameters, context: Context) -> Sequence[Check]:
-    fck = cube_strength(beam)
+    fck = characteristic_strength(beam, params)
     fy = beam.yield_strength
     note = f"fck,cube {fck.basis}"
     return [
@@ -197,7 +222,7 @@ def effective_flange_width(beam: Beam, params: Parameters, context: Context) -> 
 
 @hookimpl
 def concrete_law(beam: Beam, params: Parameters, context: Context) -> MaterialModel:
-    fck = cube_strength(beam)
+    fck = characteristic_strength(beam, params)
     gamma = params.value("gamma_m_concrete")
     ratio = params.value("strength_ratio")
     eps_cu, eps_c2 = params.value("ultimate_strain"), params.value("strain_at_peak")
