@@ -52,6 +52,7 @@ from clausewise.provisions import (
     overhang_envelope,
     per_beam,
     ratio_parameter,
+    smallest_of,
     sqrt,
 )
 
@@ -62,6 +63,7 @@ EDITION = EditionInfo(
 clause = EDITION.clause
 LOADS = clause("AS/NZS 1170.0 4.2.2", "strength load combinations of the loading standard")
 PHI_TABLE = clause("Table 2.2.2", "capacity reduction factor")
+LOWER_LIMIT_ONLY, BOTH_LIMITS = "at least 0.67", "0.67 to 0.85"
 ZERO_MOMENT_ESTIMATE = clause("8.8.2 (estimate of a)", "distance between points of zero "
                               "moment estimated from the span: common practice, not AS text")
 
@@ -76,6 +78,14 @@ def edition_parameters(context: Context) -> Sequence[Parameter]:
     return [
         Parameter("ultimate_strain", 0.003, clause("8.1.3", "ultimate concrete strain"),
                   "strain at the extreme compression fibre", (0.002, 0.004)),
+        Parameter("gamma_limits", LOWER_LIMIT_ONLY, clause("8.1.3", "limits of the block "
+                  "depth factor γ (a contested reading)"),
+                  f"{LOWER_LIMIT_ONLY!r}: γ = 0.97 - 0.0025 f'c with only the lower limit, "
+                  "the default because that is how we recall the 2018 text (the cap 0.85 "
+                  f"belongs to the earlier form 1.05 - 0.007 f'c); {BOTH_LIMITS!r}: also "
+                  "capped at 0.85, as others recall it, which lowers γ below f'c = 48 MPa "
+                  "and changes φMuo by up to about 5 %", choices=(LOWER_LIMIT_ONLY,
+                                                                   BOTH_LIMITS)),
         Parameter("steel_modulus", 200_000.0, clause("3.2.2", "modulus of reinforcement"),
                   "200 000 MPa", (150_000.0, 210_000.0), "MPa"),
         Parameter("phi_max", 0.85, PHI_TABLE, "φ at small kuo (Class N bars)", (0.5, 1.0)),
@@ -169,16 +179,21 @@ def alpha2(fc: Any) -> Factor:
                   "0.85 - 0.0015 f'c, at least 0.67")
 
 
-def gamma(fc: Any) -> Factor:
-    """Block depth factor: 0.97 - 0.0025 f'c, at least 0.67."""
-    return Factor("γ", largest_of(0.97 - 0.0025 * np.asarray(fc, float), 0.67), STRESS_BLOCK,
-                  "0.97 - 0.0025 f'c, at least 0.67")
+def gamma(fc: Any, reading: str = LOWER_LIMIT_ONLY) -> Factor:
+    """Block depth factor: 0.97 - 0.0025 f'c, at least 0.67; in the other reading of 8.1.3
+    also at most 0.85 (which binds below f'c = 48 MPa)."""
+    value = largest_of(0.97 - 0.0025 * np.asarray(fc, float), 0.67)
+    if reading == LOWER_LIMIT_ONLY:
+        return Factor("γ", value, STRESS_BLOCK, "0.97 - 0.0025 f'c, at least 0.67 "
+                      f"(gamma_limits = {reading})")
+    return Factor("γ", smallest_of(value, 0.85), STRESS_BLOCK, "0.97 - 0.0025 f'c within "
+                  f"0.67..0.85 (gamma_limits = {reading})")
 
 
 @hookimpl
 def concrete_law(beam: Beam, params: Parameters, context: Context) -> MaterialModel:
     fc = cylinder_strength(beam, params)
-    a2, g = alpha2(fc.value), gamma(fc.value)
+    a2, g = alpha2(fc.value), gamma(fc.value, params.choice("gamma_limits"))
     eps_cu = params.value("ultimate_strain")
     stress = Factor("α2 f'c", per_beam(a2.value * np.asarray(fc.value, float)), STRESS_BLOCK,
                     "block intensity", "MPa")

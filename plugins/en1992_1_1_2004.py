@@ -75,6 +75,7 @@ NORMAL_STRENGTH_UP_TO = 50.0  # MPa: Table 3.1 and 3.1.7(3) change form above C5
 RECTANGULAR, PARABOLA = "rectangular", "parabola-rectangle"
 HORIZONTAL, INCLINED = "horizontal", "inclined"
 SINGLE_EXPRESSION, PAIR_OF_EXPRESSIONS = "6.10", "6.10a/b"
+WHERE_REDISTRIBUTED, ALWAYS = "where redistributed", "always"
 SITUATIONS = {"persistent": "", "transient": "", "accidental": "_accidental"}
 
 
@@ -121,6 +122,13 @@ def edition_parameters(context: Context) -> Sequence[Parameter]:
                   "highest fyk the rules cover", (500.0, 700.0), "MPa"),
         Parameter("redistribution_ratio", 1.0, ductility,
                   "δ, moment after redistribution over elastic moment (1: none)", (0.7, 1.0)),
+        Parameter("neutral_axis_limit", WHERE_REDISTRIBUTED, clause(
+            "5.5(4)", "when the neutral-axis limit applies (a contested reading)"),
+            f"{WHERE_REDISTRIBUTED!r} (default): only where moments are redistributed, "
+            "δ < 1, which is what the recommended text requires; "
+            f"{ALWAYS!r}: also with δ = 1, as a ductility practice some national annexes "
+            "adopt (xu/d ≤ 0.448 up to C50/60 with the recommended k1, k2)",
+            choices=(WHERE_REDISTRIBUTED, ALWAYS)),
         Parameter("k1", 0.44, ductility, "k1, up to C50/60", (0.3, 0.6)),
         Parameter("k2_scale", 1.25, ductility, "k2 = k2_scale (0.6 + 0.0014/εcu2)",
                   (0.8, 1.5)),
@@ -420,28 +428,36 @@ def minimum_reinforcement(beam: Beam, section: Any, response: Any, params: Param
 @hookimpl
 def ductility_limits(beam: Beam, section: Any, response: Any, params: Parameters,
                      context: Context) -> Sequence[Check]:
-    """9.2.1.1(3) maximum steel, and 5.5(4) with δ = 1 read as a limit on xu/d for a
-    section designed without redistribution: δ ≥ k1 + k2 xu/d up to C50/60,
-    δ ≥ k3 + k4 xu/d above."""
-    fck = np.asarray(characteristic_strength(beam, params).value, float)
-    strain_term = 0.6 + 0.0014 / np.asarray(ultimate_strain(fck, "εcu2").value)
-    delta = params.value("redistribution_ratio")
-    k2 = params.value("k2_scale") * strain_term
-    k4 = params.value("k4_scale") * strain_term
-    limit = choose(fck <= NORMAL_STRENGTH_UP_TO, (delta - params.value("k1")) / k2,
-                   (delta - params.value("k3")) / k4)
-    cited = ", ".join(params.cite(n) for n in ("redistribution_ratio", "k1", "k2_scale", "k3",
-                                               "k4_scale"))
+    """9.2.1.1(3) maximum steel, and 5.5(4) as a limit on xu/d: δ ≥ k1 + k2 xu/d up to
+    C50/60, δ ≥ k3 + k4 xu/d above. 5.5(4) binds where moments are redistributed (δ < 1);
+    with δ = 1 it is applied only when ``neutral_axis_limit`` says "always" (a ductility
+    practice some national annexes adopt, not a requirement of the recommended text)."""
     steel = beam.tension_area + np.asarray(beam.compression_area, float)
     maximum = Check("maximum reinforcement", per_beam(steel),
                     per_beam(params.value("asmax_ratio") * np.asarray(section.area, float)),
                     Sense.AT_MOST, clause("9.2.1.1(3)", "maximum steel"), "As + As'", "mm²",
                     "Ac taken as the gross area of the section with its effective flange; "
                     f"outside lap locations; {params.cite('asmax_ratio')}")
-    return [maximum, Check("neutral-axis depth for the redistribution assumed", per_beam(
+    delta = params.value("redistribution_ratio")
+    redistributed = delta < 1.0
+    if not redistributed and params.choice("neutral_axis_limit") == WHERE_REDISTRIBUTED:
+        return [maximum]
+    fck = np.asarray(characteristic_strength(beam, params).value, float)
+    strain_term = 0.6 + 0.0014 / np.asarray(ultimate_strain(fck, "εcu2").value)
+    k2 = params.value("k2_scale") * strain_term
+    k4 = params.value("k4_scale") * strain_term
+    limit = choose(fck <= NORMAL_STRENGTH_UP_TO, (delta - params.value("k1")) / k2,
+                   (delta - params.value("k3")) / k4)
+    cited = ", ".join(params.cite(n) for n in ("neutral_axis_limit", "redistribution_ratio",
+                                               "k1", "k2_scale", "k3", "k4_scale"))
+    name = "neutral-axis depth for the redistribution assumed" if redistributed else \
+        "neutral-axis depth without redistribution (ductility practice)"
+    why = "moments redistributed (δ < 1)" if redistributed else \
+        "δ = 1: applied because neutral_axis_limit = always, not required by the recommended text"
+    return [maximum, Check(name, per_beam(
         np.asarray(response.c, float) / np.asarray(beam.effective_depth, float)), limit,
         Sense.AT_MOST, clause("5.5(4)", "redistribution limit on the neutral-axis depth"),
-        "xu/d", "", "(δ - k1)/k2 up to C50/60, (δ - k3)/k4 above, k = scale (0.6 + "
+        "xu/d", "", f"{why}; (δ - k1)/k2 up to C50/60, (δ - k3)/k4 above, k = scale (0.6 + "
         f"0.0014/εcu2); {cited}")]
 
 

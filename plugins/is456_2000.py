@@ -81,6 +81,18 @@ CLASS_TABLE = ClassTable(CLASS_PAIRS, CONVERSION, "EN 1992-1-1:2004 Table 3.1")
 # Note to 38.1: xu,max/d for the three grades the code tabulates (from memory)
 XU_MAX_TABLE = {250.0: 0.53, 415.0: 0.48, 500.0: 0.46}
 
+# The two readings of the stress resultants of 38.1 and Annex G-1.1 (a contested reading):
+# the coefficients as printed, 0.36 fck b xu at 0.42 xu (so Mu,lim/(fck b d²) = 0.138 for
+# Fe 415, as design handbooks tabulate it), or the exact integral of the design curve of
+# Fig. 21, 0.3616 fck b xu at 0.416 xu (0.1389).
+PRINTED, EXACT = "printed", "exact curve"
+# The printed reading as a law: Fig. 21's parabola-rectangle with its plateau starting at
+# k εcu and its peak p fck chosen so that a rectangular zone gives exactly the printed
+# resultants. By hand: force p (1 - k/3) = 0.36, centroid from the top 1 - (1/2 - k²/12)/
+# (1 - k/3) = 0.42, so k² - 2.32 k + 0.96 = 0.
+PRINTED_PLATEAU = 1.16 - (1.16**2 - 0.96) ** 0.5  # k = 0.5390
+PRINTED_PEAK = 0.36 / (1.0 - PRINTED_PLATEAU / 3.0)  # p = 0.4389 (fck, at γm = 1.5)
+
 
 @hookimpl
 def edition_info() -> EditionInfo:
@@ -101,6 +113,13 @@ def edition_parameters(context: Context) -> Sequence[Parameter]:
         Parameter("strain_at_peak", 0.002, clause("38.1(c)", "strain at the end of the "
                   "parabola (Fig. 21)"), "strain where the design stress reaches its peak",
                   (0.001, 0.003)),
+        Parameter("stress_resultants", PRINTED, clause("38.1, Annex G-1.1", "resultants of "
+                  "the concrete stress (a contested reading)"),
+                  f"{PRINTED!r} (default): 0.36 fck b xu at 0.42 xu as 38.1 and Annex G print "
+                  "them, so that a hand check or a design handbook (Mu,lim = 0.138 fck b d² "
+                  f"for Fe 415) gives the same numbers; {EXACT!r}: the exact integral of "
+                  "Fig. 21, 0.3616 fck b xu at 0.416 xu (0.1389), about 0.7 % more moment",
+                  choices=(PRINTED, EXACT)),
         Parameter("min_inelastic_strain", 0.002, clause("38.1(f)", "least steel strain at "
                   "failure beyond fy/(γm Es)"), "inelastic strain that sets xu,max",
                   (0.0, 0.01)),
@@ -230,13 +249,27 @@ def concrete_law(beam: Beam, params: Parameters, context: Context) -> MaterialMo
                   clause("38.1(c)", "design stress of concrete (Fig. 21)"),
                   f"{params.cite('strength_ratio')}, {params.cite('gamma_m_concrete')} "
                   f"(= {ratio / gamma:.3f} fck)", "MPa")
+    factors = (fck, Factor("γm", gamma, params["gamma_m_concrete"].clause, "concrete"), peak,
+               Factor("εcu", eps_cu, params["ultimate_strain"].clause))
+    if params.choice("stress_resultants") == EXACT:
+        return MaterialModel(
+            ParabolaRectangle(peak_stress=peak.value, strain_at_peak=eps_c2,
+                              ultimate_strain=eps_cu, exponent=2.0),
+            (*factors, Factor("εc2", eps_c2, params["strain_at_peak"].clause,
+                              "parabola of exponent 2; stress_resultants = exact curve: "
+                              "0.3616 fck b xu at 0.416 xu")))
+    scale = PRINTED_PEAK / (0.67 / 1.5)  # the printed coefficients belong to 0.67/1.5
+    printed = params["stress_resultants"].clause
+    shaped = Factor("peak (printed)", per_beam(scale * np.asarray(peak.value, float)), printed,
+                    f"stress_resultants = printed: {PRINTED_PEAK:.4f} fck at γm = 1.5, so "
+                    "that a rectangular zone gives 0.36 fck b xu at 0.42 xu", "MPa")
+    plateau = Factor("εc2 (printed)", PRINTED_PLATEAU * eps_cu, printed,
+                     f"{PRINTED_PLATEAU:.4f} εcu: the parabola of Fig. 21 shaped to the "
+                     "printed resultants")
     return MaterialModel(
-        ParabolaRectangle(peak_stress=peak.value, strain_at_peak=eps_c2,
+        ParabolaRectangle(peak_stress=shaped.value, strain_at_peak=plateau.value,
                           ultimate_strain=eps_cu, exponent=2.0),
-        (fck, Factor("γm", gamma, params["gamma_m_concrete"].clause, "concrete"), peak,
-         Factor("εcu", eps_cu, params["ultimate_strain"].clause),
-         Factor("εc2", eps_c2, params["strain_at_peak"].clause, "parabola of exponent 2")),
-    )
+        (*factors, shaped, plateau))
 
 
 def cold_worked(beam: Beam, params: Parameters) -> Any:

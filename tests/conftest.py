@@ -67,14 +67,16 @@ def fresh_registry() -> Registry:
 @pytest.fixture
 def edition_with() -> Callable[..., Edition]:
     """``edition_with(base, **values)``: ``base`` with the named parameters set, as a test's
-    own local edition ``xx-test`` on a registry of its own."""
+    own local edition (``name``, default ``xx-test``) on a registry of its own, or on
+    ``registry`` where given."""
 
-    def make(base: str, **values: Any) -> Edition:
-        clause = Clause("T.1", "choice made for the test", "xx-test")
-        reg = fresh_registry()
-        reg.register(Override("xx-test", base, [Parameter(n, v, clause)
-                                                for n, v in values.items()]), name="xx-test")
-        return reg.edition("xx-test")
+    def make(base: str, *, registry: Registry | None = None, name: str = "xx-test",
+             **values: Any) -> Edition:
+        clause = Clause("T.1", "choice made for the test", name)
+        reg = registry or fresh_registry()
+        reg.register(Override(name, base, [Parameter(n, v, clause) for n, v in values.items()]),
+                     name=name)
+        return reg.edition(name)
 
     return make
 
