@@ -22,7 +22,7 @@ import numpy as np
 from numpy.typing import NDArray
 
 from clausewise.core.errors import ClausewiseError
-from clausewise.provisions.beam import Actions, Beam, Context, FloorLayout, Layer
+from clausewise.provisions.beam import Actions, Beam, Context, FloorLayout, Layer, kind_of
 from clausewise.provisions.engine import evaluate, resolve_form
 from clausewise.provisions.registry import Edition, Registry, default_registry
 from clausewise.provisions.verdicts import ERROR, governing, status
@@ -31,22 +31,6 @@ _NUMERIC_PARTS = (Beam, FloorLayout, Actions, Layer)
 
 
 # --- grouping and stacking -------------------------------------------------------------
-
-def kind_of(beam: Beam) -> tuple[Any, ...]:
-    """Everything about a beam that is not a number: beams of one kind stack together."""
-    layout, actions = beam.layout, beam.actions
-    return (
-        beam.shape, beam.bending, len(beam.tension), len(beam.compression),
-        beam.flange_thickness is None, beam.flange_width is None, beam.strength_basis,
-        beam.steel_modulus is None, beam.steel_kind, beam.ductility_class, beam.unit_system,
-        beam.statically_determinate, beam.isolated,
-        None if layout is None else (
-            layout.continuity, layout.clear_span is None, layout.clear_left is None,
-            layout.clear_right is None, layout.zero_moment_length is None,
-            layout.adjacent_span is None),
-        actions.dead is None, actions.live is None, actions.factored is None,
-    )
-
 
 def _is_number(value: Any) -> bool:
     return isinstance(value, int | float | np.floating | np.integer) and not isinstance(
