@@ -38,7 +38,6 @@ from clausewise.provisions import (
     Candidate,
     Check,
     Clause,
-    Combination,
     Context,
     EditionInfo,
     ElasticPlastic,
@@ -56,6 +55,7 @@ from clausewise.provisions import (
     choose,
     clamp,
     cylinder_strength,
+    dead_alone_and_with_live,
     factored_moment,
     half_clear_distance,
     hookimpl,
@@ -341,10 +341,7 @@ class Aci318:
     @hookimpl
     def design_actions(self, beam: Beam, params: Parameters,
                        context: Context) -> Envelope | None:
-        combos = self.clause("combinations", "factored load combinations")
-        d1, d2, l2 = (params.value(n) for n in ("dead_only_factor", "dead_factor",
-                                                "live_factor"))
-        return factored_moment(beam, [Combination(d1, 0.0, combos), Combination(d2, l2, combos)],
+        return factored_moment(beam, dead_alone_and_with_live(params),
                                self.clause("combinations", "factored moment as given"),
                                symbol="Mu")
 

@@ -26,7 +26,6 @@ from clausewise.provisions import (
     Beam,
     BeamDataError,
     Check,
-    Combination,
     Context,
     Continuity,
     EditionInfo,
@@ -45,6 +44,7 @@ from clausewise.provisions import (
     choose,
     clamp,
     cylinder_strength,
+    dead_alone_and_with_live,
     factored_moment,
     half_clear_distance,
     hookimpl,
@@ -254,8 +254,7 @@ def resistance_factor(beam: Beam, response: Any, params: Parameters,
 
 @hookimpl
 def design_actions(beam: Beam, params: Parameters, context: Context) -> Envelope | None:
-    d1, d2, l2 = (params.value(n) for n in ("dead_only_factor", "dead_factor", "live_factor"))
-    return factored_moment(beam, [Combination(d1, 0.0, LOADS), Combination(d2, l2, LOADS)],
+    return factored_moment(beam, dead_alone_and_with_live(params),
                            LOADS, name="design moment", symbol="M*", symbols=("G", "Q"))
 
 

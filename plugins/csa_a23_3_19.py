@@ -25,7 +25,6 @@ import numpy as np
 from clausewise.provisions import (
     Beam,
     Check,
-    Combination,
     Context,
     Continuity,
     EditionInfo,
@@ -41,6 +40,7 @@ from clausewise.provisions import (
     Resistance,
     Sense,
     cylinder_strength,
+    dead_alone_and_with_live,
     factored_moment,
     half_clear_distance,
     hookimpl,
@@ -214,8 +214,7 @@ def resistance_factor(beam: Beam, response: Any, params: Parameters,
 
 @hookimpl
 def design_actions(beam: Beam, params: Parameters, context: Context) -> Envelope | None:
-    d1, d2, l2 = (params.value(n) for n in ("dead_only_factor", "dead_factor", "live_factor"))
-    return factored_moment(beam, [Combination(d1, 0.0, LOADS), Combination(d2, l2, LOADS)],
+    return factored_moment(beam, dead_alone_and_with_live(params),
                            LOADS, name="factored moment", symbol="Mf")
 
 

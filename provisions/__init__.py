@@ -71,6 +71,7 @@ _EXPORTS = {
     "shown": "clausewise.provisions.vocabulary",
     "Combination": "clausewise.provisions.combinations",
     "factored_moment": "clausewise.provisions.combinations",
+    "dead_alone_and_with_live": "clausewise.provisions.combinations",
     "ClassTable": "clausewise.provisions.materials",
     "ratio_parameter": "clausewise.provisions.materials",
     "OverhangRule": "clausewise.provisions.widths",
@@ -110,7 +111,11 @@ if TYPE_CHECKING:
         StrengthBasis,
         UnitSystem,
     )
-    from clausewise.provisions.combinations import Combination, factored_moment
+    from clausewise.provisions.combinations import (
+        Combination,
+        dead_alone_and_with_live,
+        factored_moment,
+    )
     from clausewise.provisions.engine import (
         Assessment,
         assess,
@@ -226,6 +231,7 @@ __all__ = [
     "shown",
     "Combination",
     "factored_moment",
+    "dead_alone_and_with_live",
     "ClassTable",
     "ratio_parameter",
     "OverhangRule",

@@ -13,6 +13,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from clausewise.provisions.answers import Parameters
 from clausewise.provisions.beam import Beam
 from clausewise.provisions.vocabulary import Candidate, Clause, Envelope, per_beam
 
@@ -33,6 +34,15 @@ class Combination:
         parts = [f"{factor:g}{symbol}" for factor, symbol in zip(
             (self.dead, self.live), symbols, strict=True) if factor]
         return " + ".join(parts) or "0"
+
+
+def dead_alone_and_with_live(params: Parameters) -> list[Combination]:
+    """The two combinations most loading standards give for flexure, dead load alone and
+    dead with live load, from an edition's parameters ``dead_only_factor``,
+    ``dead_factor`` and ``live_factor`` (each combination cites its factor's clause)."""
+    return [Combination(params.value("dead_only_factor"), 0.0, params["dead_only_factor"].clause),
+            Combination(params.value("dead_factor"), params.value("live_factor"),
+                        params["dead_factor"].clause)]
 
 
 def factored_moment(beam: Beam, combinations: Sequence[Combination], given: Clause, *,
