@@ -28,7 +28,7 @@ from pathlib import Path
 from typing import TYPE_CHECKING, Any
 
 from clausewise.provisions import ClausewiseError
-from clausewise.provisions.verdicts import CAUTION, ERROR, Status
+from clausewise.provisions.verdicts import CAUTION, ERROR, FAILURES
 
 if TYPE_CHECKING:
     from clausewise.beamfile import Schedule
@@ -241,7 +241,7 @@ def _editions(registry: Registry, ids: Sequence[str]) -> list[Edition]:
 def exit_status(outcomes: Sequence[Outcome], schedule: Schedule) -> int:
     if schedule.problems or any(o.status == ERROR for o in outcomes):
         return 2
-    return 1 if any(Status(o.status).failed for o in outcomes) else 0
+    return 1 if any(o.status in FAILURES for o in outcomes) else 0
 
 
 def _chosen_format(args: argparse.Namespace) -> str:
@@ -422,7 +422,7 @@ def _run_batch(schedule: Schedule, editions: Sequence[Edition], form: str | None
     statuses = {s for counts in summary.counts.values() for s in counts}
     if schedule.problems or ERROR in statuses:
         return 2
-    return 1 if any(Status(s).failed for s in statuses) else 0
+    return 1 if any(s in FAILURES for s in statuses) else 0
 
 
 def check_command(args: argparse.Namespace) -> int:

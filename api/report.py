@@ -30,7 +30,7 @@ if TYPE_CHECKING:
     from clausewise.provisions.registry import Edition, Registry
     from clausewise.stream import Summary as BatchSummary
 
-STATUS_STYLE = {PASS: "bold green", FAIL: "bold red", ERROR: "bold magenta"}
+STATUS_STYLE: dict[str, str] = {PASS: "bold green", FAIL: "bold red", ERROR: "bold magenta"}
 SAME_CYLINDER = ("f'c of the ACI, CSA and AS editions and fck of EN 1992-1-1 are taken as the "
                  "same specified cylinder strength; IS 456 converts it to cube strength.")
 

@@ -221,7 +221,8 @@ def _numbers(obj: Any) -> list[Any]:
     """Every numeric field of a beam, its layers, layout and actions (found from the
     dataclass fields, so a new field is never forgotten)."""
     found: list[Any] = []
-    for name, role in _roles(type(obj)):
+    cls: type = type(obj)
+    for name, role in _roles(cls):
         value = getattr(obj, name)
         if value is None or role == "word":
             continue
@@ -254,7 +255,8 @@ def kind_of(obj: Any) -> tuple[Any, ...]:
     """Everything about a beam that is not a number (which optional numbers are given,
     how many layers, the words and switches), found from the dataclass fields: beams of
     one kind take the same branches of every rule, so they stack together."""
-    return _kind_reader(type(obj))(obj)
+    cls: type = type(obj)
+    return _kind_reader(cls)(obj)
 
 
 def _sum(values: Any) -> Value:

@@ -36,6 +36,7 @@ class Status(StrEnum):
 
 PASS, FAIL, OUT_OF_SCOPE = Status.PASS, Status.FAIL, Status.OUT_OF_SCOPE
 NO_EQUILIBRIUM, CAPACITY_ONLY, ERROR = Status.NO_EQUILIBRIUM, Status.CAPACITY_ONLY, Status.ERROR
+FAILURES = frozenset(s for s in Status if s.failed)  # plain texts compare equal to these
 TOLERANCE = 1e-12  # a utilisation up to 1 + TOLERANCE passes
 
 

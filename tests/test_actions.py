@@ -8,9 +8,12 @@ and 1.2G + 1.5Q; EN 1990 6.10 1.35G + 1.5Q, 6.10a/b with ψ0 = 0.7 (Table A1.1) 
 
 from __future__ import annotations
 
+import json
+
 import pytest
 
-from clausewise.provisions import Actions, BeamDataError, Status, assess
+from clausewise.cli import main
+from clausewise.provisions import Actions, BeamDataError, Layer, Status, assess
 from clausewise.provisions.batch import assess_many
 
 KNM = 1e6  # N·mm per kN·m
@@ -77,8 +80,6 @@ def test_beam_without_actions_is_capacity_only_on_both_paths(built_in_edition, f
 
 def test_a_failing_check_still_fails_without_actions(built_in_edition, floor_tee):
     # 2 x 10 mm bars are far below every edition's minimum steel
-    from clausewise.provisions import Layer
-
     a = assess(floor_tee(tension=(Layer(area=157.0, depth=540.0),)), built_in_edition)
     assert a.status is Status.FAIL and a.status.failed
 
@@ -95,3 +96,38 @@ def test_en1990_pair_of_expressions(edition_with, floor_tee):
     b = assess(floor_tee(actions=Actions(dead=300 * KNM, live=20 * KNM)), chosen)
     assert b.demand.governing_candidate.label.endswith("(6.10a)")
     assert b.demand.value == pytest.approx(426.0 * KNM, rel=1e-12)
+
+
+# --- the command line: capacity only is not a failure -----------------------------------------
+
+BEAM_FILE = """
+[project]
+name = "Harrowgate depot, level 1"  # an invented building
+
+[[beam]]
+id = "C1"
+shape = "T"
+web_width = "300 mm"
+overall_depth = "600 mm"
+slab_thickness = "150 mm"
+concrete_strength = "32 MPa"
+yield_strength = "500 MPa"
+tension = [{ bars = "4 x 25 mm", depth = "540 mm" }]
+floor = { span = "8 m", continuity = "interior", clear_left = "2.7 m", clear_right = "2.7 m" }
+%s
+"""
+
+
+@pytest.mark.parametrize(("moments", "statuses", "exit_status"), [
+    ("", {"capacity only"}, 0),
+    ('moments = { dead = "100 kN m", live = "60 kN m" }', {"pass"}, 0),
+    ('moments = { factored = "900 kN m" }', {"fail"}, 1),
+])
+def test_exit_status_with_and_without_actions(tmp_path, capsys, moments, statuses,
+                                              exit_status):
+    path = tmp_path / "depot.toml"
+    path.write_text(BEAM_FILE % moments, encoding="utf-8")
+    status = main(["check", str(path), "--format", "json", "--edition", "aci318-19",
+                   "--edition", "en1992-1-1:2004"])
+    results = json.loads(capsys.readouterr().out)["results"]
+    assert {r["status"] for r in results} == statuses and status == exit_status
