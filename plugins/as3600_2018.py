@@ -8,7 +8,7 @@ published standard; clause titles are our own words.
 Contents
   scope ............. 1.1.2 / 3.1.1 concrete strength, 3.2.1 steel strength
   flange width ...... 8.8.2 bw + 0.2a (T), bw + 0.1a (L), half the clear distance
-  concrete .......... 8.1.3 ultimate strain, α2 and γ
+  concrete .......... 8.1.3 ultimate strain, α2 and γ (capped at 0.85 or not, by choice)
   steel ............. 3.2.2 Es, elastic-plastic
   strength .......... Table 2.2.2 φ from kuo, 2.2.2 φMuo ≥ M*
   demand ............ AS/NZS 1170.0 4.2.2 load combinations
@@ -81,8 +81,8 @@ def edition_parameters(context: Context) -> Sequence[Parameter]:
         Parameter("gamma_limits", LOWER_LIMIT_ONLY, clause("8.1.3", "limits of the block "
                   "depth factor γ (a contested reading)"),
                   f"{LOWER_LIMIT_ONLY!r}: γ = 0.97 - 0.0025 f'c with only the lower limit, "
-                  "the default because that is how we recall the 2018 text (the cap 0.85 "
-                  f"belongs to the earlier form 1.05 - 0.007 f'c); {BOTH_LIMITS!r}: also "
+                  "the default because that is how we recall the 2018 text (we recall the cap "
+                  f"0.85 with the earlier form 1.05 - 0.007 f'c); {BOTH_LIMITS!r}: also "
                   "capped at 0.85, as others recall it, which lowers γ below f'c = 48 MPa "
                   "and changes φMuo by up to about 5 %", choices=(LOWER_LIMIT_ONLY,
                                                                    BOTH_LIMITS)),

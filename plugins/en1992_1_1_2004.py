@@ -14,8 +14,9 @@ Contents
   concrete .......... 3.1.6(1) fcd, Table 3.1 strains and fctm, 3.1.7 block or parabola
   steel ............. 3.2.7 design diagram, horizontal or inclined top branch
   strength .......... 6.1 M_Ed at most M_Rd, partial factors on the materials
-  demand ............ EN 1990 6.10 fundamental combination
+  demand ............ EN 1990 6.10 fundamental combination, or 6.10a/b by choice
   limits ............ 9.2.1.1(1) minimum steel, 9.2.1.1(3) maximum steel, 5.5(4) xu/d
+                      where moments are redistributed (always, by choice)
 """
 
 from __future__ import annotations

@@ -10,7 +10,8 @@ code; clause titles are our own words.
 Contents
   scope ............. Table 2 concrete grades, 5.6 reinforcement grades
   flange width ...... 23.1.2 (a) T-beams, (b) L-beams, (c) isolated beams
-  concrete .......... 38.1(b) ultimate strain, 38.1(c) and Fig. 21 parabola-rectangle
+  concrete .......... 38.1(b) ultimate strain, 38.1(c) and Fig. 21 parabola-rectangle,
+                      resultants as printed (0.36, 0.42) or the exact curve, by choice
   steel ............. 38.1(e) and Fig. 23: mild steel, cold-worked bars; 5.6.3 Es
   strength .......... 36.4.2 partial factors on materials; 38.1 note, xu,max
   demand ............ 36.4.1 and Table 18 load factors
