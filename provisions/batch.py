@@ -14,7 +14,7 @@ at a time so that one bad beam is reported and the rest go on.
 from __future__ import annotations
 
 from collections.abc import Iterable, Iterator, Sequence
-from dataclasses import dataclass, fields, replace
+from dataclasses import dataclass, fields, is_dataclass, replace
 from operator import attrgetter
 from typing import Any
 
@@ -22,58 +22,45 @@ import numpy as np
 from numpy.typing import NDArray
 
 from clausewise.core.errors import ClausewiseError
-from clausewise.provisions.beam import Actions, Beam, Context, FloorLayout, Layer, kind_of
+from clausewise.provisions.beam import NAMES, Beam, Context, field_roles, kind_of
 from clausewise.provisions.engine import evaluate, resolve_form
 from clausewise.provisions.registry import Edition, Registry, default_registry
 from clausewise.provisions.verdicts import ERROR, governing, status
 
-_NUMERIC_PARTS = (Beam, FloorLayout, Actions, Layer)
-
-
 # --- grouping and stacking -------------------------------------------------------------
 
-def _is_number(value: Any) -> bool:
-    return isinstance(value, int | float | np.floating | np.integer) and not isinstance(
-        value, bool)
-
-
-def _stack_numbers(template: Any, objs: list[Any]) -> Any:
-    """``template`` with each numeric field replaced by the array of that field over objs."""
+def _stacked(template: Any, objs: list[Any]) -> Any:
+    """``template`` with every number replaced by the array of that number over ``objs``
+    (objects of one kind), into its parts and layers: the fields come from the dataclass."""
     changes: dict[str, Any] = {}
-    for f in fields(template):
-        value = getattr(template, f.name)
-        if _is_number(value):
-            changes[f.name] = np.fromiter(map(attrgetter(f.name), objs), float, len(objs))
+    cls: type = type(template)
+    for name, role in field_roles(cls):
+        value = getattr(template, name)
+        if value is None or role == "word":
+            continue
+        if role == "part":
+            changes[name] = _stacked(value, [getattr(o, name) for o in objs])
+        elif role == "group":
+            changes[name] = tuple(_stacked(part, [getattr(o, name)[j] for o in objs])
+                                  for j, part in enumerate(value))
+        else:
+            changes[name] = np.fromiter(map(attrgetter(name), objs), float, len(objs))
     return replace(template, **changes)
-
-
-def _stack_layers(layers: list[tuple[Layer, ...]]) -> tuple[Layer, ...]:
-    if not layers[0]:
-        return ()
-    return tuple(_stack_numbers(layers[0][j], [group[j] for group in layers])
-                 for j in range(len(layers[0])))
 
 
 def stack_beams(beams: Sequence[Beam]) -> Beam:
     """One array-valued beam from beams of one kind."""
     items = list(beams)
-    first = items[0]
-    batch = _stack_numbers(replace(first, id=f"batch of {len(items)}", title=""), items)
-    layout = None if first.layout is None else _stack_numbers(
-        first.layout, [b.layout for b in items])
-    return replace(batch, layout=layout,
-                   actions=_stack_numbers(first.actions, [b.actions for b in items]),
-                   tension=_stack_layers([b.tension for b in items]),
-                   compression=_stack_layers([b.compression for b in items]))
+    return _stacked(replace(items[0], id=f"batch of {len(items)}", title=""), items)
 
 
 def take_beam(batch: Beam, rows: NDArray[np.int_]) -> Beam:
     """The rows of an array-valued beam, as a smaller batch."""
 
     def taken(obj: Any) -> Any:
-        if isinstance(obj, _NUMERIC_PARTS):
+        if is_dataclass(obj) and not isinstance(obj, type):
             return replace(obj, **{f.name: taken(getattr(obj, f.name)) for f in fields(obj)
-                                   if f.name not in ("id", "title")})
+                                   if f.name not in NAMES})
         if isinstance(obj, tuple):
             return tuple(taken(o) for o in obj)
         if isinstance(obj, np.ndarray):

@@ -196,7 +196,7 @@ NAMES = frozenset({"id", "title"})  # a beam's names: nothing a rule may branch 
 
 
 @cache
-def _roles(cls: type) -> tuple[tuple[str, str], ...]:
+def field_roles(cls: type) -> tuple[tuple[str, str], ...]:
     """Each field of a dataclass (but its names) with what it holds, read once from its
     type hints: "number" (float or array), "optional" (a number that may be None),
     "part" (a nested dataclass, maybe None), "group" (a tuple of dataclasses), "word"."""
@@ -222,7 +222,7 @@ def _numbers(obj: Any) -> list[Any]:
     dataclass fields, so a new field is never forgotten)."""
     found: list[Any] = []
     cls: type = type(obj)
-    for name, role in _roles(cls):
+    for name, role in field_roles(cls):
         value = getattr(obj, name)
         if value is None or role == "word":
             continue
@@ -245,7 +245,7 @@ _KIND_TERMS = {"word": "obj.{0}", "optional": "obj.{0} is None",
 def _kind_reader(cls: type) -> Callable[[Any], tuple[Any, ...]]:
     """One generated expression per class, as ``dataclasses`` generates ``__eq__``: the
     kind of a beam is read once per beam of a large schedule, so it must be quick."""
-    terms = [_KIND_TERMS[role].format(name) for name, role in _roles(cls) if role != "number"]
+    terms = [_KIND_TERMS[role].format(name) for name, role in field_roles(cls) if role != "number"]
     reader: Callable[[Any], tuple[Any, ...]] = eval(  # noqa: S307 (our own field names)
         f"lambda obj: ({''.join(t + ', ' for t in terms)})", {"kind_of": kind_of})
     return reader
