@@ -112,7 +112,8 @@ def edition_parameters(context: Context) -> Sequence[Parameter]:
         Parameter("ultimate_strain", 0.0035, clause("38.1(b)", "ultimate concrete strain"),
                   "strain at the extreme compression fibre in bending", (0.002, 0.004)),
         Parameter("strain_at_peak", 0.002, clause("38.1(c)", "strain at the end of the "
-                  "parabola (Fig. 21)"), "strain where the design stress reaches its peak",
+                  "parabola (Fig. 21)"), "strain where the design stress reaches its peak (with "
+                  "stress_resultants = exact curve; the printed reading shapes its own)",
                   (0.001, 0.003)),
         Parameter("stress_resultants", PRINTED, clause("38.1, Annex G-1.1", "resultants of "
                   "the concrete stress (a contested reading)"),
