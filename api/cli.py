@@ -6,10 +6,11 @@ html`` a printable calculation sheet (``.pdf`` printed from it by headless Chrom
 in .json, .toml, .csv, .html or .pdf picks that format, and a report goes to .txt.
 Files are written whole or not at all.
 
-Exit status: 0 every check passes; 1 a check fails, or a beam is outside an
-edition's scope or has no equilibrium; 2 bad input or usage, which includes any
-beam of the file refused for its input (the good beams are still checked and
-reported) and any beam an edition could not assess.
+Exit status: 0 every check passes (a beam without actions reports "capacity only",
+which is not a failure); 1 a check fails, or a beam is outside an edition's scope or
+has no equilibrium; 2 bad input or usage, which includes any beam of the file refused
+for its input (the good beams are still checked and reported) and any beam an edition
+could not assess.
 
 Heavy libraries (rich, matplotlib, the input reader) are imported inside the
 commands that need them, so ``clausewise --help`` starts quickly.
@@ -28,7 +29,7 @@ from pathlib import Path
 from typing import TYPE_CHECKING, Any
 
 from clausewise.provisions import ClausewiseError
-from clausewise.provisions.verdicts import CAUTION, ERROR, PASS
+from clausewise.provisions.verdicts import CAUTION, ERROR, FAILURES
 
 if TYPE_CHECKING:
     from clausewise.beamfile import Schedule
@@ -43,7 +44,7 @@ REPORT_WIDTH = 110  # columns of a report that does not go to a terminal
 BATCH_FROM = 2_000  # beam-editions beyond which check takes the batch path (rich or CSV)
 
 EXIT_STATUS = """exit status:
-  0  every check passes
+  0  every check passes (beams without actions report "capacity only")
   1  a check fails, or a beam is outside an edition's scope or has no equilibrium
   2  bad input or usage; also when some beams of the file were refused or an edition
      could not assess a beam (the others are still checked and reported)
@@ -270,7 +271,7 @@ def _editions(registry: Registry, ids: Sequence[str]) -> list[Edition]:
 def exit_status(outcomes: Sequence[Outcome], schedule: Schedule) -> int:
     if schedule.problems or any(o.status == ERROR for o in outcomes):
         return 2
-    return 0 if all(o.status == PASS for o in outcomes) else 1
+    return 1 if any(o.status in FAILURES for o in outcomes) else 0
 
 
 def _chosen_format(args: argparse.Namespace) -> str:
@@ -494,7 +495,7 @@ def _run_batch(schedule: Schedule, editions: Sequence[Edition], form: str | None
     statuses = {s for counts in summary.counts.values() for s in counts}
     if schedule.problems or ERROR in statuses:
         return 2
-    return 0 if statuses <= {PASS} else 1
+    return 1 if any(s in FAILURES for s in statuses) else 0
 
 
 def check_command(args: argparse.Namespace) -> int:

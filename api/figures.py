@@ -344,7 +344,7 @@ def utilisation_figure(outcomes: Sequence[Outcome]) -> Figure:
         elif not gave_verdict:
             notes.append(f"refused: {a.status}")
         else:
-            notes.append(f"{u:.3f} {o.shown_status}: {check.name}" if check else o.shown_status)
+            notes.append(f"{u:.3f} {o.status}: {check.name}" if check else o.status)
     positions = np.arange(len(labels))
     bars = ax.barh(positions, values, color=colors, height=0.6, edgecolor="#555555")
     for bar, no in zip(bars, refused, strict=True):

@@ -27,11 +27,10 @@ from clausewise.provisions import Notation
 from clausewise.provisions.engine import CAUTION, FAIL, PASS, Assessment
 from clausewise.provisions.hookspecs import HOOKS, TOPICS
 from clausewise.provisions.registry import TopicAnswer
-from clausewise.provisions.verdicts import ERROR
+from clausewise.provisions.verdicts import CAPACITY_ONLY, ERROR, Status
 from clausewise.provisions.vocabulary import Check, Clause, Envelope, Factor, Sense
 from clausewise.provisions.widths import OverhangEnvelope
 from clausewise.results import Outcome, Units, convert, number
-from clausewise.results.running import CAPACITY_ONLY
 
 if TYPE_CHECKING:
     from pathlib import Path
@@ -252,7 +251,7 @@ def checks_table(checks: Sequence[Check], units: Units, edition: str, title: str
 def _verdict(outcome: Outcome) -> Text:
     a = outcome.assessment
     assert a is not None
-    status = outcome.shown_status
+    status = outcome.status
     text = Text("▶ ", style=STATUS_STYLE.get(status, "bold yellow"))
     text.append(f"{outcome.entry.beam.id} under {a.edition_id}: ", style="bold")
     text.append(a.summary(), style="bold")
@@ -286,7 +285,7 @@ def beam_panel(outcome: Outcome) -> Group:
     """One beam under one edition: its heading (edition, form, design situation), the
     inputs, the findings, the checks and what governs."""
     a = outcome.assessment
-    heading = Group(Text(""), Rule(style=STATUS_STYLE.get(outcome.shown_status, "yellow")),
+    heading = Group(Text(""), Rule(style=STATUS_STYLE.get(outcome.status, "yellow")),
                     Text(_beam_title(outcome), style="bold"))
     if a is None:
         return Group(heading, Text(f"not assessed: {outcome.error}", style="magenta"))
@@ -332,7 +331,7 @@ def summary_table(outcomes: Sequence[Outcome]) -> RenderableType:
             governing: RenderableType = Text(o.error, style="magenta")
             if check is not None and a is not None:
                 governing = Text(f"{check.name} [{_where(check.clause, o.edition)}]")
-            _row(table, o.entry.beam.id, o.edition, _status(o.shown_status),
+            _row(table, o.entry.beam.id, o.edition, _status(o.status),
                  number(check.utilisation, 3) if check else "", governing)
         return table
 
@@ -401,7 +400,7 @@ def check_report(schedule: Schedule, outcomes: Sequence[Outcome],
 
 def status_counts(outcomes: Sequence[Outcome], editions: Sequence[str]) -> RenderableType:
     """Beams by status, one line per edition."""
-    counts = {e: Counter(o.shown_status for o in outcomes if o.edition == e) for e in editions}
+    counts = {e: Counter(o.status for o in outcomes if o.edition == e) for e in editions}
     statuses = [s for s in STATUS_MARK if any(c[s] for c in counts.values())]
     table = Table(title="beams by status, per edition", title_justify="left",
                   title_style="bold", box=box.SIMPLE_HEAD, pad_edge=False)
@@ -420,7 +419,7 @@ def _cell(outcome: Outcome | None, percent: bool = False) -> Text:
     ``85✓M`` in per cent, where the width is short)."""
     if outcome is None:
         return Text("—", style="dim")
-    status = outcome.shown_status
+    status = outcome.status
     style = STATUS_STYLE.get(status, "bold yellow")
     check, proper = _governing(outcome)
     if check is None:
@@ -452,7 +451,7 @@ def _keys(editions: Sequence[str]) -> list[str]:
 def _legend(outcomes: Sequence[Outcome], keys: dict[str, str], percent: bool = False) -> Text:
     """What the marks, codes and column keys of the comparison mean."""
     text = Text(style="dim")
-    statuses = dict.fromkeys(o.shown_status for o in outcomes)
+    statuses = dict.fromkeys(o.status for o in outcomes)
     text.append("marks: " + ", ".join(f"{STATUS_MARK.get(s, '?')} {s}" for s in statuses))
     codes: dict[str, str] = {}
     for o in outcomes:
@@ -491,8 +490,8 @@ def comparison_table(outcomes: Sequence[Outcome], editions: Sequence[str]) -> Re
     letters with a legend for the edition ids when the ids do not fit, and the editions
     split into blocks of columns as a last resort; an id or a cell is never cut."""
     by_beam = _by_beam(outcomes)
-    statuses = [s for s in STATUS_MARK if any(o.shown_status == s for o in outcomes)]
-    counts = {s: Counter(o.edition for o in outcomes if o.shown_status == s) for s in statuses}
+    statuses = [s for s in STATUS_MARK if any(o.status == s for o in outcomes)]
+    counts = {s: Counter(o.edition for o in outcomes if o.status == s) for s in statuses}
     beam_width = max([6, *(len(b) for b in by_beam)])
 
     def cells(percent: bool) -> dict[str, list[Text]]:
@@ -570,7 +569,7 @@ def details_tables(outcomes: Sequence[Outcome]) -> list[RenderableType]:
                     return "—"
                 return f"{symbol} {number(convert(value, 'N·mm', units.system)[0])}"
 
-            _row(table, edition, _status(o.shown_status),
+            _row(table, edition, _status(o.status),
                  number(check.utilisation, 3) if check else "",
                  moment(a.design_resistance.value if a.design_resistance else None,
                         n.resistance),
@@ -675,8 +674,8 @@ def migration(outcomes: Sequence[Outcome], source: str, target: str,
             continue
         before, after = row[source], row[target]
         what = []
-        if before.shown_status != after.shown_status:
-            what.append(f"status {before.shown_status} → {after.shown_status}")
+        if before.status != after.status:
+            what.append(f"status {before.status} → {after.status}")
         gb, ga = _governing(before)[0], _governing(after)[0]
         if gb is not None and ga is not None and gb.name != ga.name:
             what.append(f"governing {gb.name} → {ga.name}")
@@ -855,7 +854,7 @@ def explain_report(schedule: Schedule, outcome: Outcome) -> Group:
     _row(facts, "edition", f"{a.edition_id} · {a.edition_title}")
     _row(facts, "form", f"{a.form} ({a.form_basis})")
     _row(facts, "design situation", outcome.situation)
-    _row(facts, "status", _status(outcome.shown_status))
+    _row(facts, "status", _status(outcome.status))
     parts += [Text(""), facts, _section("inputs"), _inputs_table(outcome),
               _section("edition stack (base first)"), _stack_table(a),
               _section("who answered each topic"), topics_table(a.topics),
@@ -967,7 +966,7 @@ def parameters_report(edition: Edition, form: str) -> Group:
 def batch_summary(schedule: Schedule, summary: BatchSummary, out: Path | None,
                   situation: str = "persistent") -> Group:
     """Counts by status per edition and the worst beams, after a batch run."""
-    statuses = ("pass", "fail", "outside scope", "no equilibrium", "error", "refused")
+    statuses = (*Status, "refused")
     counts = Table(title="beams by status, per edition", title_justify="left",
                    title_style="bold", box=box.SIMPLE_HEAD, pad_edge=False)
     counts.add_column("edition", no_wrap=True)

@@ -173,7 +173,7 @@ def _edition_part(outcome: Outcome, figures: bool) -> str:
              _facts([("edition", a.edition_title), ("edition stack", stack),
                      ("form", f"{a.form} ({a.form_basis})"),
                      ("design situation", outcome.situation),
-                     ("status", outcome.shown_status)])]
+                     ("status", outcome.status)])]
     renamed = [(input_label(k, n), v) for k, v in outcome.entry.shown.items()
                if input_label(k, n) != k]
     if renamed:
@@ -235,7 +235,7 @@ def calculation_sheet(schedule: Schedule, outcomes: Sequence[Outcome],
     contents = "".join(
         f'<li><a href="#{_anchor(b)}">{_e(b)}</a>: ' + ", ".join(
             f'<a href="#{_anchor(b, o.edition)}">{_e(o.edition)}</a> '
-            f'<span class="{_status_class(o.shown_status)}">{_e(o.shown_status)}</span>'
+            f'<span class="{_status_class(o.status)}">{_e(o.status)}</span>'
             for o in group) + "</li>" for b, group in by_beam.items())
     problems = ""
     if schedule.problems:

@@ -247,13 +247,21 @@ class ResponseArrays:
     def block_in_flange(self) -> NDArray[np.bool_]:
         return (self.zone_strip == 0) & (self.labels[0] == "flange")
 
-    def block_case(self, i: int) -> str:
+    def _case_names(self) -> NDArray[np.object_]:
+        """The block case of a zone ending in each strip, in words."""
         if len(self.labels) == 1:
-            return "rectangular section"
-        reached = int(self.zone_strip[i])
-        if reached == 0:
-            return f"block inside the {self.labels[0]}"
-        return f"block enters the {self.labels[reached]}"
+            return np.array(["rectangular section"], dtype=object)
+        return np.array([f"block inside the {self.labels[0]}"]
+                        + [f"block enters the {label}" for label in self.labels[1:]],
+                        dtype=object)
+
+    @property
+    def block_cases(self) -> NDArray[np.object_]:
+        """Where the compression zone ends, in words, for every section of the batch."""
+        return self._case_names()[self.zone_strip]
+
+    def block_case(self, i: int) -> str:
+        return str(self._case_names()[int(self.zone_strip[i])])
 
     def row(self, i: int) -> Response:
         layers = tuple(

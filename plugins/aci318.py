@@ -45,6 +45,7 @@ from clausewise.provisions import (
     Factor,
     MaterialModel,
     Notation,
+    OverhangRule,
     Parameter,
     Parameters,
     RectangularBlock,
@@ -55,13 +56,17 @@ from clausewise.provisions import (
     choose,
     clamp,
     cylinder_strength,
+    dead_alone_and_with_live,
+    factored_moment,
+    half_clear_distance,
     hookimpl,
     largest_of,
+    overhang_envelope,
+    per_beam,
+    ratio_parameter,
     smallest_of,
     sqrt,
 )
-from clausewise.provisions.combinations import Combination, factored_moment
-from clausewise.provisions.widths import OverhangRule, half_clear_distance, overhang_envelope
 
 INCH_POUND = "inch-pound"
 FORMS = ("SI", INCH_POUND)
@@ -158,6 +163,8 @@ class Aci318:
             Parameter("fy_max", 80_000 * MPA_PER_PSI if ip else 550.0,
                       c("steel_maximum", "greatest yield strength for flexure"),
                       "80 000 psi" if ip else "550 MPa", (300.0, 700.0), "MPa"),
+            ratio_parameter(self.info.clause("-", "cylinder about 0.8 of cube strength: common "
+                                             "practice, not ACI text")),
             Parameter("dead_only_factor", 1.4, c("combinations", "dead load alone: 1.4D"),
                       "factor on dead load alone", (1.0, 2.0)),
             Parameter("dead_factor", 1.2, c("combinations", "dead with live load: 1.2D + 1.6L"),
@@ -183,7 +190,7 @@ class Aci318:
 
     @hookimpl
     def applicability(self, beam: Beam, params: Parameters, context: Context) -> Sequence[Check]:
-        fc = cylinder_strength(beam).value
+        fc = cylinder_strength(beam, params).value
         return [
             Check("concrete strength at least the code minimum", fc, params.value("fc_min"),
                   Sense.AT_LEAST, params["fc_min"].clause, "f'c", "MPa"),
@@ -261,7 +268,7 @@ class Aci318:
 
     @hookimpl
     def concrete_law(self, beam: Beam, params: Parameters, context: Context) -> MaterialModel:
-        fc = cylinder_strength(beam)
+        fc = cylinder_strength(beam, params)
         b1 = self.beta1(fc.value, context.form)
         alpha = params.value("block_intensity")
         eps_cu = params.value("ultimate_strain")
@@ -336,18 +343,15 @@ class Aci318:
     @hookimpl
     def design_actions(self, beam: Beam, params: Parameters,
                        context: Context) -> Envelope | None:
-        combos = self.clause("combinations", "factored load combinations")
-        d1, d2, l2 = (params.value(n) for n in ("dead_only_factor", "dead_factor",
-                                                "live_factor"))
-        return factored_moment(beam, [Combination(d1, 0.0, combos), Combination(d2, l2, combos)],
+        return factored_moment(beam, dead_alone_and_with_live(params),
                                self.clause("combinations", "factored moment as given"),
                                symbol="Mu")
 
     # --- reinforcement limits --------------------------------------------------------
 
-    def minimum_area(self, beam: Beam, width: Any, form: str) -> Any:
+    def minimum_area(self, beam: Beam, width: Any, params: Parameters, form: str) -> Any:
         """As,min for a web (or tension-flange) width in mm: the larger of two ratios."""
-        fc, fy = cylinder_strength(beam).value, np.asarray(beam.yield_strength, float)
+        fc, fy = cylinder_strength(beam, params).value, np.asarray(beam.yield_strength, float)
         if form == INCH_POUND:
             ratio = largest_of(3 * sqrt(psi(fc)) / psi(fy), 200 / psi(fy))
         else:
@@ -364,7 +368,7 @@ class Aci318:
             width = smallest_of(section.max_width, 2 * bw)
             note = (f"width the lesser of bf and 2bw: flange in tension "
                     f"({self.clauses['flange_in_tension']})")
-        limit = required = self.minimum_area(beam, width, context.form)
+        limit = required = self.minimum_area(beam, width, params, context.form)
         # Not needed where the steel provided is at least 4/3 of that required by analysis;
         # the area required is estimated as As·Mu/(φMn), which errs on the safe side.
         if demand is not None:
@@ -374,7 +378,7 @@ class Aci318:
             limit = smallest_of(required, 4.0 / 3.0 * by_analysis)
             note += (f"; waived to 4/3 of the area required by analysis where smaller "
                      f"({self.clauses['minimum_steel_waiver']})")
-        return [Check("minimum tension reinforcement", beam.tension_area, _out(limit),
+        return [Check("minimum tension reinforcement", beam.tension_area, per_beam(limit),
                       Sense.AT_LEAST, self.clause("minimum_steel", "minimum flexural "
                                                   "reinforcement"), "As", "mm²", note)]
 
@@ -392,10 +396,7 @@ class Aci318:
         if not (self.isolated_tee(beam) and beam.flange_in_compression):
             return []
         return [Check("flange thickness of an isolated T", beam.flange_thickness,
-                      _out(0.5 * np.asarray(beam.web_width, float)), Sense.AT_LEAST,
+                      per_beam(0.5 * np.asarray(beam.web_width, float)), Sense.AT_LEAST,
                       self.clause("isolated_tee", "isolated T-beam flange"), "hf", "mm",
                       "the beam is marked isolated: its flange is not part of a slab")]
 
-
-def _out(value: Any) -> Any:
-    return value if np.ndim(value) else float(value)

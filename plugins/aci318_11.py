@@ -25,8 +25,7 @@ from types import MappingProxyType
 import numpy as np
 
 from clausewise.plugins.aci318 import FORMS, NOTATION, Aci318
-from clausewise.provisions import Beam, Candidate, EditionInfo, Shape
-from clausewise.provisions.widths import OverhangRule
+from clausewise.provisions import Beam, Candidate, EditionInfo, OverhangRule, Shape
 
 # Clause numbers by topic, from memory of 318-11.
 CLAUSES_2011 = MappingProxyType({

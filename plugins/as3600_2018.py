@@ -8,7 +8,7 @@ published standard; clause titles are our own words.
 Contents
   scope ............. 1.1.2 / 3.1.1 concrete strength, 3.2.1 steel strength
   flange width ...... 8.8.2 bw + 0.2a (T), bw + 0.1a (L), half the clear distance
-  concrete .......... 8.1.3 ultimate strain, α2 and γ
+  concrete .......... 8.1.3 ultimate strain, α2 and γ (capped at 0.85 or not, by choice)
   steel ............. 3.2.2 Es, elastic-plastic
   strength .......... Table 2.2.2 φ from kuo, 2.2.2 φMuo ≥ M*
   demand ............ AS/NZS 1170.0 4.2.2 load combinations
@@ -35,6 +35,7 @@ from clausewise.provisions import (
     FloorLayout,
     MaterialModel,
     Notation,
+    OverhangRule,
     Parameter,
     Parameters,
     RectangularBlock,
@@ -44,12 +45,17 @@ from clausewise.provisions import (
     choose,
     clamp,
     cylinder_strength,
+    dead_alone_and_with_live,
+    factored_moment,
+    half_clear_distance,
     hookimpl,
     largest_of,
+    overhang_envelope,
+    per_beam,
+    ratio_parameter,
+    smallest_of,
     sqrt,
 )
-from clausewise.provisions.combinations import Combination, factored_moment
-from clausewise.provisions.widths import OverhangRule, half_clear_distance, overhang_envelope
 
 EDITION = EditionInfo(
     "as3600:2018", "AS 3600-2018 concrete structures", 2018,
@@ -59,6 +65,7 @@ EDITION = EditionInfo(
 clause = EDITION.clause
 LOADS = clause("AS/NZS 1170.0 4.2.2", "strength load combinations of the loading standard")
 PHI_TABLE = clause("Table 2.2.2", "capacity reduction factor")
+LOWER_LIMIT_ONLY, BOTH_LIMITS = "at least 0.67", "0.67 to 0.85"
 ZERO_MOMENT_ESTIMATE = clause("8.8.2 (estimate of a)", "distance between points of zero "
                               "moment estimated from the span: common practice, not AS text")
 
@@ -73,6 +80,14 @@ def edition_parameters(context: Context) -> Sequence[Parameter]:
     return [
         Parameter("ultimate_strain", 0.003, clause("8.1.3", "ultimate concrete strain"),
                   "strain at the extreme compression fibre", (0.002, 0.004)),
+        Parameter("gamma_limits", LOWER_LIMIT_ONLY, clause("8.1.3", "limits of the block "
+                  "depth factor γ (a contested reading)"),
+                  f"{LOWER_LIMIT_ONLY!r}: γ = 0.97 - 0.0025 f'c with only the lower limit, "
+                  "the default because that is how we recall the 2018 text (we recall the cap "
+                  f"0.85 with the earlier form 1.05 - 0.007 f'c); {BOTH_LIMITS!r}: also "
+                  "capped at 0.85, as others recall it, which lowers γ below f'c = 48 MPa "
+                  "and changes φMuo by up to about 5 %", choices=(LOWER_LIMIT_ONLY,
+                                                                   BOTH_LIMITS)),
         Parameter("steel_modulus", 200_000.0, clause("3.2.2", "modulus of reinforcement"),
                   "200 000 MPa", (150_000.0, 210_000.0), "MPa"),
         Parameter("phi_max", 0.85, PHI_TABLE, "φ at small kuo (Class N bars)", (0.5, 1.0)),
@@ -97,6 +112,8 @@ def edition_parameters(context: Context) -> Sequence[Parameter]:
                   "a / span of an end span", (0.5, 1.0)),
         Parameter("zero_moment_interior", 0.7, ZERO_MOMENT_ESTIMATE,
                   "a / span of an interior span", (0.5, 1.0)),
+        ratio_parameter(clause("-", "cylinder about 0.8 of cube strength: common practice, "
+                               "not AS text")),
         Parameter("dead_only_factor", 1.35, LOADS, "1.35G", (1.0, 2.0)),
         Parameter("dead_factor", 1.2, LOADS, "1.2G + 1.5Q", (1.0, 2.0)),
         Parameter("live_factor", 1.5, LOADS, "1.2G + 1.5Q", (1.0, 2.0)),
@@ -107,7 +124,7 @@ def edition_parameters(context: Context) -> Sequence[Parameter]:
 
 @hookimpl
 def applicability(beam: Beam, params: Parameters, context: Context) -> Sequence[Check]:
-    fc = cylinder_strength(beam).value
+    fc = cylinder_strength(beam, params).value
     return [
         Check("concrete strength at least the least covered", fc, params.value("fc_min"),
               Sense.AT_LEAST, params["fc_min"].clause, "f'c", "MPa"),
@@ -164,18 +181,23 @@ def alpha2(fc: Any) -> Factor:
                   "0.85 - 0.0015 f'c, at least 0.67")
 
 
-def gamma(fc: Any) -> Factor:
-    """Block depth factor: 0.97 - 0.0025 f'c, at least 0.67."""
-    return Factor("γ", largest_of(0.97 - 0.0025 * np.asarray(fc, float), 0.67), STRESS_BLOCK,
-                  "0.97 - 0.0025 f'c, at least 0.67")
+def gamma(fc: Any, reading: str = LOWER_LIMIT_ONLY) -> Factor:
+    """Block depth factor: 0.97 - 0.0025 f'c, at least 0.67; in the other reading of 8.1.3
+    also at most 0.85 (which binds below f'c = 48 MPa)."""
+    value = largest_of(0.97 - 0.0025 * np.asarray(fc, float), 0.67)
+    if reading == LOWER_LIMIT_ONLY:
+        return Factor("γ", value, STRESS_BLOCK, "0.97 - 0.0025 f'c, at least 0.67 "
+                      f"(gamma_limits = {reading})")
+    return Factor("γ", smallest_of(value, 0.85), STRESS_BLOCK, "0.97 - 0.0025 f'c within "
+                  f"0.67..0.85 (gamma_limits = {reading})")
 
 
 @hookimpl
 def concrete_law(beam: Beam, params: Parameters, context: Context) -> MaterialModel:
-    fc = cylinder_strength(beam)
-    a2, g = alpha2(fc.value), gamma(fc.value)
+    fc = cylinder_strength(beam, params)
+    a2, g = alpha2(fc.value), gamma(fc.value, params.choice("gamma_limits"))
     eps_cu = params.value("ultimate_strain")
-    stress = Factor("α2 f'c", _out(a2.value * np.asarray(fc.value, float)), STRESS_BLOCK,
+    stress = Factor("α2 f'c", per_beam(a2.value * np.asarray(fc.value, float)), STRESS_BLOCK,
                     "block intensity", "MPa")
     return MaterialModel(
         RectangularBlock(stress.value, g.value, eps_cu),
@@ -193,7 +215,7 @@ def steel_law(beam: Beam, params: Parameters, context: Context) -> MaterialModel
                 "characteristic yield strength", "MPa"),
          Factor("Es", es, params["steel_modulus"].clause, params["steel_modulus"].description,
                 "MPa"),
-         Factor("εsy", _out(np.asarray(fsy, float) / es), clause("3.2.2", "yield strain"),
+         Factor("εsy", per_beam(np.asarray(fsy, float) / es), clause("3.2.2", "yield strain"),
                 "fsy/Es")),
     )
 
@@ -221,7 +243,7 @@ def capacity_factor(kuo: Any, ductility_class: str, params: Parameters) -> tuple
 
 def kuo_of(beam: Beam, response: Any) -> Any:
     """Neutral-axis depth over the depth of the extreme tension layer, do."""
-    return _out(response.c / np.asarray(beam.extreme_tension_depth, float))
+    return per_beam(response.c / np.asarray(beam.extreme_tension_depth, float))
 
 
 @hookimpl
@@ -234,8 +256,7 @@ def resistance_factor(beam: Beam, response: Any, params: Parameters,
 
 @hookimpl
 def design_actions(beam: Beam, params: Parameters, context: Context) -> Envelope | None:
-    d1, d2, l2 = (params.value(n) for n in ("dead_only_factor", "dead_factor", "live_factor"))
-    return factored_moment(beam, [Combination(d1, 0.0, LOADS), Combination(d2, l2, LOADS)],
+    return factored_moment(beam, dead_alone_and_with_live(params),
                            LOADS, name="design moment", symbol="M*", symbols=("G", "Q"))
 
 
@@ -244,10 +265,11 @@ def design_actions(beam: Beam, params: Parameters, context: Context) -> Envelope
 @hookimpl
 def minimum_reinforcement(beam: Beam, section: Any, response: Any, params: Parameters,
                           context: Context) -> Sequence[Check]:
-    fct = params.value("flexural_tensile_coefficient") * sqrt(cylinder_strength(beam).value)
+    fc = cylinder_strength(beam, params).value
+    fct = params.value("flexural_tensile_coefficient") * sqrt(fc)
     ratio = params.value("min_strength_ratio")
     return [Check("minimum strength in bending", response.nominal_moment,
-                  _out(ratio * section.cracking_moment(fct)), Sense.AT_LEAST,
+                  per_beam(ratio * section.cracking_moment(fct)), Sense.AT_LEAST,
                   params["min_strength_ratio"].clause, "Muo", "N·mm",
                   f"Muo at least {ratio:g} Mcr; Mcr = Z f'ct.f of the gross section with its "
                   "effective flange, neglecting shrinkage and prestress")]
@@ -260,6 +282,3 @@ def ductility_limits(beam: Beam, response: Any, params: Parameters,
                   params.value("kuo_limit"), Sense.AT_MOST, params["kuo_limit"].clause, "kuo",
                   "", "kuo = ku/do, do the depth of the extreme tension layer")]
 
-
-def _out(value: Any) -> Any:
-    return value if np.ndim(value) else float(value)

@@ -33,6 +33,7 @@ from clausewise.provisions import (
     Factor,
     MaterialModel,
     Notation,
+    OverhangRule,
     Parameter,
     Parameters,
     RectangularBlock,
@@ -40,13 +41,17 @@ from clausewise.provisions import (
     Resistance,
     Sense,
     cylinder_strength,
+    dead_alone_and_with_live,
+    factored_moment,
+    half_clear_distance,
     hookimpl,
     largest_of,
+    overhang_envelope,
+    per_beam,
+    ratio_parameter,
     smallest_of,
     sqrt,
 )
-from clausewise.provisions.combinations import Combination, factored_moment
-from clausewise.provisions.widths import OverhangRule, half_clear_distance, overhang_envelope
 
 EDITION = EditionInfo(
     "csa-a23.3:19", "CSA A23.3-19 design of concrete structures", 2019,
@@ -88,6 +93,8 @@ def edition_parameters(context: Context) -> Sequence[Parameter]:
                   "(single web, from memory)", (1.0, 10.0)),
         Parameter("ductility_constant", 700.0, clause("10.5.2", "limit on c/d"),
                   "c/d at most k/(k + fy); k = εcu·Es = 700 MPa", (400.0, 1000.0), "MPa"),
+        ratio_parameter(clause("-", "cylinder about 0.8 of cube strength: common practice, "
+                               "not CSA text")),
         Parameter("dead_only_factor", 1.4, LOADS, "load case 1: 1.4D", (1.0, 2.0)),
         Parameter("dead_factor", 1.25, LOADS, "load case 2: 1.25D + 1.5L", (1.0, 2.0)),
         Parameter("live_factor", 1.5, LOADS, "load case 2: 1.25D + 1.5L", (1.0, 2.0)),
@@ -98,7 +105,7 @@ def edition_parameters(context: Context) -> Sequence[Parameter]:
 
 @hookimpl
 def applicability(beam: Beam, params: Parameters, context: Context) -> Sequence[Check]:
-    fc = cylinder_strength(beam).value
+    fc = cylinder_strength(beam, params).value
     return [
         Check("concrete strength at least the least covered", fc, params.value("fc_min"),
               Sense.AT_LEAST, params["fc_min"].clause, "f'c", "MPa"),
@@ -159,7 +166,7 @@ def beta1(fc: Any) -> Factor:
 
 @hookimpl
 def concrete_law(beam: Beam, params: Parameters, context: Context) -> MaterialModel:
-    fc = cylinder_strength(beam)
+    fc = cylinder_strength(beam, params)
     a1, b1 = alpha1(fc.value), beta1(fc.value)
     phi_c = params.value("phi_c")
     eps_cu = params.value("ultimate_strain")
@@ -167,7 +174,7 @@ def concrete_law(beam: Beam, params: Parameters, context: Context) -> MaterialMo
     stress = Factor("α1 φc f'c", a1.value * phi_c * np.asarray(fc.value, float), STRESS_BLOCK,
                     f"factored block intensity; {params.cite('phi_c')}", "MPa")
     return MaterialModel(
-        RectangularBlock(_out(stress.value), b1.value, eps_cu),
+        RectangularBlock(per_beam(stress.value), b1.value, eps_cu),
         (fc, a1, b1, Factor("φc", phi_c, params["phi_c"].clause), stress,
          Factor("εcu", eps_cu, params["ultimate_strain"].clause)),
     )
@@ -181,14 +188,14 @@ def steel_law(beam: Beam, params: Parameters, context: Context) -> MaterialModel
     # φs·fs with fs = Es·εs ≤ fy from compatibility is the same law as one with modulus
     # φs·Es and plateau φs·fy: the yield strain fy/Es is unchanged.
     return MaterialModel(
-        ElasticPlastic(_out(phi_s * np.asarray(es, float)), _out(phi_s * fy)),
+        ElasticPlastic(per_beam(phi_s * np.asarray(es, float)), per_beam(phi_s * fy)),
         (Factor("fy", beam.yield_strength, clause("8.5.1", "specified yield strength"),
                 "specified yield strength", "MPa"),
          Factor("Es", es, params["steel_modulus"].clause, params["steel_modulus"].description,
                 "MPa"),
          Factor("φs", phi_s, params["phi_s"].clause, "applied to the steel stress"),
-         Factor("φs fy", _out(phi_s * fy), params["phi_s"].clause, "factored plateau", "MPa"),
-         Factor("εy", _out(fy / es), clause("8.5.4.1", "yield strain"), "fy/Es, unfactored")),
+         Factor("φs fy", per_beam(phi_s * fy), params["phi_s"].clause, "factored plateau", "MPa"),
+         Factor("εy", per_beam(fy / es), clause("8.5.4.1", "yield strain"), "fy/Es, unfactored")),
     )
 
 
@@ -209,8 +216,7 @@ def resistance_factor(beam: Beam, response: Any, params: Parameters,
 
 @hookimpl
 def design_actions(beam: Beam, params: Parameters, context: Context) -> Envelope | None:
-    d1, d2, l2 = (params.value(n) for n in ("dead_only_factor", "dead_factor", "live_factor"))
-    return factored_moment(beam, [Combination(d1, 0.0, LOADS), Combination(d2, l2, LOADS)],
+    return factored_moment(beam, dead_alone_and_with_live(params),
                            LOADS, name="factored moment", symbol="Mf")
 
 
@@ -219,7 +225,7 @@ def design_actions(beam: Beam, params: Parameters, context: Context) -> Envelope
 @hookimpl
 def minimum_reinforcement(beam: Beam, section: Any, response: Any, params: Parameters,
                           context: Context) -> Sequence[Check]:
-    fc, fy = cylinder_strength(beam).value, np.asarray(beam.yield_strength, float)
+    fc, fy = cylinder_strength(beam, params).value, np.asarray(beam.yield_strength, float)
     if beam.flanged and not beam.flange_in_compression:
         cap = params.value("tension_flange_limit")
         bt = smallest_of(section.max_width, cap * np.asarray(beam.web_width, float))
@@ -228,7 +234,7 @@ def minimum_reinforcement(beam: Beam, section: Any, response: Any, params: Param
         bt, note = np.asarray(beam.web_width, float), "bt = bw (tension zone in the web)"
     coefficient = params.value("min_steel_coefficient")
     required = coefficient * sqrt(fc) / fy * bt * np.asarray(beam.depth, float)
-    return [Check("minimum tension reinforcement", beam.tension_area, _out(required),
+    return [Check("minimum tension reinforcement", beam.tension_area, per_beam(required),
                   Sense.AT_LEAST, params["min_steel_coefficient"].clause, "As", "mm²",
                   f"{coefficient:g}√f'c/fy·bt·h with h the overall depth; {note}")]
 
@@ -238,11 +244,8 @@ def ductility_limits(beam: Beam, response: Any, params: Parameters,
                      context: Context) -> Sequence[Check]:
     k = params.value("ductility_constant")
     limit = k / (k + np.asarray(beam.yield_strength, float))
-    return [Check("neutral-axis depth ratio", _out(response.c / beam.effective_depth),
-                  _out(limit), Sense.AT_MOST, params["ductility_constant"].clause, "c/d", "",
+    return [Check("neutral-axis depth ratio", per_beam(response.c / beam.effective_depth),
+                  per_beam(limit), Sense.AT_MOST, params["ductility_constant"].clause, "c/d", "",
                   f"c from the factored forces; d to the tension steel centroid; "
                   f"limit {k:g}/({k:g} + fy)")]
 
-
-def _out(value: Any) -> Any:
-    return value if np.ndim(value) else float(value)

@@ -14,8 +14,9 @@ Contents
   concrete .......... 3.1.6(1) fcd, Table 3.1 strains and fctm, 3.1.7 block or parabola
   steel ............. 3.2.7 design diagram, horizontal or inclined top branch
   strength .......... 6.1 M_Ed at most M_Rd, partial factors on the materials
-  demand ............ EN 1990 6.10 fundamental combination
+  demand ............ EN 1990 6.10 fundamental combination, or 6.10a/b by choice
   limits ............ 9.2.1.1(1) minimum steel, 9.2.1.1(3) maximum steel, 5.5(4) xu/d
+                      where moments are redistributed (always, by choice)
 """
 
 from __future__ import annotations
@@ -30,8 +31,9 @@ from clausewise.provisions import (
     Beam,
     Bending,
     BilinearHardening,
-    Candidate,
     Check,
+    ClassTable,
+    Combination,
     Context,
     Continuity,
     EditionInfo,
@@ -41,6 +43,7 @@ from clausewise.provisions import (
     FloorLayout,
     MaterialModel,
     Notation,
+    OverhangRule,
     ParabolaRectangle,
     Parameter,
     Parameters,
@@ -50,13 +53,18 @@ from clausewise.provisions import (
     Sense,
     choose,
     cylinder_strength,
+    factored_moment,
+    half_clear_distance,
     hookimpl,
     input_clause,
     largest_of,
     log,
+    overhang_envelope,
+    per_beam,
     power,
+    ratio_parameter,
+    shown,
 )
-from clausewise.provisions.widths import OverhangRule, half_clear_distance, overhang_envelope
 
 EDITION = EditionInfo(
     "en1992-1-1:2004", "EN 1992-1-1:2004 concrete structures, general rules "
@@ -69,6 +77,8 @@ clause = EDITION.clause
 NORMAL_STRENGTH_UP_TO = 50.0  # MPa: Table 3.1 and 3.1.7(3) change form above C50/60
 RECTANGULAR, PARABOLA = "rectangular", "parabola-rectangle"
 HORIZONTAL, INCLINED = "horizontal", "inclined"
+SINGLE_EXPRESSION, PAIR_OF_EXPRESSIONS = "6.10", "6.10a/b"
+WHERE_REDISTRIBUTED, ALWAYS = "where redistributed", "always"
 SITUATIONS = {"persistent": "", "transient": "", "accidental": "_accidental"}
 
 
@@ -115,6 +125,13 @@ def edition_parameters(context: Context) -> Sequence[Parameter]:
                   "highest fyk the rules cover", (500.0, 700.0), "MPa"),
         Parameter("redistribution_ratio", 1.0, ductility,
                   "δ, moment after redistribution over elastic moment (1: none)", (0.7, 1.0)),
+        Parameter("neutral_axis_limit", WHERE_REDISTRIBUTED, clause(
+            "5.5(4)", "when the neutral-axis limit applies (a contested reading)"),
+            f"{WHERE_REDISTRIBUTED!r} (default): only where moments are redistributed, "
+            "δ < 1, which is what the recommended text requires; "
+            f"{ALWAYS!r}: also with δ = 1, as a ductility practice some national annexes "
+            "adopt (xu/d ≤ 0.448 up to C50/60 with the recommended k1, k2)",
+            choices=(WHERE_REDISTRIBUTED, ALWAYS)),
         Parameter("k1", 0.44, ductility, "k1, up to C50/60", (0.3, 0.6)),
         Parameter("k2_scale", 1.25, ductility, "k2 = k2_scale (0.6 + 0.0014/εcu2)",
                   (0.8, 1.5)),
@@ -127,9 +144,20 @@ def edition_parameters(context: Context) -> Sequence[Parameter]:
                   "least As/(bt d)", (0.0005, 0.005)),
         Parameter("asmax_ratio", 0.04, clause("9.2.1.1(3)", "maximum steel"),
                   "greatest (As + As')/Ac outside laps", (0.01, 0.1)),
+        ratio_parameter(clause("-", "cylinder about 0.8 of cube strength beyond Table 3.1: "
+                               "common practice, not EN text")),
         Parameter("dead_factor", 1.35, combination, "γG on permanent actions", (1.0, 2.0)),
         Parameter("live_factor", 1.5, combination, "γQ on the leading variable action",
                   (1.0, 2.0)),
+        Parameter("combination_rule", SINGLE_EXPRESSION, clause(
+            "EN 1990 6.4.3.2(3)", "expression 6.10, or the less favourable of 6.10a and 6.10b"),
+            f"{SINGLE_EXPRESSION} (recommended) or {PAIR_OF_EXPRESSIONS} (a national choice)",
+            choices=(SINGLE_EXPRESSION, PAIR_OF_EXPRESSIONS)),
+        Parameter("psi_0", 0.7, clause("EN 1990 Table A1.1", "combination value of imposed "
+                  "loads in buildings"), "ψ0 of the imposed load in 6.10a (0.7 for categories "
+                  "A to D; 1.0 for storage)", (0.0, 1.0)),
+        Parameter("xi", 0.85, clause("EN 1990 Table A1.2(B)", "reduction of unfavourable "
+                  "permanent actions in 6.10b"), "ξ in 6.10b", (0.5, 1.0)),
     ]
 
 
@@ -147,16 +175,24 @@ def partial_factor(params: Parameters, material: str, context: Context) -> Facto
                   f"{context.situation} design situation: {params.cite(name)}")
 
 
-def characteristic_strength(beam: Beam) -> Factor:
-    """fck, the specified cylinder strength (converted when given as cube strength)."""
-    return replace(cylinder_strength(beam), symbol="fck")
+# Table 3.1 strength classes, fck (cylinder) / fck,cube (MPa), from memory
+STRENGTH_CLASSES = ClassTable((
+    (12, 15), (16, 20), (20, 25), (25, 30), (30, 37), (35, 45), (40, 50), (45, 55),
+    (50, 60), (55, 67), (60, 75), (70, 85), (80, 95), (90, 105),
+), clause("Table 3.1", "strength classes: cylinder and cube pairs"), "Table 3.1")
+
+
+def characteristic_strength(beam: Beam, params: Parameters) -> Factor:
+    """fck, the specified cylinder strength (converted when given as cube strength: by the
+    class pairs of Table 3.1, beyond them by ``cylinder_cube_ratio``)."""
+    return replace(cylinder_strength(beam, params, STRENGTH_CLASSES), symbol="fck")
 
 
 # --- scope ----------------------------------------------------------------------------
 
 @hookimpl
 def applicability(beam: Beam, params: Parameters, context: Context) -> Sequence[Check]:
-    fck = characteristic_strength(beam)
+    fck = characteristic_strength(beam, params)
     fyk = beam.yield_strength
     return [
         Check("concrete strength at least the lowest class", fck.value,
@@ -191,15 +227,15 @@ def zero_moment_distance(beam: Beam, layout: FloorLayout) -> tuple[Any, str]:
     if adjacent is None:
         adjacent, assumed = span, "; adjacent span not given, taken equal to l"
     if layout.continuity is Continuity.CANTILEVER:
-        l0 = _out(0.15 * np.asarray(adjacent, float) + span)
+        l0 = per_beam(0.15 * np.asarray(adjacent, float) + span)
         return l0, f"l0 = 0.15 l2 + l (cantilever{assumed})"
     if beam.bending is Bending.HOGGING:
-        l0 = _out(0.15 * (span + np.asarray(adjacent, float)))
+        l0 = per_beam(0.15 * (span + np.asarray(adjacent, float)))
         return l0, f"l0 = 0.15 (l1 + l2) (over a support{assumed})"
     fraction, where = {Continuity.SIMPLE: (1.0, "simple span"),
                        Continuity.END: (0.85, "end span"),
                        Continuity.INTERIOR: (0.7, "interior span")}[layout.continuity]
-    l0 = _out(fraction * span)
+    l0 = per_beam(fraction * span)
     share = "l" if fraction == 1.0 else f"{fraction:g} l"
     return l0, f"l0 = {share} ({where})"
 
@@ -212,7 +248,7 @@ def effective_flange_width(beam: Beam, params: Parameters, context: Context) -> 
         l0 = np.asarray(l0, float)
         half_clear = half_clear_distance(beam)
         width = clause("5.3.2.1(3)", "effective width of each overhang")
-        basis = f"l0 = {_show(l0)} mm"
+        basis = f"l0 = {shown(l0, '.6g')} mm"
         rules = [
             OverhangRule(f"0.2bi + 0.1l0 with {how}", tuple(
                 None if bi is None else 0.2 * bi + 0.1 * l0 for bi in half_clear), width,
@@ -262,7 +298,7 @@ def tensile_strength(fck: Any) -> tuple[Factor, Factor]:
     fcm = np.asarray(fck, float) + 8.0
     normal = np.asarray(fck, float) <= NORMAL_STRENGTH_UP_TO
     fctm = choose(normal, 0.30 * power(fck, 2.0 / 3.0), 2.12 * log(1.0 + fcm / 10.0))
-    return (Factor("fcm", _out(fcm), table, "fck + 8 MPa", "MPa"),
+    return (Factor("fcm", per_beam(fcm), table, "fck + 8 MPa", "MPa"),
             Factor("fctm", fctm, table, "0.30 fck^(2/3) up to C50/60, else "
                    "2.12 ln(1 + fcm/10)", "MPa"))
 
@@ -279,18 +315,18 @@ def block_factors(fck: Any) -> tuple[Factor, Factor]:
 
 @hookimpl
 def concrete_law(beam: Beam, params: Parameters, context: Context) -> MaterialModel:
-    fck = characteristic_strength(beam)
+    fck = characteristic_strength(beam, params)
     alpha = params["alpha_cc"]
     alpha_cc = Factor("αcc", alpha.value, alpha.clause, params.cite("alpha_cc"))
     gamma_c = partial_factor(params, "c", context)
-    fcd = Factor("fcd", _out(alpha.value * np.asarray(fck.value, float) / gamma_c.value),
+    fcd = Factor("fcd", per_beam(alpha.value * np.asarray(fck.value, float) / gamma_c.value),
                  clause("3.1.6(1)", "design compressive strength"),
                  f"αcc fck/γc with {params.cite('alpha_cc')}, "
                  f"{params.cite(partial_factor_name('c', context))}", "MPa")
     if params.choice("concrete_model") == RECTANGULAR:
         depth, intensity = block_factors(fck.value)
         eps_cu3 = ultimate_strain(fck.value, "εcu3")
-        stress = Factor("η fcd", _out(intensity.value * np.asarray(fcd.value, float)),
+        stress = Factor("η fcd", per_beam(intensity.value * np.asarray(fcd.value, float)),
                         clause("3.1.7(3)", "rectangular stress block"), "η times fcd", "MPa")
         law: Any = RectangularBlock(stress.value, depth.value, eps_cu3.value)
         shape: tuple[Factor, ...] = (depth, intensity, eps_cu3, stress)
@@ -308,9 +344,9 @@ def steel_law(beam: Beam, params: Parameters, context: Context) -> MaterialModel
     gamma_s = partial_factor(params, "s", context)
     es = beam.steel_modulus if beam.steel_modulus is not None else params.value("steel_modulus")
     diagram = clause("3.2.7(2)", "design diagram of reinforcement")
-    fyd = Factor("fyd", _out(fyk / gamma_s.value), diagram,
+    fyd = Factor("fyd", per_beam(fyk / gamma_s.value), diagram,
                  f"fyk/γs with {params.cite(partial_factor_name('s', context))}", "MPa")
-    eps_yd = Factor("εyd", _out(np.asarray(fyd.value) / es), diagram, "fyd/Es")
+    eps_yd = Factor("εyd", per_beam(np.asarray(fyd.value) / es), diagram, "fyd/Es")
     factors = (Factor("fyk", beam.yield_strength, input_clause("characteristic yield strength"),
                       "as specified", "MPa"),
                gamma_s, fyd,
@@ -323,7 +359,7 @@ def steel_law(beam: Beam, params: Parameters, context: Context) -> MaterialModel
     k, eps_uk = params.value("steel_k"), params.value("steel_eps_uk")
     eps_ud = Factor("εud", params.value("eps_ud_ratio") * eps_uk, params["eps_ud_ratio"].clause,
                     f"{params.cite('eps_ud_ratio')} times {params.cite('steel_eps_uk')}")
-    slope = Factor("Es,h", _out((k - 1.0) * np.asarray(fyd.value) / (eps_uk - eps_yd.value)),
+    slope = Factor("Es,h", per_beam((k - 1.0) * np.asarray(fyd.value) / (eps_uk - eps_yd.value)),
                    diagram, f"from (εyd, fyd) to (εuk, k fyd) with {params.cite('steel_k')}",
                    "MPa")
     return MaterialModel(BilinearHardening(es, fyd.value, slope.value, eps_ud.value),
@@ -347,21 +383,22 @@ def resistance_factor(beam: Beam, response: Any, params: Parameters,
 
 @hookimpl
 def design_actions(beam: Beam, params: Parameters, context: Context) -> Envelope | None:
-    a = beam.actions
-    if a.factored is not None:
-        return Envelope.largest("design moment", "M_Ed", [
-            Candidate("as given", a.factored, input_clause("design moment as given"))], "N·mm")
-    if a.dead is None and a.live is None:
-        return None
-    dead = np.asarray(a.dead if a.dead is not None else 0.0, float)
-    live = np.asarray(a.live if a.live is not None else 0.0, float)
+    """EN 1990 6.10, or the less favourable of 6.10a and 6.10b (its national choice)."""
     g, q = params.value("dead_factor"), params.value("live_factor")
-    label = f"{g:g}G + {q:g}Q"
+    rule = params["dead_factor"].clause
+    if params.choice("combination_rule") == SINGLE_EXPRESSION:
+        combinations = [Combination(g, q, rule)]
+    else:
+        psi, xi = params.value("psi_0"), params.value("xi")
+        pair = params["combination_rule"].clause
+        combinations = [Combination(g, psi * q, pair, f"{g:g}G + {psi:g}×{q:g}Q (6.10a)"),
+                        Combination(xi * g, q, pair, f"{xi:g}×{g:g}G + {q:g}Q (6.10b)")]
     if context.situation == "accidental":
-        label += " (the accidental combination EN 1990 6.11 needs the accidental action: " \
-                 "give the design moment as factored)"
-    return Envelope.largest("design moment", "M_Ed", [
-        Candidate(label, _out(g * dead + q * live), params["dead_factor"].clause)], "N·mm")
+        note = (" (the accidental combination EN 1990 6.11 needs the accidental action: give "
+                "the design moment as factored)")
+        combinations = [replace(c, name=c.label(("G", "Q")) + note) for c in combinations]
+    return factored_moment(beam, combinations, input_clause("design moment as given"),
+                           name="design moment", symbol="M_Ed", symbols=("G", "Q"))
 
 
 # --- reinforcement limits ---------------------------------------------------------------
@@ -370,7 +407,7 @@ def design_actions(beam: Beam, params: Parameters, context: Context) -> Envelope
 def minimum_reinforcement(beam: Beam, section: Any, response: Any, params: Parameters,
                           context: Context) -> Sequence[Check]:
     """9.2.1.1(1) minimum tension steel."""
-    _, fctm = tensile_strength(characteristic_strength(beam).value)
+    _, fctm = tensile_strength(characteristic_strength(beam, params).value)
     fyk = np.asarray(beam.yield_strength, float)
     ratio = largest_of(params.value("asmin_fctm_coeff") * np.asarray(fctm.value) / fyk,
                        params.value("asmin_ratio_floor"))
@@ -383,10 +420,10 @@ def minimum_reinforcement(beam: Beam, section: Any, response: Any, params: Param
         width = "bt = bw (flange in compression)" if beam.flanged else "bt = b"
     return [
         Check("minimum tension reinforcement", beam.tension_area,
-              _out(ratio * np.asarray(bt, float) * beam.effective_depth),
+              per_beam(ratio * np.asarray(bt, float) * beam.effective_depth),
               Sense.AT_LEAST, clause("9.2.1.1(1)", "minimum tension steel"), "As", "mm²",
               f"max(coefficient fctm/fyk, floor) bt d with {width}; "
-              f"fctm = {_show(fctm.value)} MPa; "
+              f"fctm = {shown(fctm.value, '.6g')} MPa; "
               f"{params.cite('asmin_fctm_coeff')}, {params.cite('asmin_ratio_floor')}"),
     ]
 
@@ -394,34 +431,36 @@ def minimum_reinforcement(beam: Beam, section: Any, response: Any, params: Param
 @hookimpl
 def ductility_limits(beam: Beam, section: Any, response: Any, params: Parameters,
                      context: Context) -> Sequence[Check]:
-    """9.2.1.1(3) maximum steel, and 5.5(4) with δ = 1 read as a limit on xu/d for a
-    section designed without redistribution: δ ≥ k1 + k2 xu/d up to C50/60,
-    δ ≥ k3 + k4 xu/d above."""
-    fck = np.asarray(characteristic_strength(beam).value, float)
-    strain_term = 0.6 + 0.0014 / np.asarray(ultimate_strain(fck, "εcu2").value)
+    """9.2.1.1(3) maximum steel, and 5.5(4) as a limit on xu/d: δ ≥ k1 + k2 xu/d up to
+    C50/60, δ ≥ k3 + k4 xu/d above. 5.5(4) binds where moments are redistributed (δ < 1);
+    with δ = 1 it is applied only when ``neutral_axis_limit`` says "always" (a ductility
+    practice some national annexes adopt, not a requirement of the recommended text)."""
+    steel = beam.tension_area + np.asarray(beam.compression_area, float)
+    maximum = Check("maximum reinforcement", per_beam(steel),
+                    per_beam(params.value("asmax_ratio") * np.asarray(section.area, float)),
+                    Sense.AT_MOST, clause("9.2.1.1(3)", "maximum steel"), "As + As'", "mm²",
+                    "Ac taken as the gross area of the section with its effective flange; "
+                    f"outside lap locations; {params.cite('asmax_ratio')}")
     delta = params.value("redistribution_ratio")
+    redistributed = delta < 1.0
+    if not redistributed and params.choice("neutral_axis_limit") == WHERE_REDISTRIBUTED:
+        return [maximum]
+    fck = np.asarray(characteristic_strength(beam, params).value, float)
+    strain_term = 0.6 + 0.0014 / np.asarray(ultimate_strain(fck, "εcu2").value)
     k2 = params.value("k2_scale") * strain_term
     k4 = params.value("k4_scale") * strain_term
     limit = choose(fck <= NORMAL_STRENGTH_UP_TO, (delta - params.value("k1")) / k2,
                    (delta - params.value("k3")) / k4)
-    cited = ", ".join(params.cite(n) for n in ("redistribution_ratio", "k1", "k2_scale", "k3",
-                                               "k4_scale"))
-    steel = beam.tension_area + np.asarray(beam.compression_area, float)
-    maximum = Check("maximum reinforcement", _out(steel),
-                    _out(params.value("asmax_ratio") * np.asarray(section.area, float)),
-                    Sense.AT_MOST, clause("9.2.1.1(3)", "maximum steel"), "As + As'", "mm²",
-                    "Ac taken as the gross area of the section with its effective flange; "
-                    f"outside lap locations; {params.cite('asmax_ratio')}")
-    return [maximum, Check("neutral-axis depth for the redistribution assumed", _out(
+    cited = ", ".join(params.cite(n) for n in ("neutral_axis_limit", "redistribution_ratio",
+                                               "k1", "k2_scale", "k3", "k4_scale"))
+    name = "neutral-axis depth for the redistribution assumed" if redistributed else \
+        "neutral-axis depth without redistribution (ductility practice)"
+    why = "moments redistributed (δ < 1)" if redistributed else \
+        "δ = 1: applied because neutral_axis_limit = always, not required by the recommended text"
+    return [maximum, Check(name, per_beam(
         np.asarray(response.c, float) / np.asarray(beam.effective_depth, float)), limit,
         Sense.AT_MOST, clause("5.5(4)", "redistribution limit on the neutral-axis depth"),
-        "xu/d", "", "(δ - k1)/k2 up to C50/60, (δ - k3)/k4 above, k = scale (0.6 + "
+        "xu/d", "", f"{why}; (δ - k1)/k2 up to C50/60, (δ - k3)/k4 above, k = scale (0.6 + "
         f"0.0014/εcu2); {cited}")]
 
 
-def _out(value: Any) -> Any:
-    return value if np.ndim(value) else float(value)
-
-
-def _show(value: Any) -> str:
-    return f"{float(value):.6g}" if np.ndim(value) == 0 else "per beam"

@@ -1,15 +1,17 @@
 """IS 456:2000, limit state of collapse in flexure.
 
 IS 456 works in the characteristic cube strength fck: a beam given in cylinder
-strength is converted (EN 1992-1-1 Table 3.1 class pairs, else the ratio 0.8) and
-the conversion is recorded. Safety sits in partial factors on the materials, so
-there is no member factor; ductility is a limit on the neutral-axis depth. Values
-from memory of the published code; clause titles are our own words.
+strength is converted by a basis that is not IS 456 text, named in the audit (the
+class pairs of EN 1992-1-1:2004 Table 3.1, or the ratio 0.8 of common practice).
+Safety sits in partial factors on the materials, so there is no member factor;
+ductility is a limit on the neutral-axis depth. Values from memory of the published
+code; clause titles are our own words.
 
 Contents
   scope ............. Table 2 concrete grades, 5.6 reinforcement grades
   flange width ...... 23.1.2 (a) T-beams, (b) L-beams, (c) isolated beams
-  concrete .......... 38.1(b) ultimate strain, 38.1(c) and Fig. 21 parabola-rectangle
+  concrete .......... 38.1(b) ultimate strain, 38.1(c) and Fig. 21 parabola-rectangle,
+                      resultants as printed (0.36, 0.42) or the exact curve, by choice
   steel ............. 38.1(e) and Fig. 23: mild steel, cold-worked bars; 5.6.3 Es
   strength .......... 36.4.2 partial factors on materials; 38.1 note, xu,max
   demand ............ 36.4.1 and Table 18 load factors
@@ -28,6 +30,8 @@ from clausewise.provisions import (
     BeamDataError,
     Candidate,
     Check,
+    ClassTable,
+    Combination,
     Context,
     Continuity,
     EditionInfo,
@@ -46,9 +50,13 @@ from clausewise.provisions import (
     Shape,
     choose,
     cube_strength,
+    factored_moment,
+    given_width,
+    half_clear_distance,
     hookimpl,
+    per_beam,
+    ratio_parameter,
 )
-from clausewise.provisions.widths import given_width, half_clear_distance
 
 EDITION = EditionInfo(
     "is456:2000", "IS 456:2000 plain and reinforced concrete, code of practice", 2000,
@@ -56,6 +64,8 @@ EDITION = EditionInfo(
     notation=Notation("fck", "fy", "xu", "εs", "Mu,R", "Mu,R", "Mu", cube=True),
 )
 clause = EDITION.clause
+CONVERSION = clause("- (not IS 456 text)", "cube from cylinder strength by the class pairs of "
+                    "EN 1992-1-1:2004 Table 3.1")
 
 STEEL_KINDS = ("unstated", "hot-rolled", "cold-worked", "mild")
 
@@ -64,8 +74,27 @@ STEEL_KINDS = ("unstated", "hot-rolled", "cold-worked", "mild")
 FIG23_STRESS = (0.80, 0.85, 0.90, 0.95, 0.975, 1.0)
 FIG23_INELASTIC = (0.0, 0.0001, 0.0003, 0.0007, 0.0010, 0.0020)
 
+# Cylinder/cube class pairs as EN 1992-1-1:2004 Table 3.1 tabulates them (MPa, from memory):
+# the default basis for a beam given in cylinder strength; not IS 456 text
+CLASS_PAIRS = ((12, 15), (16, 20), (20, 25), (25, 30), (30, 37), (35, 45), (40, 50), (45, 55),
+               (50, 60), (55, 67), (60, 75), (70, 85), (80, 95), (90, 105))
+BY_CLASS_PAIRS, BY_RATIO = "class pairs", "ratio"
+CLASS_TABLE = ClassTable(CLASS_PAIRS, CONVERSION, "EN 1992-1-1:2004 Table 3.1")
+
 # Note to 38.1: xu,max/d for the three grades the code tabulates (from memory)
 XU_MAX_TABLE = {250.0: 0.53, 415.0: 0.48, 500.0: 0.46}
+
+# The two readings of the stress resultants of 38.1 and Annex G-1.1 (a contested reading):
+# the coefficients as printed, 0.36 fck b xu at 0.42 xu (so Mu,lim/(fck b d²) = 0.138 for
+# Fe 415, as design handbooks tabulate it), or the exact integral of the design curve of
+# Fig. 21, 0.3616 fck b xu at 0.416 xu (0.1389).
+PRINTED, EXACT = "printed", "exact curve"
+# The printed reading as a law: Fig. 21's parabola-rectangle with its plateau starting at
+# k εcu and its peak p fck chosen so that a rectangular zone gives exactly the printed
+# resultants. By hand: force p (1 - k/3) = 0.36, centroid from the top 1 - (1/2 - k²/12)/
+# (1 - k/3) = 0.42, so k² - 2.32 k + 0.96 = 0.
+PRINTED_PLATEAU = 1.16 - (1.16**2 - 0.96) ** 0.5  # k = 0.5390
+PRINTED_PEAK = 0.36 / (1.0 - PRINTED_PLATEAU / 3.0)  # p = 0.4389 (fck, at γm = 1.5)
 
 
 @hookimpl
@@ -85,8 +114,16 @@ def edition_parameters(context: Context) -> Sequence[Parameter]:
         Parameter("ultimate_strain", 0.0035, clause("38.1(b)", "ultimate concrete strain"),
                   "strain at the extreme compression fibre in bending", (0.002, 0.004)),
         Parameter("strain_at_peak", 0.002, clause("38.1(c)", "strain at the end of the "
-                  "parabola (Fig. 21)"), "strain where the design stress reaches its peak",
+                  "parabola (Fig. 21)"), "strain where the design stress reaches its peak (with "
+                  "stress_resultants = exact curve; the printed reading shapes its own)",
                   (0.001, 0.003)),
+        Parameter("stress_resultants", PRINTED, clause("38.1, Annex G-1.1", "resultants of "
+                  "the concrete stress (a contested reading)"),
+                  f"{PRINTED!r} (default): 0.36 fck b xu at 0.42 xu as 38.1 and Annex G print "
+                  "them, so that a hand check or a design handbook (Mu,lim = 0.138 fck b d² "
+                  f"for Fe 415) gives the same numbers; {EXACT!r}: the exact integral of "
+                  "Fig. 21, 0.3616 fck b xu at 0.416 xu (0.1389), about 0.7 % more moment",
+                  choices=(PRINTED, EXACT)),
         Parameter("min_inelastic_strain", 0.002, clause("38.1(f)", "least steel strain at "
                   "failure beyond fy/(γm Es)"), "inelastic strain that sets xu,max",
                   (0.0, 0.01)),
@@ -107,16 +144,29 @@ def edition_parameters(context: Context) -> Sequence[Parameter]:
                   "least yield strength", (200.0, 300.0), "MPa"),
         Parameter("fy_max", 550.0, clause("5.6", "reinforcement grades: deformed bars up to "
                   "Fe 550"), "greatest yield strength", (415.0, 600.0), "MPa"),
+        Parameter("cube_from_cylinder", BY_CLASS_PAIRS, CONVERSION,
+                  f"{BY_CLASS_PAIRS} (EN 1992-1-1:2004 Table 3.1, else the ratio) or "
+                  f"{BY_RATIO} (cylinder_cube_ratio throughout)",
+                  choices=(BY_CLASS_PAIRS, BY_RATIO)),
+        ratio_parameter(clause("- (not IS 456 text)", "cylinder about 0.8 of cube strength: "
+                               "common practice")),
         Parameter("load_factor", 1.5, clause("36.4.1, Table 18", "load factor D + L"),
                   "partial factor on dead plus imposed load", (1.0, 2.0)),
     ]
+
+
+def characteristic_strength(beam: Beam, params: Parameters) -> Factor:
+    """fck, the characteristic cube strength; converted from a cylinder strength by the
+    basis ``cube_from_cylinder`` chooses."""
+    pairs = params.choice("cube_from_cylinder") == BY_CLASS_PAIRS
+    return cube_strength(beam, params, CLASS_TABLE if pairs else None)
 
 
 # --- scope ----------------------------------------------------------------------------
 
 @hookimpl
 def applicability(beam: Beam, params: Parameters, context: Context) -> Sequence[Check]:
-    fck = cube_strength(beam)
+    fck = characteristic_strength(beam, params)
     fy = beam.yield_strength
     note = f"fck,cube {fck.basis}"
     return [
@@ -172,19 +222,19 @@ def effective_flange_width(beam: Beam, params: Parameters, context: Context) -> 
         b = np.asarray(beam.flange_width, float)
         share, label = (1.0, "l0/(l0/b + 4) + bw") if tee else (0.5, "0.5 l0/(l0/b + 4) + bw")
         isolated = clause("23.1.2(c)", "isolated beams, never wider than the actual flange")
-        candidates += [Candidate(f"{label} ({how})", _out(share * l0 / (l0 / b + 4) + bw),
+        candidates += [Candidate(f"{label} ({how})", per_beam(share * l0 / (l0 / b + 4) + bw),
                                  isolated),
-                       Candidate("actual flange width", _out(b), isolated)]
+                       Candidate("actual flange width", per_beam(b), isolated)]
     else:
         divisor, slab, ref = (6, 6, "23.1.2(a)") if tee else (12, 3, "23.1.2(b)")
         kind = "T-beams" if tee else "L-beams"
         candidates.append(Candidate(f"l0/{divisor} + bw + {slab}Df ({how})",
-                                    _out(l0 / divisor + bw + slab * df),
+                                    per_beam(l0 / divisor + bw + slab * df),
                                     clause(ref, f"{kind} in a floor")))
         known = [h for h in halves if h is not None]
         if len(known) == len(halves):
             candidates.append(Candidate(
-                "bw + half the clear distances to the next webs", _out(bw + sum(known)),
+                "bw + half the clear distances to the next webs", per_beam(bw + sum(known)),
                 clause("23.1.2", "never wider than the web plus half the clear distances")))
         if given is not None:
             candidates.insert(0, given)
@@ -195,21 +245,35 @@ def effective_flange_width(beam: Beam, params: Parameters, context: Context) -> 
 
 @hookimpl
 def concrete_law(beam: Beam, params: Parameters, context: Context) -> MaterialModel:
-    fck = cube_strength(beam)
+    fck = characteristic_strength(beam, params)
     gamma = params.value("gamma_m_concrete")
     ratio = params.value("strength_ratio")
     eps_cu, eps_c2 = params.value("ultimate_strain"), params.value("strain_at_peak")
-    peak = Factor(f"{ratio:g} fck/γm", _out(ratio * np.asarray(fck.value, float) / gamma),
+    peak = Factor(f"{ratio:g} fck/γm", per_beam(ratio * np.asarray(fck.value, float) / gamma),
                   clause("38.1(c)", "design stress of concrete (Fig. 21)"),
                   f"{params.cite('strength_ratio')}, {params.cite('gamma_m_concrete')} "
                   f"(= {ratio / gamma:.3f} fck)", "MPa")
+    factors = (fck, Factor("γm", gamma, params["gamma_m_concrete"].clause, "concrete"), peak,
+               Factor("εcu", eps_cu, params["ultimate_strain"].clause))
+    if params.choice("stress_resultants") == EXACT:
+        return MaterialModel(
+            ParabolaRectangle(peak_stress=peak.value, strain_at_peak=eps_c2,
+                              ultimate_strain=eps_cu, exponent=2.0),
+            (*factors, Factor("εc2", eps_c2, params["strain_at_peak"].clause,
+                              "parabola of exponent 2; stress_resultants = exact curve: "
+                              "0.3616 fck b xu at 0.416 xu")))
+    scale = PRINTED_PEAK / (0.67 / 1.5)  # the printed coefficients belong to 0.67/1.5
+    printed = params["stress_resultants"].clause
+    shaped = Factor("peak (printed)", per_beam(scale * np.asarray(peak.value, float)), printed,
+                    f"stress_resultants = printed: {PRINTED_PEAK:.4f} fck at γm = 1.5, so "
+                    "that a rectangular zone gives 0.36 fck b xu at 0.42 xu", "MPa")
+    plateau = Factor("εc2 (printed)", PRINTED_PLATEAU * eps_cu, printed,
+                     f"{PRINTED_PLATEAU:.4f} εcu: the parabola of Fig. 21 shaped to the "
+                     "printed resultants")
     return MaterialModel(
-        ParabolaRectangle(peak_stress=peak.value, strain_at_peak=eps_c2,
+        ParabolaRectangle(peak_stress=shaped.value, strain_at_peak=plateau.value,
                           ultimate_strain=eps_cu, exponent=2.0),
-        (fck, Factor("γm", gamma, params["gamma_m_concrete"].clause, "concrete"), peak,
-         Factor("εcu", eps_cu, params["ultimate_strain"].clause),
-         Factor("εc2", eps_c2, params["strain_at_peak"].clause, "parabola of exponent 2")),
-    )
+        (*factors, shaped, plateau))
 
 
 def cold_worked(beam: Beam, params: Parameters) -> Any:
@@ -237,7 +301,7 @@ def steel_modulus(beam: Beam, params: Parameters) -> Any:
 
 def design_strength(beam: Beam, params: Parameters) -> Factor:
     gamma = params.value("gamma_m_steel")
-    return Factor("fyd", _out(np.asarray(beam.yield_strength, float) / gamma),
+    return Factor("fyd", per_beam(np.asarray(beam.yield_strength, float) / gamma),
                   clause("38.1(e)", "design strength of reinforcement"),
                   f"fy/γm, {params.cite('gamma_m_steel')} (≈ 0.87 fy)", "MPa")
 
@@ -253,7 +317,7 @@ def steel_law(beam: Beam, params: Parameters, context: Context) -> MaterialModel
     points = []
     for fraction, inelastic in zip(FIG23_STRESS, FIG23_INELASTIC, strict=True):
         stress = np.asarray(choose(cold, fraction, 1.0)) * fyd.value
-        points.append((_out(stress / es + inelastic), _out(stress)))
+        points.append((per_beam(stress / es + inelastic), per_beam(stress)))
     knee = choose(cold, points[-1][0], np.asarray(fyd.value) / es)
     if np.ndim(cold):
         curve = "per beam: Fig. 23B where cold-worked, else Fig. 23A"
@@ -295,7 +359,7 @@ def limiting_depth_ratio(beam: Beam, params: Parameters) -> Factor:
         basis = f"the note's table for Fe {float(fy):g}"
     else:
         basis = f"εcu/(εcu + 0.002 + fyd/Es) for fy = {float(fy):g} MPa (not a tabulated grade)"
-    return Factor("xu,max/d", _out(np.asarray(value, float)),
+    return Factor("xu,max/d", per_beam(np.asarray(value, float)),
                   clause("38.1 note", "limiting depth of the neutral axis"), basis)
 
 
@@ -315,19 +379,10 @@ def resistance_factor(beam: Beam, response: Any, params: Parameters,
 
 @hookimpl
 def design_actions(beam: Beam, params: Parameters, context: Context) -> Envelope | None:
-    a = beam.actions
-    if a.factored is not None:
-        return Envelope.largest("factored moment", "Mu", [
-            Candidate("as given", a.factored, clause("36.4.1", "factored moment as given"))],
-            "N·mm")
-    if a.dead is None and a.live is None:
-        return None
-    dead = np.asarray(a.dead if a.dead is not None else 0.0, float)
-    live = np.asarray(a.live if a.live is not None else 0.0, float)
     factor = params.value("load_factor")
-    return Envelope.largest("factored moment", "Mu", [
-        Candidate(f"{factor:g}(D + L)", _out(factor * (dead + live)),
-                  params["load_factor"].clause)], "N·mm")
+    return factored_moment(beam, [Combination(factor, factor, params["load_factor"].clause,
+                                              f"{factor:g}(D + L)")],
+                           clause("36.4.1", "factored moment as given"), symbol="Mu")
 
 
 # --- reinforcement limits ---------------------------------------------------------------
@@ -338,7 +393,7 @@ def minimum_reinforcement(beam: Beam, section: Any, response: Any, params: Param
     coefficient = params.value("min_steel_coefficient")
     required = coefficient * np.asarray(beam.web_width, float) * np.asarray(
         beam.effective_depth, float) / np.asarray(beam.yield_strength, float)
-    return [Check("minimum tension reinforcement", beam.tension_area, _out(required),
+    return [Check("minimum tension reinforcement", beam.tension_area, per_beam(required),
                   Sense.AT_LEAST, params["min_steel_coefficient"].clause, "As", "mm²",
                   f"{coefficient:g} bw d / fy")]
 
@@ -351,20 +406,17 @@ def ductility_limits(beam: Beam, response: Any, params: Parameters,
     area_limit = params.value("max_steel_ratio") * np.asarray(beam.web_width, float) * \
         np.asarray(beam.depth, float)
     checks = [
-        Check("neutral-axis depth", _out(ratio), limit.value, Sense.AT_MOST, limit.clause,
+        Check("neutral-axis depth", per_beam(ratio), limit.value, Sense.AT_MOST, limit.clause,
               "xu/d", note=f"{limit.basis}; an over-reinforced section fails this check "
               "(its moment is still the strain-compatibility value)"),
-        Check("maximum tension reinforcement", beam.tension_area, _out(area_limit),
+        Check("maximum tension reinforcement", beam.tension_area, per_beam(area_limit),
               Sense.AT_MOST, params["max_steel_ratio"].clause, "As", "mm²",
               f"{params.value('max_steel_ratio'):g} bw D"),
     ]
     if beam.compression:
         checks.append(Check("maximum compression reinforcement", beam.compression_area,
-                            _out(area_limit), Sense.AT_MOST,
+                            per_beam(area_limit), Sense.AT_MOST,
                             clause("26.5.1.2", "greatest compression steel"), "Asc", "mm²",
                             f"{params.value('max_steel_ratio'):g} bw D"))
     return checks
 
-
-def _out(value: Any) -> Any:
-    return value if np.ndim(value) else float(value)

@@ -68,6 +68,18 @@ _EXPORTS = {
     "power": "clausewise.provisions.vocabulary",
     "smallest_of": "clausewise.provisions.vocabulary",
     "sqrt": "clausewise.provisions.vocabulary",
+    "per_beam": "clausewise.provisions.vocabulary",
+    "shown": "clausewise.provisions.vocabulary",
+    "Combination": "clausewise.provisions.combinations",
+    "factored_moment": "clausewise.provisions.combinations",
+    "dead_alone_and_with_live": "clausewise.provisions.combinations",
+    "ClassTable": "clausewise.provisions.materials",
+    "ratio_parameter": "clausewise.provisions.materials",
+    "OverhangRule": "clausewise.provisions.widths",
+    "given_width": "clausewise.provisions.widths",
+    "half_clear_distance": "clausewise.provisions.widths",
+    "overhang_envelope": "clausewise.provisions.widths",
+    "Status": "clausewise.provisions.verdicts",
 }
 
 if TYPE_CHECKING:
@@ -101,6 +113,11 @@ if TYPE_CHECKING:
         StrengthBasis,
         UnitSystem,
     )
+    from clausewise.provisions.combinations import (
+        Combination,
+        dead_alone_and_with_live,
+        factored_moment,
+    )
     from clausewise.provisions.engine import (
         Assessment,
         assess,
@@ -113,8 +130,10 @@ if TYPE_CHECKING:
     from clausewise.provisions.materials import (
         MM_PER_IN,
         MPA_PER_PSI,
+        ClassTable,
         cube_strength,
         cylinder_strength,
+        ratio_parameter,
     )
     from clausewise.provisions.registry import (
         Edition,
@@ -123,7 +142,7 @@ if TYPE_CHECKING:
         Registry,
         default_registry,
     )
-    from clausewise.provisions.verdicts import CAUTION
+    from clausewise.provisions.verdicts import CAUTION, Status
     from clausewise.provisions.vocabulary import (
         Bound,
         Candidate,
@@ -140,9 +159,17 @@ if TYPE_CHECKING:
         is_within,
         largest_of,
         log,
+        per_beam,
         power,
+        shown,
         smallest_of,
         sqrt,
+    )
+    from clausewise.provisions.widths import (
+        OverhangRule,
+        given_width,
+        half_clear_distance,
+        overhang_envelope,
     )
 
 __all__ = [
@@ -203,6 +230,18 @@ __all__ = [
     "power",
     "smallest_of",
     "sqrt",
+    "per_beam",
+    "shown",
+    "Combination",
+    "factored_moment",
+    "dead_alone_and_with_live",
+    "ClassTable",
+    "ratio_parameter",
+    "OverhangRule",
+    "given_width",
+    "half_clear_distance",
+    "overhang_envelope",
+    "Status",
 ]
 
 

@@ -14,7 +14,7 @@ at a time so that one bad beam is reported and the rest go on.
 from __future__ import annotations
 
 from collections.abc import Iterable, Iterator, Sequence
-from dataclasses import dataclass, fields, replace
+from dataclasses import dataclass, fields, is_dataclass, replace
 from operator import attrgetter
 from typing import Any
 
@@ -22,81 +22,45 @@ import numpy as np
 from numpy.typing import NDArray
 
 from clausewise.core.errors import ClausewiseError
-from clausewise.provisions.beam import Actions, Beam, Context, FloorLayout, Layer
-from clausewise.provisions.engine import (
-    ERROR,
-    FAIL,
-    NO_EQUILIBRIUM,
-    OUT_OF_SCOPE,
-    PASS,
-    evaluate,
-    resolve_form,
-)
+from clausewise.provisions.beam import NAMES, Beam, Context, field_roles, kind_of
+from clausewise.provisions.engine import evaluate, resolve_form
 from clausewise.provisions.registry import Edition, Registry, default_registry
-
-_NUMERIC_PARTS = (Beam, FloorLayout, Actions, Layer)
-
+from clausewise.provisions.verdicts import ERROR, governing, status
 
 # --- grouping and stacking -------------------------------------------------------------
 
-def kind_of(beam: Beam) -> tuple[Any, ...]:
-    """Everything about a beam that is not a number: beams of one kind stack together."""
-    layout, actions = beam.layout, beam.actions
-    return (
-        beam.shape, beam.bending, len(beam.tension), len(beam.compression),
-        beam.flange_thickness is None, beam.flange_width is None, beam.strength_basis,
-        beam.steel_modulus is None, beam.steel_kind, beam.ductility_class, beam.unit_system,
-        beam.statically_determinate, beam.isolated,
-        None if layout is None else (
-            layout.continuity, layout.clear_span is None, layout.clear_left is None,
-            layout.clear_right is None, layout.zero_moment_length is None,
-            layout.adjacent_span is None),
-        actions.dead is None, actions.live is None, actions.factored is None,
-    )
-
-
-def _is_number(value: Any) -> bool:
-    return isinstance(value, int | float | np.floating | np.integer) and not isinstance(
-        value, bool)
-
-
-def _stack_numbers(template: Any, objs: list[Any]) -> Any:
-    """``template`` with each numeric field replaced by the array of that field over objs."""
+def _stacked(template: Any, objs: list[Any]) -> Any:
+    """``template`` with every number replaced by the array of that number over ``objs``
+    (objects of one kind), into its parts and layers: the fields come from the dataclass."""
     changes: dict[str, Any] = {}
-    for f in fields(template):
-        value = getattr(template, f.name)
-        if _is_number(value):
-            changes[f.name] = np.fromiter(map(attrgetter(f.name), objs), float, len(objs))
+    cls: type = type(template)
+    for name, role in field_roles(cls):
+        value = getattr(template, name)
+        if value is None or role == "word":
+            continue
+        if role == "part":
+            changes[name] = _stacked(value, [getattr(o, name) for o in objs])
+        elif role == "group":
+            changes[name] = tuple(_stacked(part, [getattr(o, name)[j] for o in objs])
+                                  for j, part in enumerate(value))
+        else:
+            changes[name] = np.fromiter(map(attrgetter(name), objs), float, len(objs))
     return replace(template, **changes)
-
-
-def _stack_layers(layers: list[tuple[Layer, ...]]) -> tuple[Layer, ...]:
-    if not layers[0]:
-        return ()
-    return tuple(_stack_numbers(layers[0][j], [group[j] for group in layers])
-                 for j in range(len(layers[0])))
 
 
 def stack_beams(beams: Sequence[Beam]) -> Beam:
     """One array-valued beam from beams of one kind."""
     items = list(beams)
-    first = items[0]
-    batch = _stack_numbers(replace(first, id=f"batch of {len(items)}", title=""), items)
-    layout = None if first.layout is None else _stack_numbers(
-        first.layout, [b.layout for b in items])
-    return replace(batch, layout=layout,
-                   actions=_stack_numbers(first.actions, [b.actions for b in items]),
-                   tension=_stack_layers([b.tension for b in items]),
-                   compression=_stack_layers([b.compression for b in items]))
+    return _stacked(replace(items[0], id=f"batch of {len(items)}", title=""), items)
 
 
 def take_beam(batch: Beam, rows: NDArray[np.int_]) -> Beam:
     """The rows of an array-valued beam, as a smaller batch."""
 
     def taken(obj: Any) -> Any:
-        if isinstance(obj, _NUMERIC_PARTS):
+        if is_dataclass(obj) and not isinstance(obj, type):
             return replace(obj, **{f.name: taken(getattr(obj, f.name)) for f in fields(obj)
-                                   if f.name not in ("id", "title")})
+                                   if f.name not in NAMES})
         if isinstance(obj, tuple):
             return tuple(taken(o) for o in obj)
         if isinstance(obj, np.ndarray):
@@ -201,41 +165,29 @@ def _floats(value: Any, n: int) -> NDArray[np.float64]:
     return np.array(np.broadcast_to(np.asarray(value, dtype=float), (n,)), dtype=float)
 
 
-def _block_cases(response: Any) -> NDArray[np.str_]:
-    labels = response.labels
-    if len(labels) == 1:
-        return _texts("rectangular section", response.size)
-    names = np.array([f"block inside the {labels[0]}"]
-                     + [f"block enters the {label}" for label in labels[1:]], dtype=object)
-    return names[response.zone_strip]
-
-
 def _scope_table(edition: Edition, ids: list[str], form: str, checks: Sequence[Any],
                  in_scope: NDArray[np.bool_]) -> BatchTable:
     table = BatchTable.empty(edition.id, ids)
     table.form[:] = form
-    table.status[:] = np.where(in_scope, PASS, OUT_OF_SCOPE)
+    table.status[:] = status(in_scope=in_scope, equilibrium=True, checks=(),
+                             has_demand=True)  # the rows in scope are filled in later
     _record_checks(table, checks)
     table.message[:] = np.where(in_scope, "", "outside the edition's scope")
     return table
 
 
-def _record_checks(table: BatchTable, checks: Sequence[Any]) -> NDArray[np.bool_]:
-    """Every check's utilisation and the governing one (highest) per beam; whether all
-    passed."""
+def _record_checks(table: BatchTable, checks: Sequence[Any]) -> None:
+    """Every check's utilisation and the governing one (highest) per beam."""
     n = table.size
     if not checks:
-        return np.ones(n, dtype=bool)
-    util = np.array([_floats(c.utilisation, n) for c in checks])
-    worst = np.argmax(util, axis=0)
+        return
+    worst, utilisation = governing(checks, n)
     table.governing_check[:] = np.array([c.name for c in checks], dtype=object)[worst]
     table.governing_clause[:] = np.array([f"{c.clause.edition} {c.clause.ref}"
                                           for c in checks], dtype=object)[worst]
-    table.governing_utilisation[:] = util[worst, np.arange(n)]
-    for c, u in zip(checks, util, strict=True):
-        table.utilisation[c.name] = u
-    passed: NDArray[np.bool_] = np.all(util <= 1.0 + 1e-12, axis=0)
-    return passed
+    table.governing_utilisation[:] = utilisation
+    for c in checks:
+        table.utilisation[c.name] = _floats(c.utilisation, n)
 
 
 def _group_table(edition: Edition, batch: Beam, ids: list[str], context: Context) -> BatchTable:
@@ -270,12 +222,13 @@ def _group_table(edition: Edition, batch: Beam, ids: list[str], context: Context
     if ev.demand is not None:
         part.governing_candidate[ev.demand.name] = _labels(ev.demand, m)
     part.regime[:] = _texts(ev.resistance.regime.name, m)  # type: ignore[union-attr]
-    part.block_case[:] = _block_cases(resp)
+    part.block_case[:] = resp.block_cases
     for c in scope_checks:
         part.utilisation[c.name] = _floats(c.utilisation, n)[rows]
-    passed = _record_checks(part, ev.checks)
+    _record_checks(part, ev.checks)
     equilibrium = resp.equilibrium
-    part.status[:] = np.where(~equilibrium, NO_EQUILIBRIUM, np.where(passed, PASS, FAIL))
+    part.status[:] = status(in_scope=True, equilibrium=equilibrium, checks=ev.checks,
+                            has_demand=ev.demand is not None)
     part.message[:] = np.where(equilibrium, "", "no equilibrium within the laws' limits")
     if table is None:
         return part

@@ -7,14 +7,16 @@ one beam or numpy arrays of shape (N,) for a batch of beams of the same kind
 
 from __future__ import annotations
 
-from dataclasses import dataclass, field
+from collections.abc import Callable
+from dataclasses import dataclass, field, fields, is_dataclass
 from enum import StrEnum
-from functools import cached_property
-from typing import Any
+from functools import cache, cached_property
+from typing import Any, get_args, get_origin, get_type_hints
 
 import numpy as np
 
 from clausewise.core.errors import ClausewiseError
+from clausewise.provisions.vocabulary import per_beam
 
 Value = Any  # float, or numpy array over a batch
 
@@ -84,11 +86,38 @@ class FloorLayout:
 
 @dataclass(frozen=True)
 class Actions:
-    """Moments in N·mm in the beam's bending sense: service dead and live, or a factored one."""
+    """Moments in N·mm in the beam's bending sense: service dead and live, or a factored one.
+
+    What may be left out, for every edition alike: everything (the capacity only); the
+    live moment (dead load alone); or both service moments when a factored moment is
+    given. A live moment without a dead one is refused, so that no edition has to guess
+    whether "no dead moment" means zero: give ``dead = 0`` where there is none.
+    """
 
     dead: Value | None = None
     live: Value | None = None
     factored: Value | None = None
+
+    def __post_init__(self) -> None:
+        problem = self.omission_problem(self.dead, self.live, self.factored)
+        if problem is not None:
+            raise BeamDataError(f"moments.{problem[0]}: {problem[1]}")
+
+    @staticmethod
+    def omission_problem(dead: Any, live: Any, factored: Any) -> tuple[str, str] | None:
+        """The field at fault and why, when a combination of given moments is not allowed
+        (``None`` if it is); the beam-file reader reports the same rule against its file."""
+        if factored is not None and (dead is not None or live is not None):
+            return "factored", "either service moments (dead, live) or a factored moment, " \
+                "not both"
+        if live is not None and dead is None:
+            return "dead", "with a live moment, give the dead moment too (0 if there is none)"
+        return None
+
+    @property
+    def given(self) -> bool:
+        """Whether any action is given (else the assessment is of capacity only)."""
+        return self.factored is not None or self.dead is not None
 
 
 @dataclass(frozen=True)
@@ -150,12 +179,12 @@ class Beam:
     def effective_depth(self) -> Value:
         """Centroid of the tension reinforcement from the compression face (d)."""
         moment = _sum(layer.area * np.asarray(layer.depth, float) for layer in self.tension)
-        return _scalar(moment / np.asarray(self.tension_area, float))
+        return per_beam(moment / np.asarray(self.tension_area, float))
 
     @property
     def extreme_tension_depth(self) -> Value:
         """Depth of the tension layer farthest from the compression face (dt)."""
-        return _scalar(np.maximum.reduce([np.asarray(layer.depth, float)
+        return per_beam(np.maximum.reduce([np.asarray(layer.depth, float)
                                           for layer in self.tension]))
 
     def slab_sides(self) -> int:
@@ -163,27 +192,76 @@ class Beam:
         return {Shape.TEE: 2, Shape.ELL: 1, Shape.RECTANGLE: 0}[self.shape]
 
 
-def _numbers(beam: Beam) -> list[Any]:
-    """Every numeric field of a beam, its layers, layout and actions."""
-    values = [beam.web_width, beam.depth, beam.concrete_strength, beam.yield_strength,
-              beam.flange_thickness, beam.flange_width, beam.steel_modulus]
-    values += [v for layer in (*beam.tension, *beam.compression) for v in (layer.area,
-                                                                             layer.depth)]
-    if beam.layout is not None:
-        layout = beam.layout
-        values += [layout.span, layout.clear_span, layout.clear_left, layout.clear_right,
-                   layout.zero_moment_length, layout.adjacent_span]
-    values += [beam.actions.dead, beam.actions.live, beam.actions.factored]
-    return [v for v in values if v is not None]
+NAMES = frozenset({"id", "title"})  # a beam's names: nothing a rule may branch on
+
+
+@cache
+def field_roles(cls: type) -> tuple[tuple[str, str], ...]:
+    """Each field of a dataclass (but its names) with what it holds, read once from its
+    type hints: "number" (float or array), "optional" (a number that may be None),
+    "part" (a nested dataclass, maybe None), "group" (a tuple of dataclasses), "word"."""
+    hints = get_type_hints(cls)
+    roles = []
+    for f in fields(cls):
+        if f.name in NAMES:
+            continue
+        hint = hints[f.name]
+        inner = [a for a in get_args(hint) if a is not type(None)] or [hint]
+        if get_origin(hint) is tuple:
+            role = "group"
+        elif hint is Any or inner == [Any]:
+            role = "optional" if f.default is None else "number"
+        else:
+            role = "part" if is_dataclass(inner[0]) else "word"
+        roles.append((f.name, role))
+    return tuple(roles)
+
+
+def _numbers(obj: Any) -> list[Any]:
+    """Every numeric field of a beam, its layers, layout and actions (found from the
+    dataclass fields, so a new field is never forgotten)."""
+    found: list[Any] = []
+    cls: type = type(obj)
+    for name, role in field_roles(cls):
+        value = getattr(obj, name)
+        if value is None or role == "word":
+            continue
+        if role == "part":
+            found += _numbers(value)
+        elif role == "group":
+            for part in value:
+                found += _numbers(part)
+        else:
+            found.append(value)
+    return found
+
+
+_KIND_TERMS = {"word": "obj.{0}", "optional": "obj.{0} is None",
+               "part": "None if obj.{0} is None else kind_of(obj.{0})",
+               "group": "tuple(map(kind_of, obj.{0}))"}
+
+
+@cache
+def _kind_reader(cls: type) -> Callable[[Any], tuple[Any, ...]]:
+    """One generated expression per class, as ``dataclasses`` generates ``__eq__``: the
+    kind of a beam is read once per beam of a large schedule, so it must be quick."""
+    terms = [_KIND_TERMS[role].format(name) for name, role in field_roles(cls) if role != "number"]
+    reader: Callable[[Any], tuple[Any, ...]] = eval(  # noqa: S307 (our own field names)
+        f"lambda obj: ({''.join(t + ', ' for t in terms)})", {"kind_of": kind_of})
+    return reader
+
+
+def kind_of(obj: Any) -> tuple[Any, ...]:
+    """Everything about a beam that is not a number (which optional numbers are given,
+    how many layers, the words and switches), found from the dataclass fields: beams of
+    one kind take the same branches of every rule, so they stack together."""
+    cls: type = type(obj)
+    return _kind_reader(cls)(obj)
 
 
 def _sum(values: Any) -> Value:
     total = sum(np.asarray(v, float) for v in values)
-    return _scalar(np.asarray(total, float))
-
-
-def _scalar(value: np.ndarray) -> Value:
-    return value if np.ndim(value) else float(value)
+    return per_beam(np.asarray(total, float))
 
 
 @dataclass(frozen=True)

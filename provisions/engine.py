@@ -33,14 +33,18 @@ from clausewise.provisions.registry import (
     default_registry,
 )
 from clausewise.provisions.verdicts import (  # noqa: F401 (re-exported)
+    CAPACITY_ONLY,
     CAUTION,
     ERROR,
     FAIL,
     NO_EQUILIBRIUM,
     OUT_OF_SCOPE,
     PASS,
+    Status,
+    governing,
+    status,
 )
-from clausewise.provisions.vocabulary import Check, Clause, Envelope, Factor, Sense
+from clausewise.provisions.vocabulary import Check, Clause, Envelope, Factor, Sense, per_beam, shown
 
 
 @dataclass(frozen=True)
@@ -170,8 +174,8 @@ def evaluate(beam: Beam, edition: Edition, context: Context) -> Evaluation:
     moment = np.where(equilibrium, response.nominal_moment, np.nan)
     phi = resistance.factor
     design_resistance = Factor(
-        "M_Rd", _like(beam, phi.value * moment), resistance.requirement,
-        f"{phi.symbol} = {_fmt(phi.value)} times the nominal moment Mn", "N·mm")
+        "M_Rd", per_beam(phi.value * moment), resistance.requirement,
+        f"{phi.symbol} = {shown(phi.value)} times the nominal moment Mn", "N·mm")
     demand = edition.design_actions(beam, params, context)
 
     checks: list[Check] = []
@@ -195,14 +199,6 @@ def _all_passed(checks: tuple[Check, ...]) -> Any:
     return passed if np.ndim(passed) else bool(passed)
 
 
-def _like(beam: Beam, value: Any) -> Any:
-    return value if beam.is_batch else float(value)
-
-
-def _fmt(value: Any) -> str:
-    return f"{value:.4g}" if np.ndim(value) == 0 else "per beam"
-
-
 def _governing_label(envelope: Envelope) -> str:
     if np.ndim(envelope.governing):
         return "per beam"
@@ -223,7 +219,7 @@ class Assessment:
     form_basis: str
     parameters: tuple[Any, ...]
     applicability: tuple[Check, ...]
-    status: str
+    status: Status
     effective_width: Envelope | None
     concrete_factors: tuple[Factor, ...]
     steel_factors: tuple[Factor, ...]
@@ -246,9 +242,8 @@ class Assessment:
     def governing(self) -> Check | None:
         """The check with the highest utilisation (scope checks first when outside scope)."""
         pool = self.checks if self.status != OUT_OF_SCOPE else self.applicability
-        if not pool:
-            return None
-        return max(pool, key=lambda c: c.utilisation)
+        worst, _ = governing(pool)
+        return None if worst is None else pool[worst]
 
     @property
     def passed(self) -> bool:
@@ -273,7 +268,8 @@ class Assessment:
         check = self.governing
         if check is None:
             return "capacity only: no actions given"
-        verdict = "passes" if self.passed else "fails"
+        verdict = {PASS: "passes", CAPACITY_ONLY: "capacity only (no actions given)"}.get(
+            self.status, "fails")
         return (f"{verdict}; governed by {check.name} ({check.clause.edition} "
                 f"{check.clause.ref}) at utilisation {check.utilisation:.3f}")
 
@@ -283,12 +279,10 @@ def _stack(edition: Edition) -> tuple[LayerRecord, ...]:
                              r.version, r.source) for r in edition.layers)
 
 
-def _status(ev: Evaluation) -> str:
-    if not ev.in_scope:
-        return OUT_OF_SCOPE
-    if ev.response is not None and not ev.response.equilibrium:
-        return NO_EQUILIBRIUM
-    return PASS if all(c.passed for c in ev.checks) else FAIL
+def _status(ev: Evaluation) -> Status:
+    equilibrium = ev.response is None or ev.response.equilibrium
+    return status(in_scope=ev.in_scope, equilibrium=equilibrium, checks=ev.checks,
+                  has_demand=ev.demand is not None)
 
 
 def assess(beam: Beam, edition: str | Edition, *, form: str | None = None,

@@ -193,6 +193,16 @@ class Regime:
 
 # --- rule helpers: the same call on floats and on arrays ----------------------------
 
+def per_beam(value: Any) -> Value:
+    """A float for one beam, the array itself for a batch: the shape every rule returns."""
+    return value if np.ndim(value) else float(value)
+
+
+def shown(value: Any, spec: str = ".4g") -> str:
+    """A value for an audit line: formatted for one beam, "per beam" for a batch."""
+    return format(float(value), spec) if np.ndim(value) == 0 else "per beam"
+
+
 def _out(value: np.ndarray) -> Value:
     """Arrays stay arrays; a 0-d result becomes a plain Python value."""
     return value if value.ndim else value.item()

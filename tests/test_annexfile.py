@@ -80,7 +80,7 @@ def test_firm_file_changes_the_verdict_and_the_demand(registry):
     assert code.demand.value == pytest.approx(max(1.4 * 100e6, 1.2 * 100e6 + 1.6 * 60e6))
 
 
-def test_annex_file_changes_resistance_and_limits_by_hand(registry):
+def test_annex_file_changes_resistance_and_limits_by_hand(registry, edition_with):
     base(registry, EN)
     load_annex(ANNEX_FILE, registry)
     annex = assess(TEE, "xl-na:2023", registry=registry)
@@ -96,9 +96,16 @@ def test_annex_file_changes_resistance_and_limits_by_hand(registry):
     assert recommended.design_resistance.value == pytest.approx(hand(1.0), rel=1e-9)
     assert annex.design_resistance.value == pytest.approx(hand(0.85), rel=1e-9)
     limits = {a.edition_id: {c.symbol: c.limit for c in a.checks} for a in (annex, recommended)}
-    # 5.5(4), δ = 1, εcu2 = 0.0035: xu/d ≤ (1 - k1)/(k2_scale (0.6 + 0.0014/εcu2))
-    assert limits["xl-na:2023"]["xu/d"] == pytest.approx((1 - 0.4) / 1.25, rel=1e-12)
-    assert limits[EN]["xu/d"] == pytest.approx((1 - 0.44) / 1.25, rel=1e-12)
+    # 5.5(4) by default only where moments are redistributed: with δ = 1 neither applies it
+    assert "xu/d" not in limits["xl-na:2023"] and "xu/d" not in limits[EN]
+    # where it is applied with δ = 1 (neutral_axis_limit = always), the file's k1 acts:
+    # εcu2 = 0.0035, xu/d ≤ (1 - k1)/(k2_scale (0.6 + 0.0014/εcu2))
+    always = {e: assess(TEE, edition_with(e, registry=registry, name=f"xx-always-{i}",
+                                          neutral_axis_limit="always"), registry=registry)
+              for i, e in enumerate(("xl-na:2023", EN))}
+    assert check_of(always["xl-na:2023"], "xu/d").limit == pytest.approx((1 - 0.4) / 1.25,
+                                                                          rel=1e-12)
+    assert check_of(always[EN], "xu/d").limit == pytest.approx((1 - 0.44) / 1.25, rel=1e-12)
     # 9.2.1.1(3): As,max = ratio × Ac, Ac = 1500 × 120 + 300 × 480 mm² (T with its flange)
     area = 1500.0 * 120.0 + 300.0 * 480.0
     assert limits["xl-na:2023"]["As + As'"] == pytest.approx(0.035 * area, rel=1e-12)
@@ -238,3 +245,7 @@ def test_a_choice_parameter_takes_its_word(registry, tmp_path):
     a = assess(TEE, record.info.id, registry=registry)
     assert a.suppliers()["concrete_model"] == "x-test:2025"
     assert any(f.symbol == "εc2" for f in a.concrete_factors)  # the parabola's strain at peak
+
+
+def check_of(assessment, symbol):
+    return next(c for c in assessment.checks if c.symbol == symbol)

@@ -295,3 +295,42 @@ def test_batch_equals_single():
             assert at(batch_check.limit, i) == pytest.approx(one.limit, rel=1e-9)
     assert not ev.response.block_in_flange[1]
     assert ev.response.block_in_flange[0]
+
+
+# --- the contested reading of γ (8.1.3) -------------------------------------------------------
+
+def test_gamma_readings_by_hand():
+    # AS 3600-2018 8.1.3, from memory: γ = 0.97 - 0.0025 f'c at least 0.67 (our reading);
+    # the other reading also caps it at 0.85, which binds below f'c = 48 MPa
+    assert gamma(32.0).value == pytest.approx(0.89, abs=1e-12)
+    assert gamma(32.0, "0.67 to 0.85").value == pytest.approx(0.85, abs=1e-12)
+    assert gamma(48.0, "0.67 to 0.85").value == pytest.approx(0.85, abs=1e-12)
+    assert gamma(65.0, "0.67 to 0.85").value == pytest.approx(0.8075, abs=1e-12)
+    assert gamma(150.0, "0.67 to 0.85").value == pytest.approx(0.67, abs=1e-12)
+
+
+@pytest.mark.parametrize(("reading", "g"), [("at least 0.67", 0.89), ("0.67 to 0.85", 0.85)])
+def test_gamma_reading_changes_kuo_and_phi_by_hand(edition_with, reading, g):
+    area, b, d = 2750.0, 300.0, 500.0
+    beam = Beam("R-7", Shape.RECTANGLE, Bending.SAGGING, b, 560.0, FC, FSY, (Layer(area, d),),
+                actions=Actions(dead=200e6, live=120e6))
+    a = assess(beam, edition_with(ID, gamma_limits=reading))
+    # by hand with AS 3600-2018 8.1.3 and Table 2.2.2 (from memory): the steel yields,
+    # depth of the block γ ku d = Ast fsy/(α2 f'c b), ku d = block/γ, Muo = Ast fsy (d - block/2),
+    # φ = 1.24 - 13 kuo/12 within 0.65..0.85
+    a2 = 0.85 - 0.0015 * FC
+    block = area * FSY / (a2 * FC * b)
+    c = block / g
+    assert EPS_CU * (d - c) / c > FSY / ES
+    phi = min(max(1.24 - 13 * (c / d) / 12, 0.65), 0.85)
+    assert a.response.c == pytest.approx(c, rel=1e-9)
+    assert a.design_resistance.value == pytest.approx(phi * area * FSY * (d - block / 2),
+                                                      rel=1e-9)
+    assert f"gamma_limits = {reading}" in next(f.basis for f in a.concrete_factors
+                                                if f.symbol == "γ")
+
+
+def test_gamma_reading_is_a_listed_choice():
+    p = parameters()["gamma_limits"]
+    assert p.value == "at least 0.67" and p.choices == ("at least 0.67", "0.67 to 0.85")
+    assert "default" in p.description

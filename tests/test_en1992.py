@@ -17,7 +17,6 @@ from clausewise.provisions import (
     Actions,
     Beam,
     Bending,
-    Clause,
     Context,
     Continuity,
     EditionInfo,
@@ -52,30 +51,6 @@ def fresh_registry():
 @pytest.fixture(scope="module")
 def edition():
     return fresh_registry().edition(EC2)
-
-
-class Override:
-    """A local edition over EN 1992-1-1:2004 that changes only some parameters."""
-
-    def __init__(self, edition_id, parameters):
-        self.info = EditionInfo(edition_id, "test override", 2024, extends=EC2)
-        self.changed = tuple(parameters)
-
-    @hookimpl
-    def edition_info(self):
-        return self.info
-
-    @hookimpl
-    def edition_parameters(self):
-        return list(self.changed)
-
-
-def edition_with(edition_id, **values):
-    clause = Clause("T.1", "choice made for the test", edition_id)
-    reg = fresh_registry()
-    reg.register(Override(edition_id, [Parameter(n, v, clause) for n, v in values.items()]),
-                 name=edition_id)
-    return reg.edition(edition_id)
 
 
 B3_STEEL = bar_area(25, 4)
@@ -143,15 +118,30 @@ def test_block_factors_of_3_1_7():
     assert eta.value == pytest.approx([1.0, 1.0, 0.95, 0.80], abs=1e-12)
 
 
-def test_neutral_axis_limit_without_redistribution(edition):
+def test_neutral_axis_limit_only_where_redistributed_by_default(edition, edition_with):
+    # EN 1992-1-1:2004 5.5(4), from memory: δ ≥ k1 + k2 xu/d binds where moments are
+    # redistributed; with δ = 1 the recommended text does not require it
+    assert [c for c in assess(flange_tee(), edition).checks if c.symbol == "xu/d"] == []
+    reduced = edition_with(EC2, name="xx-delta", redistribution_ratio=0.85)
+    limit = check(assess(flange_tee(), reduced), "xu/d")
+    # (0.85 - 0.44)/(1.25 (0.6 + 0.0014/0.0035)) = 0.328 up to C50/60
+    assert limit.limit == pytest.approx((0.85 - 0.44) / 1.25, abs=1e-12)
+    assert limit.name == "neutral-axis depth for the redistribution assumed"
+    assert "neutral_axis_limit = where redistributed" in limit.note
+
+
+def test_neutral_axis_limit_without_redistribution(edition_with):
+    always = edition_with(EC2, name="xx-always", neutral_axis_limit="always")
     # EN 1992-1-1:2004 5.5(4) with δ = 1, from memory: (1 - 0.44)/1.25 = 0.448 up to C50/60
     for fck in (20.0, 35.0, 50.0):
-        assert check(assess(flange_tee(fck), edition), "xu/d").limit == pytest.approx(0.448,
-                                                                                      abs=1e-12)
+        assert check(assess(flange_tee(fck), always), "xu/d").limit == pytest.approx(0.448,
+                                                                                     abs=1e-12)
     # above C50/60: (1 - k3)/k4, k3 = 0.54, k4 = 1.25 (0.6 + 0.0014/εcu2), εcu2 = 2.6‰ at C90
     expected = (1 - 0.54) / (1.25 * (0.6 + 0.0014 / 0.0026))
-    assert check(assess(flange_tee(90.0), edition), "xu/d").limit == pytest.approx(expected,
-                                                                                   rel=1e-12)
+    at_c90 = check(assess(flange_tee(90.0), always), "xu/d")
+    assert at_c90.limit == pytest.approx(expected, rel=1e-12)
+    assert at_c90.name == "neutral-axis depth without redistribution (ductility practice)"
+    assert "neutral_axis_limit = always" in at_c90.note
 
 
 # --- whole assessments against hand calculations ------------------------------------------
@@ -189,12 +179,12 @@ def test_block_in_flange_tee_by_hand(edition):
     # 9.2.1.1(3), from memory: 0.04 Ac, Ac the gross T of width beff
     assert check(a, "As + As'").limit == pytest.approx(0.04 * (beff * hf + bw * (h - hf)),
                                                        rel=1e-12)
-    assert check(a, "xu/d").value == pytest.approx(x / d, rel=1e-9)
+    assert [c for c in a.checks if c.symbol == "xu/d"] == []  # δ = 1: 5.5(4) not applied
     assert a.status == "pass"
     assert a.caution == clausewise.provisions.CAUTION
 
 
-def test_block_in_web_tee_by_hand(edition):
+def test_block_in_web_tee_by_hand(edition, edition_with):
     fck, bf, bw, hf, h, d = 60.0, 600.0, 250.0, 100.0, 700.0, 630.0
     area = bar_area(36, 6)
     beam = Beam("B7", Shape.TEE, Bending.SAGGING, bw, h, fck, FYK, (Layer(area, d),),
@@ -222,10 +212,12 @@ def test_block_in_web_tee_by_hand(edition):
     strength = check(a, "M_Ed")
     assert strength.note == "governing combination: as given"
     assert strength.utilisation == pytest.approx(1200e6 / m_rd, rel=1e-9)
-    # 5.5(4), from memory: (1 - 0.54)/(1.25 (0.6 + 0.0014/εcu2)) above C50/60
+    # 5.5(4) where applied with δ = 1, from memory: (1 - 0.54)/(1.25 (0.6 + 0.0014/εcu2))
+    # above C50/60
     limit = (1 - 0.54) / (1.25 * (0.6 + 0.0014 / eps_cu3))
-    assert check(a, "xu/d").limit == pytest.approx(limit, rel=1e-12)
-    assert check(a, "xu/d").value == pytest.approx(x / d, rel=1e-9)
+    depth = check(assess(beam, edition_with(EC2, neutral_axis_limit="always")), "xu/d")
+    assert depth.limit == pytest.approx(limit, rel=1e-12)
+    assert depth.value == pytest.approx(x / d, rel=1e-9)
     # Table 3.1, from memory: fctm = 2.12 ln(1 + (fck + 8)/10) above C50/60; 9.2.1.1(1)
     fctm = 2.12 * math.log(1 + (fck + 8) / 10)
     assert check(a, "As").limit == pytest.approx(max(0.26 * fctm / FYK, 0.0013) * bw * d,
@@ -349,8 +341,8 @@ def test_cube_strength_is_converted_with_its_basis(edition):
 
 # --- the other options of 3.1.7 and 3.2.7 ---------------------------------------------------
 
-def test_parabola_rectangle_against_numerical_integration():
-    chosen = edition_with("xx-parabola", concrete_model="parabola-rectangle")
+def test_parabola_rectangle_against_numerical_integration(edition_with):
+    chosen = edition_with(EC2, name="xx-parabola", concrete_model="parabola-rectangle")
     b, d, area, fck = 300.0, 450.0, bar_area(20, 4), 30.0
     beam = Beam("R1", Shape.RECTANGLE, Bending.SAGGING, b, 500.0, fck, FYK, (Layer(area, d),))
     a = assess(beam, chosen)
@@ -377,8 +369,8 @@ def test_parabola_rectangle_against_numerical_integration():
     assert factor(a.concrete_factors, "n").value == 2.0
 
 
-def test_inclined_steel_branch_against_root_finding():
-    chosen = edition_with("xx-inclined", steel_branch="inclined")
+def test_inclined_steel_branch_against_root_finding(edition_with):
+    chosen = edition_with(EC2, name="xx-inclined", steel_branch="inclined")
     b, d, area, fck = 300.0, 450.0, 3000.0, 30.0
     beam = Beam("R2", Shape.RECTANGLE, Bending.SAGGING, b, 500.0, fck, FYK, (Layer(area, d),))
     a = assess(beam, chosen)
@@ -403,8 +395,8 @@ def test_inclined_steel_branch_against_root_finding():
     assert factor(a.steel_factors, "εud").value == pytest.approx(0.045, rel=1e-12)
 
 
-def test_unknown_model_choice_is_refused(edition):
-    chosen = edition_with("xx-bad-choice", concrete_model="trapezoid")
+def test_unknown_model_choice_is_refused(edition_with):
+    chosen = edition_with(EC2, name="xx-bad-choice", concrete_model="trapezoid")
     # a word the edition does not offer is bad input, named with whoever set it
     with pytest.raises(ParameterError, match="concrete_model = 'trapezoid' \\(set by xx-bad"):
         assess(flange_tee(), chosen)
@@ -486,8 +478,8 @@ def batch_beam(rows):
 
 
 @pytest.mark.parametrize("options", [{}, {"concrete_model": "parabola-rectangle"}])
-def test_batch_equals_single_beams(edition, options):
-    chosen = edition_with("xx-batch", **options) if options else edition
+def test_batch_equals_single_beams(edition, edition_with, options):
+    chosen = edition_with(EC2, name="xx-batch", **options) if options else edition
     batch = evaluate(batch_beam(slice(None)), chosen, Context())
     singles = [assess(batch_beam(i), chosen) for i in range(4)]
     assert [s.status for s in singles] == ["pass"] * 4

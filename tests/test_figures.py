@@ -1,9 +1,10 @@
 """Figures: the drawn geometry against hand values, and files that parse as SVG and PNG.
 
 Hand values: ACI 318-19 rectangular block (from memory: 22.2.2.4.1 block 0.85 f'c over
-a = β1 c, 6.3.2.1 overhang limits); IS 456:2000 38.1 design peak 0.67 fck/1.5 on the
-cube strength (from memory), fck = 37 MPa for a C30/37 concrete (EN 1992-1-1 Table 3.1,
-from memory).
+a = β1 c, 6.3.2.1 overhang limits); IS 456:2000 38.1 and Annex G-1.1 printed resultants
+0.36 fck b xu at 0.42 xu on the cube strength (from memory), drawn as the parabola-rectangle
+shaped to them (peak 0.36/(1 - k/3) fck with k² - 2.32k + 0.96 = 0, by hand), fck = 37 MPa
+for a C30/37 concrete (EN 1992-1-1 Table 3.1, from memory).
 """
 
 from __future__ import annotations
@@ -111,7 +112,8 @@ def test_stress_panel_shows_the_parabola_rectangle_peak(outcomes):
     figure = drawn(outcomes[("K-1", "is456:2000")])
     stresses = figure.axes[2]
     labels = [t.get_text() for t in stresses.texts]
-    assert f"{0.67 * 37 / 1.5:.4g} MPa" in labels
+    k = 1.16 - (1.16**2 - 0.96) ** 0.5
+    assert f"{0.36 / (1 - k / 3) * 37:.4g} MPa" in labels
 
 
 def test_svg_and_png_files_parse(outcomes, tmp_path):

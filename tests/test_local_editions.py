@@ -16,6 +16,8 @@ from pathlib import Path
 
 import pytest
 
+from clausewise.provisions import Beam, Bending, Layer, Shape, assess
+
 ROOT = Path(__file__).resolve().parents[1]
 FIXTURE = ROOT / "fixtures" / "local-editions"
 PACKAGE = FIXTURE / "local_editions"
@@ -178,12 +180,19 @@ def test_annex_changes_resistance_by_the_hand_ratio(result):
     assert annex["M_Rd"] / base["M_Rd"] == pytest.approx(hand(0.85) / hand(1.0), rel=1e-9)
 
 
-def test_annex_relaxes_the_neutral_axis_limit(result):
+def test_annex_relaxes_the_neutral_axis_limit(result, edition_with):
     both = needs(result, "annex", ANNEX, EN)
-    # EN 1992-1-1 5.5(4) with δ = 1 and εcu2 = 0.0035 (from memory): xu/d ≤ (1 - k1)/k2,
+    # 5.5(4) applies by default only where moments are redistributed (δ < 1): with δ = 1
+    # neither the annex nor the base checks xu/d
+    for e in (ANNEX, EN):
+        assert not [c for c in both[e]["checks"] if c["symbol"] == "xu/d"]
+    # where it is applied with δ = 1 (neutral_axis_limit = always), the annex's k1 and k2
+    # act. EN 1992-1-1 5.5(4) with δ = 1 and εcu2 = 0.0035 (from memory): xu/d ≤ (1 - k1)/k2,
     # k2 = k2_scale (0.6 + 0.0014/0.0035) = k2_scale
-    limit = {e: next(c["limit"] for c in both[e]["checks"] if c["symbol"] == "xu/d")
-             for e in (ANNEX, EN)}
+    tee = Beam("block in flange", Shape.TEE, Bending.SAGGING, 300.0, 600.0, 30.0, 500.0,
+               (Layer(1800.0, 540.0),), flange_thickness=120.0, flange_width=1500.0)
+    limit = {e: next(c.limit for c in assess(tee, edition_with(
+        e, neutral_axis_limit="always")).checks if c.symbol == "xu/d") for e in (ANNEX, EN)}
     assert limit[EN] == pytest.approx((1 - 0.44) / 1.25, rel=1e-12)
     assert limit[ANNEX] == pytest.approx((1 - 0.4) / 1.0, rel=1e-12)
 

@@ -190,13 +190,16 @@ class _BeamReader:
         live = q(moments.live, "moments.live", MOMENT, "live-load moment", "non-negative")
         factored = q(moments.factored, "moments.factored", MOMENT, "factored moment",
                      "non-negative")
-        if moments.factored is not None and (moments.dead is not None
-                                             or moments.live is not None):
-            self.problem("moments.factored", _text(moments.factored), "either service moments "
-                         "(dead, live) or a factored moment, not both")
-        elif moments.live is not None and moments.dead is None:
-            self.problem("moments.dead", "", f"{MOMENT.expected}: with a live moment, give the "
-                         "dead moment too ('0 kN m' if there is none)")
+        problem = Actions.omission_problem(moments.dead, moments.live, moments.factored)
+        if problem is not None:  # the rule of Actions, reported against the file's field
+            field, why = problem
+            self.problem(f"moments.{field}", _text(moments.factored) if field == "factored"
+                         else "", why if field == "factored" else f"{MOMENT.expected}: {why}")
+            return Actions()
+        given = (moments.dead, moments.live, moments.factored)
+        if any(r is None and g is not None for r, g in zip((dead, live, factored), given,
+                                                           strict=True)):
+            return Actions()  # a moment that could not be read is reported already
         return Actions(_v(dead), _v(live), _v(factored))
 
     # --- the whole beam -------------------------------------------------------------------

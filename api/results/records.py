@@ -15,10 +15,9 @@ from clausewise.provisions import (
     Factor,
     UnitSystem,
 )
-from clausewise.provisions.verdicts import ERROR
+from clausewise.provisions.verdicts import Status
 from clausewise.provisions.widths import OverhangEnvelope
 from clausewise.results.display import convert
-from clausewise.results.running import CAPACITY_ONLY
 
 if TYPE_CHECKING:
     from clausewise.beamfile import InputProblem, Schedule
@@ -26,7 +25,7 @@ if TYPE_CHECKING:
     from clausewise.results.running import Outcome
 
 INPUT_PROBLEM = "input problem"
-STATUSES = ("pass", "fail", "outside scope", "no equilibrium", ERROR, CAPACITY_ONLY)
+STATUSES = tuple(Status)
 DIGITS = 6  # significant figures of machine-readable numbers unless asked otherwise
 
 
@@ -149,7 +148,7 @@ def record(outcome: Outcome, units: str = "beam", digits: int = DIGITS) -> dict[
     n = outcome.notation
     base: dict[str, Any] = {
         "beam": entry.beam.id, "title": entry.beam.title, "edition": outcome.edition,
-        "situation": outcome.situation, "status": outcome.shown_status, "caution": CAUTION,
+        "situation": outcome.situation, "status": outcome.status, "caution": CAUTION,
         "units": units_table(system), "inputs": dict(entry.shown),
     }
     if a is None:

@@ -7,7 +7,7 @@ from dataclasses import dataclass
 from typing import TYPE_CHECKING
 
 from clausewise.provisions import Assessment, ClausewiseError, Notation, assess
-from clausewise.provisions.verdicts import ERROR, PASS
+from clausewise.provisions.verdicts import ERROR
 
 if TYPE_CHECKING:
     from clausewise.beamfile import BeamEntry, Schedule
@@ -28,22 +28,6 @@ class Outcome:
     @property
     def status(self) -> str:
         return self.assessment.status if self.assessment else ERROR
-
-    @property
-    def shown_status(self) -> str:
-        """The status as reports and counts show it: a beam that passes without any
-        action given is "capacity only", not "pass"."""
-        return shown_status(self.assessment) if self.assessment else ERROR
-
-
-CAPACITY_ONLY = "capacity only"
-
-
-def shown_status(assessment: Assessment) -> str:
-    """"capacity only" for a beam with no actions that passes its other checks."""
-    if assessment.status == PASS and assessment.demand is None:
-        return CAPACITY_ONLY
-    return assessment.status
 
 
 def notation_of(edition: Edition) -> Notation:
