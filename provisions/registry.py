@@ -203,7 +203,17 @@ def _returned(edition: Edition, hook: str, value: Any, expected: type | tuple[ty
             t.__name__ for t in expected)
         raise PluginError(f"edition {edition.id!r}: hook {hook} returned "
                           f"{type(value).__name__}, expected {names}")
+    _sense_checked(edition, hook, value)
     return value
+
+
+def _sense_checked(edition: Edition, hook: str, value: Any) -> None:
+    """Values, not only types (issue 13): see :mod:`clausewise.provisions.answer_checks`."""
+    from clausewise.provisions.answer_checks import AnswerError, answer_problems
+
+    problems = answer_problems(hook, value)
+    if problems:
+        raise AnswerError(edition.id, (edition.implementers(hook) or ["?"])[0], hook, problems)
 
 
 @dataclass(frozen=True)

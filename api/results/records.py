@@ -20,14 +20,20 @@ STATUSES = ("pass", "fail", "outside scope", "no equilibrium", ERROR)
 
 
 def _number(value: Any) -> float | None:
-    """A finite float, or None (JSON has no NaN or infinity)."""
-    number = float(value)
+    """A finite float, or None (JSON has no NaN or infinity; a plugin may answer None)."""
+    try:
+        number = float(value)
+    except (TypeError, ValueError):
+        return None
     return number if math.isfinite(number) else None
 
 
 def _si(value: Any, unit: str) -> tuple[float | None, str]:
-    number, shown = convert(value, unit)
-    return _number(number), shown
+    number = _number(value)
+    if number is None:
+        return None, convert(1.0, unit)[1]
+    converted, shown = convert(number, unit)
+    return _number(converted), shown
 
 
 def _clause(clause: Clause) -> dict[str, str]:

@@ -5,6 +5,7 @@ from __future__ import annotations
 import csv
 import io
 import json
+import math
 from typing import Any
 
 from clausewise.results.records import INPUT_PROBLEM
@@ -36,6 +37,25 @@ CSV_COLUMNS = (
 )
 
 
+def _factor_text(factor: dict[str, Any]) -> str:
+    """``φ = 0.9``; a factor without a finite value (no equilibrium, or a plugin's NaN)
+    says so instead of failing."""
+    if not factor:
+        return ""
+    value = factor.get("value")
+    shown = f"{value:.4g}" if isinstance(value, int | float) and math.isfinite(value) \
+        else "no value"
+    return f"{factor.get('symbol', '')} = {shown}"
+
+
+def _cell(value: Any) -> Any:
+    """A CSV cell: blank for a missing or non-finite number (a spreadsheet reads "nan" as
+    text, and JSON has none)."""
+    if value is None or (isinstance(value, float) and not math.isfinite(value)):
+        return ""
+    return value
+
+
 def csv_row(rec: dict[str, Any]) -> dict[str, Any]:
     """One result record as a flat CSV row (blank where a value does not exist)."""
     governing = rec.get("governing_check") or {}
@@ -53,7 +73,7 @@ def csv_row(rec: dict[str, Any]) -> dict[str, Any]:
         "utilisation": governing.get("utilisation"), "M_Ed_kNm": demand.get("value"),
         "M_Rd_kNm": resistance.get("design_resistance"),
         "Mn_kNm": section.get("nominal_moment"),
-        "resistance_factor": f"{factor['symbol']} = {factor['value']:.4g}" if factor else "",
+        "resistance_factor": _factor_text(factor),
         "b_eff_mm": width.get("value"), "block_case": section.get("block_case", ""),
         "c_mm": section.get("neutral_axis_depth"), "c_over_d": section.get("c_over_d"),
         "net_tensile_strain": section.get("net_tensile_strain"),
@@ -73,7 +93,7 @@ def to_csv(data: dict[str, Any]) -> str:
     columns = csv.DictWriter(out, CSV_COLUMNS, lineterminator="\n")
     columns.writeheader()
     for rec in data["results"]:
-        columns.writerow({k: "" if v is None else v for k, v in csv_row(rec).items()})
+        columns.writerow({k: _cell(v) for k, v in csv_row(rec).items()})
     for problem in data["problems"]:
         columns.writerow({"beam": problem["beam"] or "", "status": INPUT_PROBLEM,
                           "summary": problem["message"]})
