@@ -36,7 +36,6 @@ if TYPE_CHECKING:
 
 PROGRAM = "clausewise"
 FORMATS = ("rich", "json", "toml", "csv")
-BY_SUFFIX = {".json": "json", ".toml": "toml", ".csv": "csv"}
 REPORT_WIDTH = 110  # columns of a report that does not go to a terminal
 BATCH_FROM = 2_000  # beam-editions beyond which check takes the batch path (rich or CSV)
 
@@ -221,7 +220,9 @@ def _require(registry: Registry, requirements: Sequence[str]) -> None:
 def _load(args: argparse.Namespace) -> tuple[Schedule, Registry, str | None, str]:
     from clausewise.beamfile import load_schedule
 
+    _guard_inputs(args)
     schedule = load_schedule(args.file)
+    _guard_inputs(args, *schedule.project.annexes)
     registry = _registry([*args.annex, *schedule.project.annexes])
     _require(registry, schedule.project.required)
     form = args.form or schedule.project.form or "auto"
@@ -244,11 +245,21 @@ def exit_status(outcomes: Sequence[Outcome], schedule: Schedule) -> int:
 
 
 def _chosen_format(args: argparse.Namespace) -> str:
-    if args.format:
-        return str(args.format)
-    if args.out is not None:
-        return BY_SUFFIX.get(args.out.suffix.lower(), "rich")
-    return "rich"
+    """"rich" for a report (on the screen or as .txt, .svg, .html), else json, toml or csv:
+    the extension of --out decides, and a --format that contradicts it is refused."""
+    from clausewise.outputs import FORMATS, format_for
+
+    name = format_for(args.out, args.format)
+    return "rich" if name == "rich" or FORMATS[name].holds == "report" else name
+
+
+def _guard_inputs(args: argparse.Namespace, *more: Path) -> None:
+    """Refuse an --out that is one of the run's input files, before anything is computed."""
+    from clausewise.outputs import refuse_inputs
+
+    refuse_inputs(getattr(args, "out", None),
+                  [p for p in (getattr(args, "file", None), *getattr(args, "annex", ()), *more)
+                   if p is not None])
 
 
 def _emit_text(text: str, out: Path | None) -> None:
@@ -258,6 +269,13 @@ def _emit_text(text: str, out: Path | None) -> None:
         sys.stdout.write(text)
     else:
         write_atomic(out, text)
+        _confirm(out)
+
+
+def _confirm(out: Path) -> None:
+    from clausewise.outputs import confirm
+
+    confirm(out)
 
 
 def _emit_report(renderable: Any, width: int = REPORT_WIDTH, out: Path | None = None) -> None:
@@ -278,10 +296,11 @@ def _emit_report(renderable: Any, width: int = REPORT_WIDTH, out: Path | None = 
     console.print(renderable)
     if kind == ".svg":
         write_atomic(out, console.export_svg(title=f"{PROGRAM} report"))
-    elif kind == ".html":
+    elif kind in (".html", ".htm"):
         write_atomic(out, console.export_html())
     else:
         write_atomic(out, console.export_text())
+    _confirm(out)
 
 
 def _emit_document(data: dict[str, Any], kind: str, out: Path | None,
@@ -335,8 +354,9 @@ def _comparison_figures(folder: Path, outcomes: Sequence[Outcome], kind: str) ->
 def editions_command(args: argparse.Namespace) -> int:
     from clausewise import results
 
-    registry = _registry(args.annex)
     kind = _chosen_format(args)
+    _guard_inputs(args)
+    registry = _registry(args.annex)
     if args.parameters:
         edition = registry.edition(args.parameters)
         form = args.form or edition.forms[0]
@@ -392,6 +412,10 @@ def _publish(args: argparse.Namespace, schedule: Schedule, outcomes: Sequence[Ou
 
 
 def batch_command(args: argparse.Namespace) -> int:
+    from clausewise.outputs import format_for
+
+    _guard_inputs(args)
+    format_for(args.out, None, holds=("rows",))
     schedule, registry, form, situation = _load(args)
     editions = _editions(registry, args.edition or list(schedule.project.editions)
                          or registry.ids())
@@ -402,6 +426,7 @@ def _run_batch(schedule: Schedule, editions: Sequence[Edition], form: str | None
                situation: str, out: Path | None) -> int:
     """The batch path: rows streamed to ``out`` (CSV, or JSON Lines for .jsonl), progress
     on a terminal for runs longer than a second, and a summary at the end."""
+    from clausewise.outputs import FORMATS, format_for, rows_file
     from clausewise.stream import LazyProgress, RowWriter, stream_schedule
 
     progress = LazyProgress(sys.stderr.isatty())
@@ -409,8 +434,8 @@ def _run_batch(schedule: Schedule, editions: Sequence[Edition], form: str | None
         if out is None:
             summary = stream_schedule(schedule, editions, form, situation, None, progress)
         else:
-            kind = "jsonl" if out.suffix.lower() in (".jsonl", ".ndjson") else "csv"
-            with out.open("w", encoding="utf-8", newline="") as handle:
+            kind = FORMATS[format_for(out, None, holds=("rows",))].asked_as
+            with rows_file(out) as handle:
                 summary = stream_schedule(schedule, editions, form, situation,
                                           RowWriter(handle, kind), progress)
     finally:
@@ -430,8 +455,9 @@ def check_command(args: argparse.Namespace) -> int:
     schedule, registry, form, situation = _load(args)
     editions = _editions(registry, args.edition or list(schedule.project.editions)
                          or registry.ids())
+    kind = _chosen_format(args)
     if (len(schedule.entries) * len(editions) > BATCH_FROM and not args.figures
-            and _chosen_format(args) in ("rich", "csv")):
+            and (kind == "csv" or (kind == "rich" and args.out is None))):
         return _run_batch(schedule, editions, form, situation, args.out)
     outcomes = list(run(schedule, editions, form, situation))
     _publish(args, schedule, outcomes,
