@@ -18,6 +18,7 @@ from __future__ import annotations
 
 import argparse
 import io
+import os
 import re
 import sys
 import textwrap
@@ -176,19 +177,57 @@ def build_parser() -> argparse.ArgumentParser:
 
 # --- shared steps -----------------------------------------------------------------------------
 
-def _registry(annexes: Sequence[Path]) -> Registry:
+def _registry(annexes: Sequence[Path], named: Sequence[str] = ()) -> Registry:
     """A registry of this run: the installed editions plus the given parameter files,
-    without touching the process-wide one."""
+    without touching the process-wide one. With ``named`` editions (and no
+    CLAUSEWISE_EDITIONS), only those, their bases and the annexes' bases are loaded, so a
+    slow plugin the run does not use costs nothing."""
     from clausewise.provisions.registry import Registry, default_registry
 
-    base = default_registry()
-    registry = Registry(strict=base.strict, only=base.only, records=list(base.records))
+    only = _only(annexes, named)
+    if only is not None:
+        registry = Registry(strict=os.environ.get("CLAUSEWISE_STRICT", "") == "1", only=only)
+        registry.load_entry_points()
+    else:
+        base = default_registry()
+        registry = Registry(strict=base.strict, only=base.only, records=list(base.records))
     if annexes:
         from clausewise.annexfile import load_annex
 
         for path in annexes:
             load_annex(path, registry)
     return registry
+
+
+def _only(annexes: Sequence[Path], named: Sequence[str]) -> frozenset[str] | None:
+    """The entry points a run needs, or None for all (nothing named, the environment
+    chooses, or a name that is no entry point: the full registry then says what is known)."""
+    if not named or os.environ.get("CLAUSEWISE_EDITIONS", "").strip():
+        return None
+    from importlib.metadata import entry_points
+
+    from clausewise.annexfile import annex_heading
+    from clausewise.provisions.registry import GROUP
+
+    heads = [annex_heading(path) for path in annexes]
+    annex_ids = {edition_id for edition_id, _ in heads}
+    wanted = {n for n in named if n not in annex_ids} | {base for _, base in heads if base}
+    available = {ep.name for ep in entry_points(group=GROUP)}
+    return frozenset(wanted) if wanted <= available else None
+
+
+def _named(args: argparse.Namespace, schedule: Schedule | None = None) -> list[str]:
+    """The editions a command names (--edition, --parameters, the file's run.editions and
+    required editions); empty when it uses every installed one."""
+    asked = getattr(args, "edition", None) or getattr(args, "parameters", None) or []
+    named = [asked] if isinstance(asked, str) else list(asked)
+    if schedule is not None:
+        if not named and args.command in ("check", "batch"):
+            named = list(schedule.project.editions)
+        if named:
+            named += [re.split(r"[\s<>=!~]", r.strip(), maxsplit=1)[0]
+                      for r in schedule.project.required]
+    return named
 
 
 def _require(registry: Registry, requirements: Sequence[str]) -> None:
@@ -222,8 +261,10 @@ def _load(args: argparse.Namespace) -> tuple[Schedule, Registry, str | None, str
 
     _guard_inputs(args)
     schedule = load_schedule(args.file)
+    for warning in schedule.warnings:
+        print(f"{PROGRAM}: warning: {warning}", file=sys.stderr)
     _guard_inputs(args, *schedule.project.annexes)
-    registry = _registry([*args.annex, *schedule.project.annexes])
+    registry = _registry([*args.annex, *schedule.project.annexes], _named(args, schedule))
     _require(registry, schedule.project.required)
     form = args.form or schedule.project.form or "auto"
     situation = args.situation or schedule.project.situation or "persistent"
@@ -356,7 +397,7 @@ def editions_command(args: argparse.Namespace) -> int:
 
     kind = _chosen_format(args)
     _guard_inputs(args)
-    registry = _registry(args.annex)
+    registry = _registry(args.annex, _named(args))
     if args.parameters:
         edition = registry.edition(args.parameters)
         form = args.form or edition.forms[0]
