@@ -80,7 +80,8 @@ def _range(name: str) -> dict[str, Any]:
 
 # strict: text or a number (an integer is taken as a float), no bool
 RawQuantity = Annotated[str, StringConstraints(max_length=QUANTITY_LENGTH)] | float
-_UNION_TAGS = frozenset({"str", "float"})  # pydantic names union members in error locations
+# pydantic names union members in error locations
+_UNION_TAGS = frozenset({"str", "constrained-str", "float"})
 Length = Annotated[RawQuantity,
                    _quantity_schema(["300 mm", "12 in", "8.4 m"]),
                    _Expect(LENGTH.expected)]
