@@ -11,6 +11,7 @@ that passes on a number that does not exist.
 from __future__ import annotations
 
 import copy
+import io
 import math
 import random
 import tomllib
@@ -20,8 +21,9 @@ from typing import Any
 
 import pytest
 import tomli_w
+from rich.console import Console
 
-from clausewise import results
+from clausewise import report, results
 from clausewise.beamfile import InputError, parse_schedule
 from clausewise.provisions import default_registry
 from clausewise.provisions.verdicts import PASS
@@ -137,6 +139,9 @@ def test_hostile_beam_files_never_crash_and_never_pass_on_a_non_finite_number():
             results.to_json(doc)  # allow_nan=False: a NaN that leaks in raises here
             results.to_toml(doc)
             results.to_csv(doc)
+            if number % 10 == 0:  # the report for people too, on a sample (rich is slower)
+                Console(file=io.StringIO(), width=110).print(
+                    report.check_report(schedule, outcomes))
             for outcome, rec in zip(outcomes, doc["results"], strict=True):
                 if outcome.status != PASS:
                     continue
