@@ -69,7 +69,10 @@ def _values(value: Any) -> np.ndarray:
         return np.array([np.inf])
 
 
-def _shown(values: np.ndarray, bad: np.ndarray) -> str:
+def _shown(values: np.ndarray, bad: np.ndarray, raw: Any = 0.0) -> str:
+    """The first bad value as written; a non-number as itself (None, a word)."""
+    if raw is None or isinstance(raw, str | bool):
+        return repr(raw)
     return repr(float(values[bad][0])) if values.size else "no value"
 
 
@@ -101,7 +104,7 @@ def _factor_problem(factor: Factor, allow_nan: bool) -> str:
         return ""
     if not bad.any():
         return ""
-    return f"{symbol} = {_shown(values, bad)}, expected {expected}"
+    return f"{symbol} = {_shown(values, bad, factor.value)}, expected {expected}"
 
 
 def _factors_problems(factors: Iterable[Any], allow_nan: bool = False) -> list[str]:
@@ -141,7 +144,8 @@ def _resistance(answer: Resistance) -> list[str]:
     values = _values(factor.value)
     bad = _within(values, lambda v: (v > 0) & (v <= 1), allow_nan=True)
     if bad.any():
-        return [f"{factor.symbol} = {_shown(values, bad)}, expected a resistance factor in "
+        return [f"{factor.symbol} = {_shown(values, bad, factor.value)}, expected a "
+                "resistance factor in "
                 "(0, 1]"]
     return []
 
@@ -150,7 +154,8 @@ def _width(answer: Envelope) -> list[str]:
     values = _values(answer.value)
     bad = _within(values, lambda v: np.isfinite(v) & (v > 0))
     if bad.any():
-        return [f"effective width {_shown(values, bad)} mm, expected a positive finite width"]
+        return [f"effective width {_shown(values, bad, answer.value)} mm, expected a positive "
+                "finite width"]
     return []
 
 
@@ -158,8 +163,8 @@ def _demand(answer: Envelope) -> list[str]:
     values = _values(answer.value)
     bad = _within(values, lambda v: np.isfinite(v) & (v >= 0))
     if bad.any():
-        return [f"factored moment {_shown(values, bad)} N·mm, expected a finite moment of "
-                "zero or more in the beam's bending sense"]
+        return [f"factored moment {_shown(values, bad, answer.value)} N·mm, expected a finite "
+                "moment of zero or more in the beam's bending sense"]
     return []
 
 
