@@ -1,9 +1,11 @@
 """The ``clausewise`` command: list editions, check, compare and explain beams of a file.
 
 Output: a report for people by default (colour only on a terminal); ``--format
-json|toml|csv`` for programs. Without ``--format``, an ``--out`` name ending in
-.json, .toml or .csv picks that format, and a report goes to .txt, .svg or .html.
-Files are written whole or not at all.
+json|toml|csv`` for programs. An ``--out`` name's extension decides the format
+(.json, .toml, .csv; a report as .txt, .svg or .html; batch rows as .csv or .jsonl):
+an unknown extension, or a ``--format`` that contradicts it, is refused, and so is an
+``--out`` that is one of the run's input files (clausewise.outputs). Files are written
+whole or not at all, each confirmed by one line on stderr.
 
 Exit status: 0 every check passes; 1 a check fails, or a beam is outside an
 edition's scope or has no equilibrium; 2 bad input or usage, which includes any
@@ -69,9 +71,9 @@ def _output_options(parser: argparse.ArgumentParser) -> None:
                         help="rich: a report for people (the default); json, toml, csv: "
                              "results for programs")
     parser.add_argument("--out", type=Path, metavar="PATH",
-                        help="write to this file instead of the screen; without --format "
-                             "its extension picks the format: .json, .toml, .csv, or a "
-                             "report as .txt, .svg, .html")
+                        help="write to this file instead of the screen; its extension "
+                             "decides the format: .json, .toml, .csv, or a report as .txt, "
+                             ".svg, .html")
 
 
 def _run_options(parser: argparse.ArgumentParser) -> None:
@@ -163,8 +165,8 @@ def build_parser() -> argparse.ArgumentParser:
     batch.add_argument("--annex", type=Path, action="append", default=[], metavar="FILE",
                        help="load a parameter file as an extra edition (repeatable)")
     batch.add_argument("--out", type=Path, metavar="PATH",
-                       help="the rows: .csv (default) or .jsonl; without it only the summary "
-                            "is shown")
+                       help="the rows: .csv or .jsonl, written as NAME.partial.csv until the "
+                            "run completes; without it only the summary is shown")
     batch.set_defaults(handler=batch_command)
 
     schema = commands.add_parser("schema", help="JSON Schema of the beam file (for editors)")

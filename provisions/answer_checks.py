@@ -10,7 +10,7 @@ element must make sense.
 The ranges are the trade's, wide enough for every published edition:
 
 - a member (resistance) factor φ lies in (0, 1]; NaN is allowed only as "no value"
-  (a factor that depends on the strain of a section without equilibrium);
+  for a section without equilibrium (a factor that depends on its strain);
 - a partial factor on a material (γc, γs, γm, ...) is at least 1;
 - a stress-block factor (α1, α2, β1, λ, η, αcc, AS 3600's γ) lies in (0, 1];
 - an ultimate concrete strain lies in [ULTIMATE_STRAIN] (0.002 to 0.01: published
@@ -139,10 +139,14 @@ def _steel(answer: MaterialModel) -> list[str]:
     return _factors_problems(answer.factors)
 
 
-def _resistance(answer: Resistance) -> list[str]:
+def _resistance(answer: Resistance, response: Any = None) -> list[str]:
     factor = answer.factor
     values = _values(factor.value)
     bad = _within(values, lambda v: (v > 0) & (v <= 1), allow_nan=True)
+    if response is not None and not bad.any():  # NaN only where there is no equilibrium
+        equilibrium = np.asarray(getattr(response, "equilibrium", False), bool).ravel()
+        values, equilibrium = np.broadcast_arrays(values, equilibrium)
+        bad = np.isnan(values) & equilibrium
     if bad.any():
         return [f"{factor.symbol} = {_shown(values, bad, factor.value)}, expected a "
                 "resistance factor in "
@@ -171,13 +175,17 @@ def _demand(answer: Envelope) -> list[str]:
 _CHECKS: dict[str, Callable[[Any], list[str]]] = {
     "concrete_law": _concrete,
     "steel_law": _steel,
-    "resistance_factor": _resistance,
     "effective_flange_width": _width,
     "design_actions": _demand,
 }
 
 
-def answer_problems(hook: str, value: Any) -> list[str]:
-    """What is wrong with a typed answer of ``hook`` ([] when it makes sense)."""
+def answer_problems(hook: str, value: Any, response: Any = None) -> list[str]:
+    """What is wrong with a typed answer of ``hook`` ([] when it makes sense);
+    ``response`` is the section's response a resistance factor was asked for."""
+    if value is None:
+        return []
+    if hook == "resistance_factor":
+        return _resistance(value, response)
     check = _CHECKS.get(hook)
-    return [] if check is None or value is None else check(value)
+    return [] if check is None else check(value)

@@ -195,7 +195,7 @@ class Registry:
 
 
 def _returned(edition: Edition, hook: str, value: Any, expected: type | tuple[type, ...],
-              allow_none: bool = False) -> Any:
+              allow_none: bool = False, response: Any = None) -> Any:
     if value is None and allow_none:
         return None
     if not isinstance(value, expected):
@@ -203,15 +203,15 @@ def _returned(edition: Edition, hook: str, value: Any, expected: type | tuple[ty
             t.__name__ for t in expected)
         raise PluginError(f"edition {edition.id!r}: hook {hook} returned "
                           f"{type(value).__name__}, expected {names}")
-    _sense_checked(edition, hook, value)
+    _sense_checked(edition, hook, value, response)
     return value
 
 
-def _sense_checked(edition: Edition, hook: str, value: Any) -> None:
+def _sense_checked(edition: Edition, hook: str, value: Any, response: Any) -> None:
     """Values, not only types (issue 13): see :mod:`clausewise.provisions.answer_checks`."""
     from clausewise.provisions.answer_checks import AnswerError, answer_problems
 
-    problems = answer_problems(hook, value)
+    problems = answer_problems(hook, value, response)
     if problems:
         raise AnswerError(edition.id, (edition.implementers(hook) or ["?"])[0], hook, problems)
 
@@ -302,7 +302,7 @@ class Edition:
                           context: Context) -> Resistance:
         return _returned(self, "resistance_factor", self._call(
             "resistance_factor", beam=beam, response=response, params=params,
-            context=context), Resistance)
+            context=context), Resistance, response=response)
 
     def design_actions(self, beam: Beam, params: Parameters,
                        context: Context) -> Envelope | None:

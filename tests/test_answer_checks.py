@@ -142,6 +142,13 @@ def test_a_senseless_answer_is_an_error_naming_plugin_hook_and_value(hook, answe
     assert isinstance(caught.value, PluginError)
 
 
+def test_a_nan_member_factor_for_a_section_in_equilibrium_is_refused():
+    # without moments only the detailing checks remain: a NaN M_Rd passed them before
+    plugin = answering("resistance_factor", phi(math.nan))
+    with pytest.raises(AnswerError, match="φ = nan"):
+        assess(beam(actions=Actions()), plugin.edition_info().id, registry=layered(plugin))
+
+
 def test_the_other_editions_go_on():
     plugin = answering("resistance_factor", phi(5.0))
     registry = layered(plugin)

@@ -18,6 +18,7 @@ from clausewise.cli import main
 from clausewise.outputs import FORMATS, OutputError, format_for, partial_name
 from clausewise.provisions import (
     EditionInfo,
+    ElasticPlastic,
     Factor,
     Regime,
     Registry,
@@ -25,6 +26,7 @@ from clausewise.provisions import (
     hookimpl,
 )
 from clausewise.provisions import registry as registry_module
+from clausewise.provisions.answers import MaterialModel
 
 ROOT = Path(__file__).resolve().parents[1]
 DEMO = ROOT / "fixtures" / "demo" / "quellmoor-library.toml"
@@ -183,14 +185,18 @@ def test_a_batch_that_fails_keeps_the_old_file(beams, tmp_path, capsys, monkeypa
 # --- writers take every status and non-finite values -----------------------------------------
 
 class NanFactor:
-    """An edition whose member factor is NaN (as a strain-dependent φ is for a section
-    without equilibrium)."""
+    """An edition whose bars break at a strain of 0.0001, so no section reaches
+    equilibrium, and whose member factor is then NaN (as a strain-dependent φ is)."""
 
     info = EditionInfo("nan-factor", "a NaN member factor", 2025, extends="aci318-19")
 
     @hookimpl
     def edition_info(self):
         return self.info
+
+    @hookimpl
+    def steel_law(self, beam):
+        return MaterialModel(ElasticPlastic(200_000.0, beam.yield_strength, 0.0001), ())
 
     @hookimpl
     def resistance_factor(self):
@@ -211,7 +217,8 @@ def test_every_writer_takes_a_nan_factor_and_an_error(tmp_path):
     rows = list(csv.DictReader(text.splitlines()[1:]))
     nan_rows = [r for r in rows if r["edition"] == "nan-factor"]
     assert nan_rows and all(r["resistance_factor"] == "φ = no value" for r in nan_rows)
-    assert all(r["status"] != "pass" for r in nan_rows)  # M_Rd = NaN never passes
+    assert {r["status"] for r in nan_rows} == {"no equilibrium"}
+    assert all(r["M_Rd_kNm"] == "" for r in nan_rows)
     assert rows[-1]["status"] == "error" and "it broke" in rows[-1]["summary"]
     assert json.loads(results.to_json(doc))["results"][0]["resistance"]["factor"]["value"] \
         is None
