@@ -28,6 +28,7 @@ _NUMBER_FIRST = r"^\s*[+-]?\.?\d"
 QUANTITY_LENGTH = 100  # characters of one quantity's text; more is not a quantity
 SHORT_TEXT = 200  # characters of a title, a name, an id
 LONG_TEXT = 5_000  # characters of the project notes
+PATH_TEXT = 1_000  # characters of a file path
 
 KN_M = 1e6  # N·mm per kN·m
 
@@ -102,6 +103,8 @@ Text = Annotated[str, StringConstraints(max_length=SHORT_TEXT),
                  _Expect(f"text in quotes, at most {SHORT_TEXT} characters")]
 LongText = Annotated[str, StringConstraints(max_length=LONG_TEXT),
                      _Expect(f"text in quotes, at most {LONG_TEXT} characters")]
+PathText = Annotated[str, StringConstraints(max_length=PATH_TEXT),
+                     _Expect(f"a file path in quotes, at most {PATH_TEXT} characters")]
 Id = Annotated[str, StringConstraints(strip_whitespace=True, min_length=1, max_length=SHORT_TEXT,
                                       strict=True),
                _Expect(f"a text id such as 'B1', unique in the file, at most {SHORT_TEXT} "
@@ -109,10 +112,11 @@ Id = Annotated[str, StringConstraints(strip_whitespace=True, min_length=1, max_l
 _OPERATOR = r"(~=|===|==|!=|<=|>=|<|>)"
 _VERSION = r"[^\s,<>=!~]+"
 EditionId = Annotated[str, StringConstraints(strip_whitespace=True, strict=True,
+                                             max_length=SHORT_TEXT,
                                              pattern=r"^[^\s<>=!~,]+$"),
                       _Expect("an edition id such as 'aci318-19'")]
 Requirement = Annotated[str, StringConstraints(
-    strip_whitespace=True, strict=True,
+    strip_whitespace=True, strict=True, max_length=SHORT_TEXT,
     pattern=rf"^[^\s<>=!~,]+\s*({_OPERATOR}\s*{_VERSION}(\s*,\s*{_OPERATOR}\s*{_VERSION})*)?$"),
     _Expect("an edition id with an optional version specifier, e.g. 'aci318-19>=0.1'")]
 
@@ -271,7 +275,7 @@ class RunModel(_Model):
     require: list[Requirement] = Field(
         default_factory=list, description="editions that must be installed, with version "
         "specifiers")
-    annexes: list[Text] = Field(
+    annexes: list[PathText] = Field(
         default_factory=list, description="annex parameter files, relative to this file")
 
 
