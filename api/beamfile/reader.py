@@ -119,17 +119,18 @@ class _BeamReader:
             area = self._layer_area(layer, field)
             depth = self._layer_depth(layer, field, h, tension, symbol, face)
             if area is not None and depth is not None and h is not None and self._placed(
-                    field, "depth" if layer.depth is not None else "centroid_from_face",
-                    _bars_of(layer, self.system), depth, h, tension):
+                    field, layer, depth, h, tension):
                 read.append((area[0], depth[0], f"{area[1]} {depth[1]}"))
         return read
 
-    def _placed(self, field: str, which: str, bars: Bars | None, depth: tuple[float, str],
+    def _placed(self, field: str, layer: LayerModel, depth: tuple[float, str],
                 h: tuple[float, str], tension: bool) -> bool:
         """Whether a layer can be built where it is given: its bars inside the section and
         side by side within the width at their depth, tension steel beyond mid-depth."""
         d, text = depth
-        given = self.given_text(which, field)
+        which = "depth" if layer.depth is not None else "centroid_from_face"
+        given = _text(getattr(layer, which))
+        bars = _bars_of(layer, self.system)
         ok = True
         if tension and d < h[0] / 2:
             face = "soffit" if self.model.bending == "hogging" else "top"
@@ -160,11 +161,6 @@ class _BeamReader:
             ok = False
         return ok
 
-    def given_text(self, which: str, field: str) -> str:
-        index = int(field.rpartition("[")[2].rstrip("]")) - 1
-        layers = self.model.tension if field.startswith("tension") else self.model.compression
-        return _text(getattr(layers[index], which))
-
     def width_at(self, depth: float, h: float) -> tuple[float, str] | None:
         """The section's width at a depth from the compression face, and its name; None in a
         flange whose width is left to the rules."""
@@ -173,8 +169,8 @@ class _BeamReader:
             return None
         m = self.model
         if m.shape != "rectangular" and hf is not None:
-            flange_on_top = (m.shape == "inverted T") == (m.bending == "hogging")
-            in_flange = depth <= hf[0] if flange_on_top else depth >= h - hf[0]
+            at_compression_face = (m.shape == "inverted T") == (m.bending == "hogging")
+            in_flange = depth <= hf[0] if at_compression_face else depth >= h - hf[0]
             if in_flange:
                 return None if bf is None else (bf[0], f"flange width ({bf[1]})")
         return bw[0], f"web width ({bw[1]})"
