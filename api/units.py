@@ -209,13 +209,16 @@ def _signed(internal: float, shown: str, kind: Kind, sign: str) -> tuple[float, 
     return internal, shown
 
 
+@lru_cache(maxsize=4096)
+def _names_unit(value: str) -> bool:
+    match = _SPLIT.match(value)
+    return match is None or bool(match.group(2))
+
+
 def has_unit(value: Any) -> bool:
     """Whether a value from a file names its unit ("300 mm"), rather than taking the unit
     system's default (300, "300")."""
-    if not isinstance(value, str):
-        return False
-    match = _SPLIT.match(value)
-    return match is None or bool(match.group(2))
+    return isinstance(value, str) and _names_unit(value)
 
 
 def to_internal(value: Any, kind: Kind, system: UnitSystem = UnitSystem.SI,

@@ -77,7 +77,7 @@ class _BeamReader:
         except QuantityError as exc:
             self.problem(field, exc.value, exc.expected)
             return None
-        if not has_unit(value):
+        if not (isinstance(value, str) and has_unit(value)):  # a plain number, or "300"
             self.defaulted.append(field)
         if label:
             self.shown[label] = text
