@@ -207,6 +207,14 @@ def _returned(edition: Edition, hook: str, value: Any, expected: type | tuple[ty
     return value
 
 
+def _quiet_floats() -> Any:
+    """A plugin's floating-point trouble (x/0) never reaches the user as a numpy warning:
+    the inf or NaN it makes is in the answer, which the sense checks then judge."""
+    import numpy as np
+
+    return np.errstate(all="ignore")
+
+
 def _sense_checked(edition: Edition, hook: str, value: Any, response: Any) -> None:
     """Values, not only types (issue 13): see :mod:`clausewise.provisions.answer_checks`."""
     from clausewise.provisions.answer_checks import AnswerError, answer_problems
@@ -260,7 +268,8 @@ class Edition:
 
     def _call(self, hook: str, **kwargs: Any) -> Any:
         try:
-            return getattr(self._pm.hook, hook)(**kwargs)
+            with _quiet_floats():
+                return getattr(self._pm.hook, hook)(**kwargs)
         except ClausewiseError:
             raise
         except Exception as exc:

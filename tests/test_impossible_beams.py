@@ -214,3 +214,18 @@ def test_an_impossible_beam_is_refused_and_the_others_are_checked(tmp_path, caps
     assert main(["check", str(path), "--edition", "aci318-19", "--format", "json"]) == 2
     out = capsys.readouterr().out
     assert '"beam": "X1"' in out and "607.5 mm" in out
+
+
+def test_a_plugins_division_by_zero_is_no_warning_and_its_answer_is_judged():
+    # εty = fy/Es = 500/100 000 = 0.005 equals ACI 318-14's tension-controlled limit
+    # (21.2.2, from memory): the transition is empty, and a section with εt above 0.005 is
+    # tension-controlled, φ = 0.90 (Table 21.2.2, from memory)
+    text = rectangle(bars="2 x 16 mm").replace('yield_strength = "500 MPa"',
+                                              'yield_strength = "500 MPa"\n'
+                                              'steel_modulus = "100000 MPa"')
+    beam = parse_schedule(text, "plan.toml").entries[0].beam
+    with warnings.catch_warnings():
+        warnings.simplefilter("error")
+        a = assess(beam, "aci318-14")
+    assert a.response.net_tensile_strain > 0.005
+    assert a.resistance.factor.value == pytest.approx(0.90)
