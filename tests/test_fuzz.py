@@ -19,7 +19,6 @@ import warnings
 from pathlib import Path
 from typing import Any
 
-import pytest
 import tomli_w
 from rich.console import Console
 
@@ -30,7 +29,7 @@ from clausewise.provisions.verdicts import PASS
 
 DEMO = Path(__file__).resolve().parents[1] / "fixtures" / "demo" / "quellmoor-library.toml"
 MUTANTS = 600
-SEED = 20261201
+SEED = 16  # among the seeds tried, one that also reaches a plugin dividing by zero
 
 NASTY: tuple[Any, ...] = (
     0, -1, 1e-324, 5e-324, 1e-300, 1e308, -1e308, 1.7976931348623157e308, 1e12, 3.0, 0.5,
@@ -39,7 +38,8 @@ NASTY: tuple[Any, ...] = (
     "9e999", "", " ", "x" * 300, "\x00", "300", "1e3 m", "2,5 m", "600 mm", "595 mm",
     "0.001 mm", "100 m", "1e6 kN m", "-5 kN m", "1e30 kN m", "5000 psi", "60 ksi", "12 in",
     True, [], {}, ["4 x 25 mm"], {"bars": "4 x 25 mm"}, "hogging", "sagging", "T", "L",
-    "rectangular", "inverted T", "cube", "cantilever", "US", "SI",
+    "rectangular", "inverted T", "cube", "cantilever", "US", "SI", "100000 MPa", "300000 MPa",
+    "1000 MPa", "150 MPa", "5 MPa", "150000 psi", "50 mm", "5000 mm", "4000 mm", "40 mm",
 )
 FIELDS = (
     "web_width", "overall_depth", "slab_thickness", "effective_flange_width",
@@ -119,13 +119,14 @@ def _finite_numbers(value: Any) -> bool:
     return not isinstance(value, float) or math.isfinite(value)
 
 
-@pytest.mark.filterwarnings("error")
 def test_hostile_beam_files_never_crash_and_never_pass_on_a_non_finite_number():
     editions = default_registry().editions()
     assert len(_mutants()) >= 300
     outcomes_seen, refused = 0, 0
-    with warnings.catch_warnings():
-        warnings.simplefilter("error")  # a numpy warning must never reach the user
+    # a numpy warning must never reach the user: recorded (as errors they would be caught
+    # inside a hook and hidden as an edition error)
+    with warnings.catch_warnings(record=True) as caught:
+        warnings.simplefilter("always")
         for number, text in enumerate(_mutants()):
             try:
                 schedule = parse_schedule(text, f"mutant-{number}.toml")
@@ -152,5 +153,6 @@ def test_hostile_beam_files_never_crash_and_never_pass_on_a_non_finite_number():
                 numbers += [c.utilisation for c in a.checks]
                 assert all(math.isfinite(float(v)) for v in numbers), (number, text)
                 assert _finite_numbers(rec), (number, text)
+    assert [str(w.message) for w in caught] == []
     # the mutator must exercise both paths: refused input and assessed beams
     assert MUTANTS // 4 < refused < MUTANTS - MUTANTS // 10 and outcomes_seen > MUTANTS
