@@ -23,6 +23,7 @@ from __future__ import annotations
 
 import re
 from collections.abc import Callable, Iterable
+from functools import lru_cache
 from typing import Any
 
 import numpy as np
@@ -84,31 +85,36 @@ def _within(values: np.ndarray, ok: Callable[[np.ndarray], np.ndarray],
     return ~good
 
 
-def _factor_problem(factor: Factor, allow_nan: bool) -> str:
-    values = _values(factor.value)
-    symbol = factor.symbol
-    if _MEMBER.match(symbol):
-        bad = _within(values, lambda v: (v > 0) & (v <= 1), allow_nan)
-        expected = "a member factor in (0, 1]"
-    elif _PARTIAL.match(symbol):
-        bad = _within(values, lambda v: np.isfinite(v) & (v >= 1))
-        expected = "a partial factor of at least 1"
-    elif _BLOCK.match(symbol):
-        bad = _within(values, lambda v: (v > 0) & (v <= 1))
-        expected = "a stress-block factor in (0, 1]"
-    elif _ULTIMATE.match(symbol):
-        low, high = ULTIMATE_STRAIN
-        bad = _within(values, lambda v: (v >= low) & (v <= high))
-        expected = f"an ultimate strain from {low:g} to {high:g}"
-    else:
+_Rule = tuple[Callable[[np.ndarray], np.ndarray], str]
+_FACTOR_RULES: tuple[tuple[re.Pattern[str], _Rule], ...] = (
+    (_MEMBER, (lambda v: (v > 0) & (v <= 1), "a member factor in (0, 1]")),
+    (_PARTIAL, (lambda v: np.isfinite(v) & (v >= 1), "a partial factor of at least 1")),
+    (_BLOCK, (lambda v: (v > 0) & (v <= 1), "a stress-block factor in (0, 1]")),
+    (_ULTIMATE, (lambda v: (v >= ULTIMATE_STRAIN[0]) & (v <= ULTIMATE_STRAIN[1]),
+                 f"an ultimate strain from {ULTIMATE_STRAIN[0]:g} to {ULTIMATE_STRAIN[1]:g}")),
+)
+
+
+@lru_cache(maxsize=256)
+def _rule_for(symbol: str) -> _Rule | None:
+    """The range a factor's symbol puts it in, or None for a symbol with no fixed range."""
+    return next((rule for pattern, rule in _FACTOR_RULES if pattern.match(symbol)), None)
+
+
+def _factor_problem(factor: Factor) -> str:
+    rule = _rule_for(factor.symbol)
+    if rule is None:
         return ""
+    ok, expected = rule
+    values = _values(factor.value)
+    bad = _within(values, ok)
     if not bad.any():
         return ""
-    return f"{symbol} = {_shown(values, bad, factor.value)}, expected {expected}"
+    return f"{factor.symbol} = {_shown(values, bad, factor.value)}, expected {expected}"
 
 
-def _factors_problems(factors: Iterable[Any], allow_nan: bool = False) -> list[str]:
-    return [p for f in factors if isinstance(f, Factor) and (p := _factor_problem(f, allow_nan))]
+def _factors_problems(factors: Iterable[Any]) -> list[str]:
+    return [p for f in factors if isinstance(f, Factor) and (p := _factor_problem(f))]
 
 
 def _concrete(answer: MaterialModel) -> list[str]:
