@@ -108,11 +108,28 @@ def load_annex(path: Path | str, registry: Registry | None = None) -> PluginReco
     return record
 
 
+def annex_heading(path: Path | str) -> tuple[str, str | None]:
+    """A parameter file's own id and the edition it extends, read without registering it
+    (so a run can load just that base); ("", None) when the file cannot say."""
+    try:
+        head = _read(Path(path)).get("annex")
+    except AnnexError:
+        return "", None
+    if not isinstance(head, dict):
+        return "", None
+    edition_id, base = head.get("id"), head.get("extends")
+    return (edition_id if isinstance(edition_id, str) else "",
+            base if isinstance(base, str) else None)
+
+
 def _read(path: Path) -> dict[str, Any]:
     try:
         text = path.read_text(encoding="utf-8")
     except OSError as exc:
         raise AnnexError(path, [f"cannot be read: {exc.strerror or exc}"]) from exc
+    except UnicodeDecodeError as exc:
+        raise AnnexError(path, [f"is not UTF-8 text (bad byte at position {exc.start}); a "
+                                "parameter file is TOML text"]) from exc
     try:
         document = tomllib.loads(text)
     except tomllib.TOMLDecodeError as exc:

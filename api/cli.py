@@ -1,10 +1,12 @@
 """The ``clausewise`` command: list editions, check, compare and explain beams of a file.
 
 Output: a text report for people by default (colour only on a terminal); ``--format
-html`` a printable calculation sheet (``.pdf`` printed from it by headless Chromium);
-``--format json|toml|csv`` for programs. Without ``--format``, an ``--out`` name ending
-in .json, .toml, .csv, .html or .pdf picks that format, and a report goes to .txt.
-Files are written whole or not at all.
+html`` a printable calculation sheet (``pdf`` printed from it by headless Chromium);
+``--format json|toml|csv`` for programs. An ``--out`` name's extension decides the format
+(.txt, .html, .pdf, .json, .toml, .csv; batch rows as .csv or .jsonl): an unknown
+extension, or a ``--format`` that contradicts it, is refused, and so is an ``--out`` that
+is one of the run's input files (clausewise.outputs). Files are written whole or not at
+all, each confirmed by one line on stderr.
 
 Exit status: 0 every check passes (a beam without actions reports "capacity only",
 which is not a failure); 1 a check fails, or a beam is outside an edition's scope or
@@ -20,6 +22,7 @@ from __future__ import annotations
 
 import argparse
 import io
+import os
 import re
 import sys
 import textwrap
@@ -38,10 +41,8 @@ if TYPE_CHECKING:
 
 PROGRAM = "clausewise"
 FORMATS = ("text", "html", "pdf", "json", "toml", "csv")
-BY_SUFFIX = {".json": "json", ".toml": "toml", ".csv": "csv", ".html": "html", ".htm": "html",
-             ".pdf": "pdf", ".txt": "text"}
 REPORT_WIDTH = 110  # columns of a report that does not go to a terminal
-BATCH_FROM = 2_000  # beam-editions beyond which check takes the batch path (rich or CSV)
+BATCH_FROM = 2_000  # beam-editions beyond which check takes the batch path (text or CSV)
 
 EXIT_STATUS = """exit status:
   0  every check passes (beams without actions report "capacity only")
@@ -73,9 +74,8 @@ def _output_options(parser: argparse.ArgumentParser) -> None:
                              "calculation sheet; pdf: that sheet printed (needs --out and "
                              "Chromium); json, toml, csv: results for programs")
     parser.add_argument("--out", type=Path, metavar="PATH",
-                        help="write to this file instead of the screen; without --format "
-                             "its extension picks the format: .json, .toml, .csv, .html, "
-                             ".pdf, or a text report as .txt")
+                        help="write to this file instead of the screen; its extension "
+                             "decides the format: .txt, .html, .pdf, .json, .toml, .csv")
     parser.add_argument("--paper", choices=("A4", "Letter"), default="A4",
                         help="page size of a PDF sheet (default A4); an HTML sheet prints "
                              "on either")
@@ -194,8 +194,8 @@ def build_parser() -> argparse.ArgumentParser:
     batch.add_argument("--annex", type=Path, action="append", default=[], metavar="FILE",
                        help="load a parameter file as an extra edition (repeatable)")
     batch.add_argument("--out", type=Path, metavar="PATH",
-                       help="the rows: .csv (default) or .jsonl; without it only the summary "
-                            "is shown")
+                       help="the rows: .csv or .jsonl, written as NAME.partial.csv until the "
+                            "run completes; without it only the summary is shown")
     batch.set_defaults(handler=batch_command)
 
     schema = commands.add_parser("schema", help="JSON Schema of the beam file (for editors)")
@@ -208,19 +208,57 @@ def build_parser() -> argparse.ArgumentParser:
 
 # --- shared steps -----------------------------------------------------------------------------
 
-def _registry(annexes: Sequence[Path]) -> Registry:
+def _registry(annexes: Sequence[Path], named: Sequence[str] = ()) -> Registry:
     """A registry of this run: the installed editions plus the given parameter files,
-    without touching the process-wide one."""
+    without touching the process-wide one. With ``named`` editions (and no
+    CLAUSEWISE_EDITIONS), only those, their bases and the annexes' bases are loaded, so a
+    slow plugin the run does not use costs nothing."""
     from clausewise.provisions.registry import Registry, default_registry
 
-    base = default_registry()
-    registry = Registry(strict=base.strict, only=base.only, records=list(base.records))
+    only = _only(annexes, named)
+    if only is not None:
+        registry = Registry(strict=os.environ.get("CLAUSEWISE_STRICT", "") == "1", only=only)
+        registry.load_entry_points()
+    else:
+        base = default_registry()
+        registry = Registry(strict=base.strict, only=base.only, records=list(base.records))
     if annexes:
         from clausewise.annexfile import load_annex
 
         for path in annexes:
             load_annex(path, registry)
     return registry
+
+
+def _only(annexes: Sequence[Path], named: Sequence[str]) -> frozenset[str] | None:
+    """The entry points a run needs, or None for all (nothing named, the environment
+    chooses, or a name that is no entry point: the full registry then says what is known)."""
+    if not named or os.environ.get("CLAUSEWISE_EDITIONS", "").strip():
+        return None
+    from importlib.metadata import entry_points
+
+    from clausewise.annexfile import annex_heading
+    from clausewise.provisions.registry import GROUP
+
+    heads = [annex_heading(path) for path in annexes]
+    annex_ids = {edition_id for edition_id, _ in heads}
+    wanted = {n for n in named if n not in annex_ids} | {base for _, base in heads if base}
+    available = {ep.name for ep in entry_points(group=GROUP)}
+    return frozenset(wanted) if wanted <= available else None
+
+
+def _named(args: argparse.Namespace, schedule: Schedule | None = None) -> list[str]:
+    """The editions a command names (--edition, --parameters, the file's run.editions and
+    required editions); empty when it uses every installed one."""
+    asked = getattr(args, "edition", None) or getattr(args, "parameters", None) or []
+    named = [asked] if isinstance(asked, str) else list(asked)
+    if schedule is not None:
+        if not named and args.command in ("check", "batch"):
+            named = list(schedule.project.editions)
+        if named:
+            named += [re.split(r"[\s<>=!~]", r.strip(), maxsplit=1)[0]
+                      for r in schedule.project.required]
+    return named
 
 
 def _require(registry: Registry, requirements: Sequence[str]) -> None:
@@ -252,8 +290,12 @@ def _require(registry: Registry, requirements: Sequence[str]) -> None:
 def _load(args: argparse.Namespace) -> tuple[Schedule, Registry, str | None, str]:
     from clausewise.beamfile import load_schedule
 
+    _guard_inputs(args)
     schedule = load_schedule(args.file)
-    registry = _registry([*args.annex, *schedule.project.annexes])
+    for warning in schedule.warnings:
+        print(f"{PROGRAM}: warning: {warning}", file=sys.stderr)
+    _guard_inputs(args, *schedule.project.annexes)
+    registry = _registry([*args.annex, *schedule.project.annexes], _named(args, schedule))
     _require(registry, schedule.project.required)
     form = args.form or schedule.project.form or "auto"
     situation = args.situation or schedule.project.situation or "persistent"
@@ -275,11 +317,20 @@ def exit_status(outcomes: Sequence[Outcome], schedule: Schedule) -> int:
 
 
 def _chosen_format(args: argparse.Namespace) -> str:
-    if args.format:
-        return str(args.format)
-    if args.out is not None:
-        return BY_SUFFIX.get(args.out.suffix.lower(), "text")
-    return "text"
+    """text, html, pdf, json, toml or csv: the extension of --out decides, and a --format
+    that contradicts it is refused."""
+    from clausewise.outputs import format_for
+
+    return format_for(args.out, args.format)
+
+
+def _guard_inputs(args: argparse.Namespace, *more: Path) -> None:
+    """Refuse an --out that is one of the run's input files, before anything is computed."""
+    from clausewise.outputs import refuse_inputs
+
+    refuse_inputs(getattr(args, "out", None),
+                  [p for p in (getattr(args, "file", None), *getattr(args, "annex", ()), *more)
+                   if p is not None])
 
 
 def _emit_text(text: str, out: Path | None) -> None:
@@ -289,6 +340,13 @@ def _emit_text(text: str, out: Path | None) -> None:
         sys.stdout.write(text)
     else:
         write_atomic(out, text)
+        _confirm(out)
+
+
+def _confirm(out: Path) -> None:
+    from clausewise.outputs import confirm
+
+    confirm(out)
 
 
 def _emit_report(renderable: Any, width: int = REPORT_WIDTH, out: Path | None = None) -> None:
@@ -305,6 +363,7 @@ def _emit_report(renderable: Any, width: int = REPORT_WIDTH, out: Path | None = 
     console = Console(file=io.StringIO(), record=True, width=width, highlight=False)
     console.print(renderable)
     write_atomic(out, console.export_text())
+    _confirm(out)
 
 
 def _emit_sheet(page: str, kind: str, out: Path | None) -> None:
@@ -318,6 +377,7 @@ def _emit_sheet(page: str, kind: str, out: Path | None) -> None:
     from clausewise.sheet import print_pdf
 
     write_atomic(out, print_pdf(page))
+    _confirm(out)
 
 
 def _problems_first(schedule: Schedule, args: argparse.Namespace) -> None:
@@ -382,11 +442,12 @@ def _comparison_figures(folder: Path, outcomes: Sequence[Outcome], kind: str) ->
 def editions_command(args: argparse.Namespace) -> int:
     from clausewise import results
 
-    registry = _registry(args.annex)
     kind = _chosen_format(args)
     if kind in ("html", "pdf"):
         raise UsageError(f"--format {kind}: the calculation sheet is made by check, compare "
                          "and explain; editions are listed as text, json, toml or csv")
+    _guard_inputs(args)
+    registry = _registry(args.annex, _named(args))
     if args.parameters:
         edition = registry.edition(args.parameters)
         form = args.form or edition.forms[0]
@@ -465,6 +526,10 @@ def _publish(args: argparse.Namespace, schedule: Schedule, outcomes: Sequence[Ou
 
 
 def batch_command(args: argparse.Namespace) -> int:
+    from clausewise.outputs import format_for
+
+    _guard_inputs(args)
+    format_for(args.out, None, holds=("rows",))
     schedule, registry, form, situation = _load(args)
     editions = _editions(registry, args.edition or list(schedule.project.editions)
                          or registry.ids())
@@ -475,6 +540,7 @@ def _run_batch(schedule: Schedule, editions: Sequence[Edition], form: str | None
                situation: str, out: Path | None) -> int:
     """The batch path: rows streamed to ``out`` (CSV, or JSON Lines for .jsonl), progress
     on a terminal for runs longer than a second, and a summary at the end."""
+    from clausewise.outputs import FORMATS, format_for, rows_file
     from clausewise.stream import LazyProgress, RowWriter, schedule_system, stream_schedule
 
     progress = LazyProgress(sys.stderr.isatty())
@@ -482,8 +548,8 @@ def _run_batch(schedule: Schedule, editions: Sequence[Edition], form: str | None
         if out is None:
             summary = stream_schedule(schedule, editions, form, situation, None, progress)
         else:
-            kind = "jsonl" if out.suffix.lower() in (".jsonl", ".ndjson") else "csv"
-            with out.open("w", encoding="utf-8", newline="") as handle:
+            kind = FORMATS[format_for(out, None, holds=("rows",))].asked_as
+            with rows_file(out) as handle:
                 summary = stream_schedule(schedule, editions, form, situation,
                                           RowWriter(handle, kind, schedule_system(schedule)),
                                           progress)
@@ -504,8 +570,9 @@ def check_command(args: argparse.Namespace) -> int:
     schedule, registry, form, situation = _load(args)
     chosen = args.edition or list(schedule.project.editions)
     editions = _editions(registry, chosen or registry.ids())
+    kind = _chosen_format(args)
     if (len(schedule.entries) * len(editions) > BATCH_FROM and not args.figures
-            and _chosen_format(args) in ("text", "csv")):
+            and (kind == "csv" or (kind == "text" and args.out is None))):
         return _run_batch(schedule, editions, form, situation, args.out)
     _problems_first(schedule, args)
     outcomes = list(run(schedule, editions, form, situation))

@@ -209,6 +209,18 @@ def _signed(internal: float, shown: str, kind: Kind, sign: str) -> tuple[float, 
     return internal, shown
 
 
+@lru_cache(maxsize=4096)
+def _names_unit(value: str) -> bool:
+    match = _SPLIT.match(value)
+    return match is None or bool(match.group(2))
+
+
+def has_unit(value: Any) -> bool:
+    """Whether a value from a file names its unit ("300 mm"), rather than taking the unit
+    system's default (300, "300")."""
+    return isinstance(value, str) and _names_unit(value)
+
+
 def to_internal(value: Any, kind: Kind, system: UnitSystem = UnitSystem.SI,
                 sign: str = "positive") -> float:
     """Like :func:`read_quantity`, without the text to show."""
@@ -256,12 +268,14 @@ BARS_EXPECTED = ("bars such as '4 x 25 mm', '3 #8', '2 N20 + 2 N16', '4 T16' or 
 
 @dataclass(frozen=True)
 class Bars:
-    """A group of bars: total area (mm²), the text to show, the largest diameter (mm)."""
+    """A group of bars: total area (mm²), the text to show, the largest diameter (mm), and
+    the width the bars take side by side, touching (mm: the sum of count times diameter)."""
 
     area: float
     text: str
     largest_diameter: float
     count: int
+    side_by_side: float = 0.0
 
 
 _TERM = re.compile(
@@ -275,7 +289,7 @@ _TERM = re.compile(
 
 @lru_cache(maxsize=4096)
 def _bars(text: str, system: UnitSystem) -> Bars:
-    total, count, largest = 0.0, 0, 0.0
+    total, count, largest, side_by_side = 0.0, 0, 0.0, 0.0
     for term in text.split("+"):
         match = _TERM.match(term)
         if match is None or (match["length"] is not None and match["sep"] is None):
@@ -312,7 +326,8 @@ def _bars(text: str, system: UnitSystem) -> Bars:
         total += n * area
         count += n
         largest = max(largest, diameter)
-    return Bars(total, " ".join(text.split()), largest, count)
+        side_by_side += n * diameter
+    return Bars(total, " ".join(text.split()), largest, count, side_by_side)
 
 
 def read_bars(value: Any, system: UnitSystem = UnitSystem.SI) -> Bars:

@@ -237,6 +237,25 @@ class _Step:
     wrapper: bool
 
 
+def _quiet_floats() -> Any:
+    """A plugin's floating-point trouble (x/0) never reaches the user as a numpy warning:
+    the inf or NaN it makes is in the answer, which the sense checks then judge."""
+    import numpy as np
+
+    return np.errstate(all="ignore")
+
+
+def _sense_checked(edition: Edition, hook: str, value: Any, response: Any,
+                   layers: tuple[str, ...]) -> None:
+    """Values, not only types: see :mod:`clausewise.provisions.answer_checks`; ``layers``
+    answered and wrapped the hook, the last one's answer is the one judged."""
+    from clausewise.provisions.answer_checks import AnswerError, answer_problems
+
+    problems = answer_problems(hook, value, response)
+    if problems:
+        raise AnswerError(edition.id, layers[-1] if layers else "?", hook, problems)
+
+
 @dataclass(frozen=True)
 class Edition:
     """A layered edition: ``layers[0]`` is the base, ``layers[-1]`` the edition itself.
@@ -303,6 +322,7 @@ class Edition:
         if value is None and spec.many:
             value = []
         self._check(spec, "the stack", value)
+        _sense_checked(self, hook, value, kwargs.get("response"), (*answered, *wrapped))
         for trail in _TRAILS.get():
             trail[hook] = TopicAnswer(hook, answered, wrapped)
         return value
@@ -361,7 +381,8 @@ class Edition:
     def _run(self, spec: hookspecs.Hook, step: _Step, args: list[Any],
              call: Callable[..., Any] | None = None) -> Any:
         try:
-            return (call or step.function)(*args)
+            with _quiet_floats():
+                return (call or step.function)(*args)
         except (ClausewiseError, StopIteration):
             raise
         except Exception as exc:

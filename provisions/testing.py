@@ -34,6 +34,7 @@ from typing import Any
 
 import numpy as np
 
+from clausewise.provisions.answer_checks import AnswerError
 from clausewise.provisions.batch import stack_beams
 from clausewise.provisions.beam import (
     Actions,
@@ -299,6 +300,22 @@ def resistance_factor_in_range(sample: Sample) -> list[Finding]:
     return found
 
 
+def answers_make_sense(sample: Sample) -> list[Finding]:
+    """Every answer's value makes physical sense, as the engine checks it on every call
+    (clausewise.provisions.answer_checks): φ in (0, 1], partial factors at least 1,
+    block factors in (0, 1], a plausible ultimate strain, a positive finite effective
+    width and a factored moment not negative in the beam's bending sense."""
+    found, name = [], "answers make sense"
+    for beam in sample.beams:
+        try:
+            evaluate(beam, sample.edition, _context(sample.edition, beam))
+        except AnswerError as exc:
+            found.append(_finding(sample, name, str(exc), beam))
+        except Exception:  # other faults are the other properties' findings
+            continue
+    return found
+
+
 def actual_flange_width(beam: Beam) -> float:
     """The width the slab can give: the given width, else bw plus half the clear
     distance to the next web on each slab side (common practice, no source)."""
@@ -544,6 +561,7 @@ PROPERTIES: tuple[Property, ...] = (
     hook_contract, parameters_declared, resistance_factor_in_range,
     effective_width_within_flange, capacity_grows_with_steel, clauses_complete,
     scope_refuses_extrapolation, unit_system_neutral, batch_matches_single, base_unchanged,
+    answers_make_sense,
 )
 """Every property of the kit, in the order they are reported (parametrize over it)."""
 

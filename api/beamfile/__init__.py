@@ -19,6 +19,13 @@ Conventions a user must know (also in ``fixtures/demo/README.md``):
   ``Shape.TEE`` with ``Bending.HOGGING`` (flange on the tension side); an
   inverted T in hogging has its flange in compression and maps to a T in sagging.
 - ``statically_determinate`` defaults to true for a simple span or a cantilever.
+- Each quantity has a plausible range for a building beam (``models.PLAUSIBLE``, stated
+  in the schema as ``x-plausible-range``); beyond it the value is refused as a slip of
+  the unit. A beam that cannot be built is refused too: bars beyond the section's faces,
+  bars wider side by side than the width at their depth, tension steel nearer the
+  compression face than mid-depth.
+- Plain numbers in a file that declares no unit system are read as SI, with one warning
+  per file (``Schedule.warnings``) naming the fields so read.
 
 Whole-file problems raise :class:`InputError`; a bad beam becomes an
 :class:`InputProblem` and the other beams still load.

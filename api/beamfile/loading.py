@@ -60,6 +60,7 @@ class Schedule:
     project: ProjectInfo
     entries: tuple[BeamEntry, ...]
     problems: tuple[InputProblem, ...]
+    warnings: tuple[str, ...] = ()  # said once per file, e.g. plain numbers read as SI
 
 
 _BEAM_FIELDS = _Fields.of(BeamModel)
@@ -128,6 +129,8 @@ def _schedule(data: dict[str, Any], source: str, base: Path) -> Schedule:
     entries: list[BeamEntry] = []
     problems: list[InputProblem] = []
     first_seen: dict[str, int] = {}
+    declared = isinstance(data.get("project"), dict) and "units" in data["project"]
+    defaulted: dict[str, list[str]] = {}
     for index, raw in enumerate(beams, 1):
         beam_id = _beam_id(raw)
 
@@ -153,6 +156,8 @@ def _schedule(data: dict[str, Any], source: str, base: Path) -> Schedule:
             project.unit_system if project else UnitSystem.SI)
         reader = _BeamReader(model, system)
         beam = reader.read()
+        if not declared and model.units is None and reader.defaulted:
+            defaulted[model.id] = reader.defaulted
         if beam is None:
             report(reader.problems)
         else:
@@ -160,7 +165,22 @@ def _schedule(data: dict[str, Any], source: str, base: Path) -> Schedule:
     if project is None:  # every problem of the file at once: the header's and the beams'
         found = [*header_problems, *problems]
         raise InputError("\n".join(p.message for p in found), tuple(found))
-    return Schedule(Path(source), project, tuple(entries), tuple(problems))
+    return Schedule(Path(source), project, tuple(entries), tuple(problems),
+                    _default_units_warning(source, defaulted))
+
+
+def _default_units_warning(source: str, defaulted: dict[str, list[str]]) -> tuple[str, ...]:
+    """One warning for the file when plain numbers took SI units without the file saying
+    so: ``web_width = 300`` is 300 mm only if the engineer meant SI."""
+    if not defaulted:
+        return ()
+    shown = [f"beam {beam_id}: {', '.join(fields)}" for beam_id, fields in
+             list(defaulted.items())[:5]]
+    more = len(defaulted) - len(shown)
+    return (f"{source}: numbers without a unit were read as SI (mm, mm², MPa, kN m), but the "
+            "file declares no unit system; add [project] units = \"SI\" (or \"US\"), or write "
+            f"the units. Read by default: {'; '.join(shown)}"
+            + (f"; and {more} more beam(s)" if more > 0 else ""),)
 
 
 def _beyond_the_shape(raw: dict[str, Any], exc: ValidationError,

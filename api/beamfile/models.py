@@ -25,17 +25,64 @@ class _Expect:
 
 
 _NUMBER_FIRST = r"^\s*[+-]?\.?\d"
+QUANTITY_LENGTH = 100  # characters of one quantity's text; more is not a quantity
+SHORT_TEXT = 200  # characters of a title, a name, an id
+LONG_TEXT = 5_000  # characters of the project notes
+PATH_TEXT = 1_000  # characters of a file path
+
+KN_M = 1e6  # N·mm per kN·m
+
+
+@dataclass(frozen=True)
+class Plausible:
+    """The range a building beam's quantity plausibly lies in, in internal units (mm, mm²,
+    MPa, N·mm): beyond it the value is a slip of the unit or of the keyboard, and is
+    refused. The editions check their own, narrower scope."""
+
+    low: float
+    high: float
+    unit: str  # the internal unit, for the schema
+
+    def schema(self) -> dict[str, Any]:
+        scale = KN_M if self.unit == "kN m" else 1.0
+        return {"x-plausible-range": {"minimum": self.low / scale, "maximum": self.high / scale,
+                                      "unit": self.unit}}
+
+
+# Common practice for building beams (no standard sets these): wide enough for transfer
+# girders and band beams, narrow enough to catch "300 ly" or a depth of 1e308 mm.
+PLAUSIBLE: dict[str, Plausible] = {
+    "web_width": Plausible(50.0, 4_000.0, "mm"),
+    "overall_depth": Plausible(100.0, 5_000.0, "mm"),
+    "slab_thickness": Plausible(40.0, 2_000.0, "mm"),
+    "effective_flange_width": Plausible(50.0, 20_000.0, "mm"),
+    "span": Plausible(500.0, 60_000.0, "mm"),
+    "clear distance": Plausible(10.0, 60_000.0, "mm"),
+    "steel depth": Plausible(10.0, 5_000.0, "mm"),
+    "steel area": Plausible(10.0, 500_000.0, "mm²"),
+    "concrete_strength": Plausible(5.0, 150.0, "MPa"),
+    "yield_strength": Plausible(150.0, 1_000.0, "MPa"),
+    "steel_modulus": Plausible(100_000.0, 300_000.0, "MPa"),
+    "moment": Plausible(0.0, 100_000.0 * KN_M, "kN m"),
+}
 
 
 def _quantity_schema(examples: list[str]) -> WithJsonSchema:
     return WithJsonSchema({
-        "anyOf": [{"type": "string", "pattern": _NUMBER_FIRST}, {"type": "number"}],
+        "anyOf": [{"type": "string", "pattern": _NUMBER_FIRST, "maxLength": QUANTITY_LENGTH},
+                  {"type": "number"}],
         "examples": examples,
     })
 
 
-RawQuantity = str | float  # strict: text or a number (an integer is taken as a float), no bool
-_UNION_TAGS = frozenset({"str", "float"})  # pydantic names union members in error locations
+def _range(name: str) -> dict[str, Any]:
+    return PLAUSIBLE[name].schema()
+
+
+# strict: text or a number (an integer is taken as a float), no bool
+RawQuantity = Annotated[str, StringConstraints(max_length=QUANTITY_LENGTH)] | float
+# pydantic names union members in error locations
+_UNION_TAGS = frozenset({"str", "constrained-str", "float"})
 Length = Annotated[RawQuantity,
                    _quantity_schema(["300 mm", "12 in", "8.4 m"]),
                    _Expect(LENGTH.expected)]
@@ -47,20 +94,29 @@ Stress = Annotated[RawQuantity,
 Moment = Annotated[RawQuantity,
                    _quantity_schema(["180 kN m", "130 kip ft"]),
                    _Expect(MOMENT.expected)]
-BarText = Annotated[str,
+BarText = Annotated[str, StringConstraints(max_length=QUANTITY_LENGTH),
                     WithJsonSchema({"type": "string", "pattern": _NUMBER_FIRST,
+                                    "maxLength": QUANTITY_LENGTH,
                                     "examples": ["4 x 25 mm", "3 #8", "2 N20 + 2 N16"]}),
-                    _Expect(BARS_EXPECTED)]
-Text = Annotated[str, _Expect("text in quotes")]
-Id = Annotated[str, StringConstraints(strip_whitespace=True, min_length=1, strict=True),
-               _Expect("a text id such as 'B1', unique in the file")]
+                    _Expect(f"{BARS_EXPECTED}, at most {QUANTITY_LENGTH} characters")]
+Text = Annotated[str, StringConstraints(max_length=SHORT_TEXT),
+                 _Expect(f"text in quotes, at most {SHORT_TEXT} characters")]
+LongText = Annotated[str, StringConstraints(max_length=LONG_TEXT),
+                     _Expect(f"text in quotes, at most {LONG_TEXT} characters")]
+PathText = Annotated[str, StringConstraints(max_length=PATH_TEXT),
+                     _Expect(f"a file path in quotes, at most {PATH_TEXT} characters")]
+Id = Annotated[str, StringConstraints(strip_whitespace=True, min_length=1, max_length=SHORT_TEXT,
+                                      strict=True),
+               _Expect(f"a text id such as 'B1', unique in the file, at most {SHORT_TEXT} "
+                       "characters")]
 _OPERATOR = r"(~=|===|==|!=|<=|>=|<|>)"
 _VERSION = r"[^\s,<>=!~]+"
 EditionId = Annotated[str, StringConstraints(strip_whitespace=True, strict=True,
+                                             max_length=SHORT_TEXT,
                                              pattern=r"^[^\s<>=!~,]+$"),
                       _Expect("an edition id such as 'aci318-19'")]
 Requirement = Annotated[str, StringConstraints(
-    strip_whitespace=True, strict=True,
+    strip_whitespace=True, strict=True, max_length=SHORT_TEXT,
     pattern=rf"^[^\s<>=!~,]+\s*({_OPERATOR}\s*{_VERSION}(\s*,\s*{_OPERATOR}\s*{_VERSION})*)?$"),
     _Expect("an edition id with an optional version specifier, e.g. 'aci318-19>=0.1'")]
 
@@ -80,13 +136,15 @@ class LayerModel(_Model):
     bars: BarText | None = Field(
         default=None, description="the bars, e.g. '4 x 25 mm' or '3 #8'")
     area: Area | None = Field(
-        default=None, description="the steel area, where bars are not given")
+        default=None, description="the steel area, where bars are not given",
+        json_schema_extra=_range("steel area"))
     depth: Length | None = Field(
         default=None, description="depth of the layer's centroid from the compression face "
-        "(the top in sagging, the soffit in hogging)")
+        "(the top in sagging, the soffit in hogging)", json_schema_extra=_range("steel depth"))
     centroid_from_face: Length | None = Field(
         default=None, description="distance from the face the layer lies near (the tension "
-        "face for tension steel, the compression face for compression steel) to its centroid")
+        "face for tension steel, the compression face for compression steel) to its centroid",
+        json_schema_extra=_range("steel depth"))
 
 
 class FloorModel(_Model):
@@ -94,22 +152,26 @@ class FloorModel(_Model):
 
     model_config = ConfigDict(title="floor")
 
-    span: Length = Field(description="span, centre to centre of supports")
+    span: Length = Field(description="span, centre to centre of supports",
+                         json_schema_extra=_range("span"))
     continuity: Literal["simple", "end", "interior", "cantilever"] = Field(
         default="simple", description="simple span, end or interior span of a continuous "
         "beam, or cantilever")
     clear_span: Length | None = Field(
-        default=None, description="clear span between support faces")
+        default=None, description="clear span between support faces",
+        json_schema_extra=_range("span"))
     clear_left: Length | None = Field(
         default=None, description="clear distance from this web to the next web on the left; "
-        "leave out for a free edge")
+        "leave out for a free edge", json_schema_extra=_range("clear distance"))
     clear_right: Length | None = Field(
         default=None, description="clear distance to the next web on the right; leave out "
-        "for a free edge")
+        "for a free edge", json_schema_extra=_range("clear distance"))
     zero_moment_length: Length | None = Field(
-        default=None, description="distance between points of zero moment, where known")
+        default=None, description="distance between points of zero moment, where known",
+        json_schema_extra=_range("span"))
     adjacent_span: Length | None = Field(
-        default=None, description="for a section over a support: the span on the other side")
+        default=None, description="for a section over a support: the span on the other side",
+        json_schema_extra=_range("span"))
 
 
 class MomentsModel(_Model):
@@ -117,10 +179,13 @@ class MomentsModel(_Model):
 
     model_config = ConfigDict(title="moments")
 
-    dead: Moment | None = Field(default=None, description="service dead-load moment")
-    live: Moment | None = Field(default=None, description="service live-load moment")
+    dead: Moment | None = Field(default=None, description="service dead-load moment",
+                                json_schema_extra=_range("moment"))
+    live: Moment | None = Field(default=None, description="service live-load moment",
+                                json_schema_extra=_range("moment"))
     factored: Moment | None = Field(
-        default=None, description="a factored design moment, instead of the service moments")
+        default=None, description="a factored design moment, instead of the service moments",
+        json_schema_extra=_range("moment"))
 
 
 class BeamModel(_Model):
@@ -139,22 +204,26 @@ class BeamModel(_Model):
     bending: Literal["sagging", "hogging"] = Field(
         default="sagging", description="sagging: compression at the top; hogging: at the "
         "soffit")
-    web_width: Length = Field(description="web width bw")
-    overall_depth: Length = Field(description="overall depth h of the section")
+    web_width: Length = Field(description="web width bw", json_schema_extra=_range("web_width"))
+    overall_depth: Length = Field(description="overall depth h of the section",
+                                  json_schema_extra=_range("overall_depth"))
     slab_thickness: Length | None = Field(
-        default=None, description="flange (slab) thickness hf")
+        default=None, description="flange (slab) thickness hf",
+        json_schema_extra=_range("slab_thickness"))
     effective_flange_width: Length | None = Field(
         default=None, description="an effective flange width given outright, instead of the "
-        "rules")
+        "rules", json_schema_extra=_range("effective_flange_width"))
     floor: FloorModel | None = Field(default=None, description="the floor layout")
-    concrete_strength: Stress = Field(description="specified concrete strength")
+    concrete_strength: Stress = Field(description="specified concrete strength",
+                                      json_schema_extra=_range("concrete_strength"))
     strength_basis: Literal["cylinder", "cube"] = Field(
         default="cylinder", description="whether the concrete strength is a cylinder or a "
         "cube strength")
-    yield_strength: Stress = Field(description="specified yield strength of the reinforcement")
+    yield_strength: Stress = Field(description="specified yield strength of the reinforcement",
+                                   json_schema_extra=_range("yield_strength"))
     steel_modulus: Stress | None = Field(
         default=None, description="modulus of the reinforcement; leave out for the edition's "
-        "value")
+        "value", json_schema_extra=_range("steel_modulus"))
     steel_kind: Literal["hot-rolled", "cold-worked", "mild"] | None = Field(
         default=None, description="how the bars are made; leave out for the edition's "
         "usual assumption")
@@ -185,7 +254,7 @@ class ProjectModel(_Model):
     building: Text = ""
     town: Text = ""
     engineer: Text = ""
-    notes: Text = ""
+    notes: LongText = ""
     units: Literal["SI", "US"] = Field(
         default="SI", description="unit system for plain numbers: SI (mm, MPa, kN m) or US "
         "(in, psi, kip ft)")
@@ -206,7 +275,7 @@ class RunModel(_Model):
     require: list[Requirement] = Field(
         default_factory=list, description="editions that must be installed, with version "
         "specifiers")
-    annexes: list[Text] = Field(
+    annexes: list[PathText] = Field(
         default_factory=list, description="annex parameter files, relative to this file")
 
 

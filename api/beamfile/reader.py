@@ -6,7 +6,7 @@ from __future__ import annotations
 from typing import Any
 
 from clausewise.beamfile.errors import _text
-from clausewise.beamfile.models import BeamModel, LayerModel
+from clausewise.beamfile.models import PLAUSIBLE, BeamModel, LayerModel, Plausible
 from clausewise.provisions import (
     Actions,
     Beam,
@@ -24,17 +24,16 @@ from clausewise.units import (
     LENGTH,
     MOMENT,
     STRESS,
+    Bars,
     Kind,
     QuantityError,
+    has_unit,
     read_bars,
     read_quantity,
     unit_info,
 )
 
-# Plausible ranges (MPa) that catch a slip of the unit; the editions check their own scope.
-CONCRETE_RANGE = (5.0, 150.0)
-YIELD_RANGE = (150.0, 1000.0)
-MODULUS_RANGE = (100_000.0, 300_000.0)
+_KINDS = {"mm": LENGTH, "mm²": AREA, "MPa": STRESS, "kN m": MOMENT}
 
 _SHAPES = {"T": Shape.TEE, "L": Shape.ELL, "rectangular": Shape.RECTANGLE,
            "inverted T": Shape.TEE}
@@ -62,12 +61,16 @@ class _BeamReader:
         self.problems: list[tuple[str, str, str]] = []
         self.shown: dict[str, str] = {}
         self.bar_groups: list[tuple[int, float] | None] = []  # per layer, for drawing
+        self.defaulted: list[str] = []  # fields whose plain number took the default unit
+        self.geometry: tuple[tuple[float, str] | None, ...] = (None, None, None)  # bw, hf, bf
 
     def problem(self, field: str, value: str, expected: str) -> None:
         self.problems.append((field, value, expected))
 
     def quantity(self, value: Any, field: str, kind: Kind, label: str = "",
-                 sign: str = "positive") -> tuple[float, str] | None:
+                 sign: str = "positive", plausible: str = "") -> tuple[float, str] | None:
+        """The reading of one quantity; with ``plausible`` (a key of PLAUSIBLE, default the
+        field's name) a value beyond that range is a problem too."""
         if value is None:
             return None
         try:
@@ -75,25 +78,35 @@ class _BeamReader:
         except QuantityError as exc:
             self.problem(field, exc.value, exc.expected)
             return None
+        if not (isinstance(value, str) and has_unit(value)):  # a plain number, or "300"
+            self.defaulted.append(field)
         if label:
             self.shown[label] = text
+        bounds = PLAUSIBLE.get(plausible or field.rpartition(".")[2])
+        if bounds is not None and not self.within((number, text), field, bounds):
+            return None
         return number, text
 
     def in_user_units(self, value: float, kind: Kind) -> str:
         spelling, label = kind.default(self.system)
         return f"{_short(value / unit_info(spelling).factor)} {label}"
 
-    def within(self, reading: tuple[float, str] | None, field: str, what: str,
-               bounds: tuple[float, float]) -> None:
-        if reading is None or bounds[0] <= reading[0] <= bounds[1]:
-            return
-        low, high = bounds
-        text = f"{what} between {_short(low)} and {_short(high)} MPa"
+    def within(self, reading: tuple[float, str], field: str, bounds: Plausible) -> bool:
+        """True when the reading lies in the plausible range; else a problem that states
+        the range in the beam's units (and in SI for US units)."""
+        if bounds.low <= reading[0] <= bounds.high:
+            return True
+        kind = _KINDS[bounds.unit]
+        what = field.rpartition(".")[2].replace("_", " ")
+        text = f"{what} from {self.in_user_units(bounds.low, kind)} to " \
+            f"{self.in_user_units(bounds.high, kind)}"
         if self.system is UnitSystem.US:
-            low_us, high_us = (_short(b / unit_info("psi").factor) for b in bounds)
-            text = f"{what} between {low_us} and {high_us} psi ({_short(low)} to " \
-                f"{_short(high)} MPa)"
-        self.problem(field, reading[1], f"{text}; is the unit right?")
+            si = _KINDS[bounds.unit].defaults[0]
+            factor = unit_info(si[0]).factor
+            text += f" ({_short(bounds.low / factor)} to {_short(bounds.high / factor)} {si[1]})"
+        self.problem(field, reading[1], f"{text}, the plausible range for a building beam; "
+                     "is the unit right?")
+        return False
 
     # --- parts --------------------------------------------------------------------------
     def layers(self, name: str, models: list[LayerModel], h: tuple[float, str] | None,
@@ -106,10 +119,63 @@ class _BeamReader:
             field = f"{name}[{i}]"
             area = self._layer_area(layer, field)
             depth = self._layer_depth(layer, field, h, tension, symbol, face)
-            if area is not None and depth is not None:
+            if area is not None and depth is not None and h is not None and self._placed(
+                    field, layer, depth, h, tension):
                 read.append((area[0], depth[0], f"{area[1]} {depth[1]}"))
                 self.bar_groups.append(area[2])
         return read
+
+    def _placed(self, field: str, layer: LayerModel, depth: tuple[float, str],
+                h: tuple[float, str], tension: bool) -> bool:
+        """Whether a layer can be built where it is given: its bars inside the section and
+        side by side within the width at their depth, tension steel beyond mid-depth."""
+        d, text = depth
+        which = "depth" if layer.depth is not None else "centroid_from_face"
+        given = _text(getattr(layer, which))
+        bars = _bars_of(layer, self.system)
+        ok = True
+        if tension and d < h[0] / 2:
+            face = "soffit" if self.model.bending == "hogging" else "top"
+            self.problem(f"{field}.{which}", given, f"tension steel beyond mid-depth "
+                         f"(h/2 = {self.in_user_units(h[0] / 2, LENGTH)}) from the compression "
+                         f"face: in {self.model.bending} the compression face is the {face}, "
+                         f"so this layer ({text}) would lie in the compression zone; is the "
+                         "bending sense or the depth right?")
+            ok = False
+        if bars is None:
+            return ok
+        radius = bars.largest_diameter / 2
+        if d + radius > h[0] or d - radius < 0:
+            edge = d + radius if d + radius > h[0] else d - radius
+            self.problem(f"{field}.{which}", given, f"a depth that keeps the bars inside the "
+                         f"section: {bars.text} {text} reach "
+                         f"{self.in_user_units(edge, LENGTH)} from the compression face, "
+                         f"beyond the overall depth {h[1]}" if edge > 0 else
+                         f"a depth that keeps the bars inside the section: {bars.text} {text} "
+                         "stick out of the compression face")
+            ok = False
+        width = self.width_at(d, h[0])
+        if width is not None and bars.side_by_side > width[0]:
+            self.problem(f"{field}.bars", bars.text, f"bars that fit the width at their depth: "
+                         f"side by side and touching they need "
+                         f"{self.in_user_units(bars.side_by_side, LENGTH)}, more than the "
+                         f"{width[1]}")
+            ok = False
+        return ok
+
+    def width_at(self, depth: float, h: float) -> tuple[float, str] | None:
+        """The section's width at a depth from the compression face, and its name; None in a
+        flange whose width is left to the rules."""
+        bw, hf, bf = self.geometry
+        if bw is None:
+            return None
+        m = self.model
+        if m.shape != "rectangular" and hf is not None:
+            at_compression_face = (m.shape == "inverted T") == (m.bending == "hogging")
+            in_flange = depth <= hf[0] if at_compression_face else depth >= h - hf[0]
+            if in_flange:
+                return None if bf is None else (bf[0], f"flange width ({bf[1]})")
+        return bw[0], f"web width ({bw[1]})"
 
     def _layer_area(self, layer: LayerModel, field: str
                     ) -> tuple[float, str, tuple[int, float] | None] | None:
@@ -127,7 +193,7 @@ class _BeamReader:
                 self.problem(f"{field}.bars", exc.value, exc.expected)
                 return None
             return bars.area, bars.text, (bars.count, bars.largest_diameter)
-        given = self.quantity(layer.area, f"{field}.area", AREA)
+        given = self.quantity(layer.area, f"{field}.area", AREA, plausible="steel area")
         return None if given is None else (*given, None)
 
     def _layer_depth(self, layer: LayerModel, field: str, h: tuple[float, str] | None,
@@ -142,7 +208,7 @@ class _BeamReader:
             return None
         given = layer.depth if layer.depth is not None else layer.centroid_from_face
         which = "depth" if layer.depth is not None else "centroid_from_face"
-        reading = self.quantity(given, f"{field}.{which}", LENGTH)
+        reading = self.quantity(given, f"{field}.{which}", LENGTH, plausible="steel depth")
         if reading is None or h is None:
             return None
         value, text = reading
@@ -163,13 +229,16 @@ class _BeamReader:
         span = q(floor.span, "floor.span", LENGTH, "span")
         self.shown["continuity"] = f"{floor.continuity} span" if floor.continuity != \
             "cantilever" else "cantilever"
-        clear = q(floor.clear_span, "floor.clear_span", LENGTH, "clear span ln")
-        left = q(floor.clear_left, "floor.clear_left", LENGTH, "clear distance to next web, left")
+        clear = q(floor.clear_span, "floor.clear_span", LENGTH, "clear span ln",
+                  plausible="span")
+        left = q(floor.clear_left, "floor.clear_left", LENGTH, "clear distance to next web, left",
+                 plausible="clear distance")
         right = q(floor.clear_right, "floor.clear_right", LENGTH,
-                  "clear distance to next web, right")
+                  "clear distance to next web, right", plausible="clear distance")
         zero = q(floor.zero_moment_length, "floor.zero_moment_length", LENGTH,
-                 "distance between points of zero moment")
-        adjacent = q(floor.adjacent_span, "floor.adjacent_span", LENGTH, "adjacent span")
+                 "distance between points of zero moment", plausible="span")
+        adjacent = q(floor.adjacent_span, "floor.adjacent_span", LENGTH, "adjacent span",
+                     plausible="span")
         if span is not None and clear is not None and clear[0] > span[0]:
             self.problem("floor.clear_span", clear[1], f"a clear span no longer than the span "
                          f"({span[1]})")
@@ -186,10 +255,12 @@ class _BeamReader:
         if moments is None:
             return Actions()
         q = self.quantity
-        dead = q(moments.dead, "moments.dead", MOMENT, "dead-load moment", "non-negative")
-        live = q(moments.live, "moments.live", MOMENT, "live-load moment", "non-negative")
+        dead = q(moments.dead, "moments.dead", MOMENT, "dead-load moment", "non-negative",
+                 "moment")
+        live = q(moments.live, "moments.live", MOMENT, "live-load moment", "non-negative",
+                 "moment")
         factored = q(moments.factored, "moments.factored", MOMENT, "factored moment",
-                     "non-negative")
+                     "non-negative", "moment")
         problem = Actions.omission_problem(moments.dead, moments.live, moments.factored)
         if problem is not None:  # the rule of Actions, reported against the file's field
             field, why = problem
@@ -220,10 +291,8 @@ class _BeamReader:
         es = q(m.steel_modulus, "steel_modulus", STRESS, "Es")
         self.shown["steel"] = f"{m.steel_kind or 'kind not stated'}, ductility class " \
             f"{m.ductility_class}"
-        self.within(fc, "concrete_strength", "a concrete strength", CONCRETE_RANGE)
-        self.within(fy, "yield_strength", "a yield strength", YIELD_RANGE)
-        self.within(es, "steel_modulus", "a steel modulus", MODULUS_RANGE)
         self._flange(flanged, bw, h, hf, bf)
+        self.geometry = (bw, hf, bf)
         layout = self.floor()
         if flanged and bf is None and m.effective_flange_width is None and m.floor is None:
             self.problem("floor", "", "a floor table with at least the span (or an "
@@ -292,6 +361,16 @@ class _BeamReader:
                 self.problem(f"compression[{i}]", text, "compression steel nearer the "
                              "compression face than the tension steel (effective depth d = "
                              f"{self.in_user_units(d, LENGTH)})")
+
+
+def _bars_of(layer: LayerModel, system: UnitSystem) -> Bars | None:
+    """The layer's bars when given by notation (already read without error), else None."""
+    if layer.bars is None or layer.area is not None:
+        return None
+    try:
+        return read_bars(layer.bars, system)
+    except QuantityError:
+        return None
 
 
 def _short(value: float) -> str:

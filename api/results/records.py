@@ -42,7 +42,11 @@ class _Numbers:
         self.system, self.digits = system, digits
 
     def plain(self, value: Any) -> float | None:
-        number = float(value)
+        """None for a value that is missing or not finite (a plugin may answer None)."""
+        try:
+            number = float(value)
+        except (TypeError, ValueError):
+            return None
         return significant(number, self.digits) if math.isfinite(number) else None
 
     def unit(self, value: Any, unit: str) -> tuple[float | None, str]:

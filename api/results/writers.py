@@ -5,8 +5,10 @@ from __future__ import annotations
 import csv
 import io
 import json
+import math
 from typing import Any
 
+from clausewise.results.display import UNITS
 from clausewise.results.records import INPUT_PROBLEM
 
 
@@ -66,12 +68,13 @@ def csv_row(rec: dict[str, Any]) -> dict[str, Any]:
                   for s in rec.get("stack", ())),
         rec.get("summary") or rec.get("error", ""), rec["caution"],
     )
-    return dict(zip(result_columns(rec["units"]), values, strict=True))
+    return dict(zip(result_columns(rec.get("units") or UNITS), values, strict=True))
 
 
 def _cell(value: Any) -> Any:
-    """Blank for a missing value; a number as its shortest text ("420", not "420.0")."""
-    if value is None:
+    """Blank for a missing or non-finite number (a spreadsheet reads "nan" as text, and
+    JSON has none); a number as its shortest text ("420", not "420.0")."""
+    if value is None or (isinstance(value, float) and not math.isfinite(value)):
         return ""
     return format(value, ".15g") if isinstance(value, float) else value
 

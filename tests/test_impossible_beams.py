@@ -1,0 +1,231 @@
+"""Physically impossible beams never pass, absurd magnitudes are refused with the field,
+value and range, and a few smaller guards of the beam and parameter files (issue 13)."""
+
+from __future__ import annotations
+
+import time
+import warnings
+from pathlib import Path
+
+import pytest
+
+from clausewise.annexfile import AnnexError, load_annex
+from clausewise.beamfile import json_schema, parse_schedule
+from clausewise.beamfile.models import PLAUSIBLE
+from clausewise.cli import main
+from clausewise.provisions import Registry, assess
+
+RECTANGLE = """
+[project]
+units = "SI"
+
+[[beam]]
+id = "X1"
+title = "{title}"
+shape = "rectangular"
+bending = "{bending}"
+web_width = "{bw}"
+overall_depth = "{h}"
+concrete_strength = "30 MPa"
+yield_strength = "500 MPa"
+tension = [{{ bars = "{bars}", depth = "{d}" }}]
+"""
+
+TEE = """
+[project]
+units = "SI"
+
+[[beam]]
+id = "T1"
+shape = "T"
+bending = "{bending}"
+web_width = "300 mm"
+overall_depth = "600 mm"
+slab_thickness = "120 mm"
+effective_flange_width = "{bf}"
+concrete_strength = "30 MPa"
+yield_strength = "500 MPa"
+tension = [{{ bars = "{tension}", depth = "{d}" }}]
+compression = [{{ bars = "{compression}", depth = "50 mm" }}]
+"""
+
+
+def rectangle(**changes: str) -> str:
+    fields = dict(title="", bending="sagging", bw="300 mm", h="600 mm", bars="4 x 25 mm",
+                  d="540 mm") | changes
+    return RECTANGLE.format(**fields)
+
+
+def problems(text: str) -> list[str]:
+    return [p.message for p in parse_schedule(text, "plan.toml").problems]
+
+
+# --- bars that cannot be built -------------------------------------------------------------
+
+def test_the_demo_and_a_plain_beam_load():
+    assert problems(rectangle()) == []
+
+
+def test_bars_whose_edge_lies_beyond_the_overall_depth_are_refused():
+    # d + db/2 = 595 + 12.5 = 607.5 mm > h = 600 mm (hand arithmetic)
+    found = problems(rectangle(d="595 mm"))
+    assert len(found) == 1 and "field tension[1].depth" in found[0]
+    assert "607.5 mm" in found[0] and "600 mm" in found[0]
+    assert problems(rectangle(d="587.5 mm")) == []  # edge exactly at the soffit
+
+
+def test_tension_steel_on_the_compression_side_for_the_bending_sense_is_refused():
+    # hogging: depth is from the soffit; bottom bars "at 60 mm" are compression-side bars
+    found = problems(rectangle(bending="hogging", d="60 mm"))
+    assert len(found) == 1 and "field tension[1].depth" in found[0]
+    assert "mid-depth" in found[0] and "300 mm" in found[0] and "hogging" in found[0]
+
+
+@pytest.mark.parametrize(("bars", "bw", "need"), [
+    ("12 x 32 mm", "300 mm", "384 mm"),  # 12 x 32 = 384 mm > 300 mm
+    ("4 x 25 mm", "60 mm", "100 mm"),  # 4 x 25 = 100 mm > 60 mm
+    ("3 #11", "100 mm", "107.4 mm"),  # 3 x 1.41 in x 25.4 = 107.4 mm (ASTM A615, from memory)
+    ("4 N20 + 2 N16", "110 mm", "112 mm"),  # 4 x 20 + 2 x 16 = 112 mm
+])
+def test_bars_wider_than_the_web_side_by_side_are_refused(bars, bw, need):
+    found = problems(rectangle(bars=bars, bw=bw))
+    assert len(found) == 1 and "field tension[1].bars" in found[0]
+    assert need in found[0] and f"web width ({bw})" in found[0]
+
+
+def test_bars_in_a_flange_are_measured_against_the_flange_they_lie_in():
+    # sagging T: the compression bars at 50 mm lie in the 120 mm slab of a 2 m flange
+    ok = TEE.format(bending="sagging", bf="2000 mm", tension="4 x 25 mm", d="540 mm",
+                    compression="14 x 25 mm")
+    assert problems(ok) == []
+    # hogging T: the slab is in tension; 14 bars in the slab at d = 560 mm fit a 2 m flange
+    slab = TEE.format(bending="hogging", bf="2000 mm", tension="14 x 25 mm", d="560 mm",
+                      compression="2 x 16 mm")
+    assert problems(slab) == []
+    # ... but not a flange of 300 mm (given outright)
+    narrow = TEE.format(bending="hogging", bf="300 mm", tension="14 x 25 mm", d="560 mm",
+                        compression="2 x 16 mm")
+    assert ["flange width (300 mm)" in m for m in problems(narrow)] == [True]
+
+
+# --- absurd magnitudes ---------------------------------------------------------------------
+
+@pytest.mark.parametrize(("change", "field"), [
+    ({"h": "1e308 mm"}, "overall_depth"),
+    ({"bw": "300 ly"}, "web_width"),
+    ({"bw": "1e12 mm"}, "web_width"),
+    ({"d": "1e-300 mm"}, "tension[1].depth"),
+    ({"d": "5e-324 mm"}, "tension[1].depth"),
+    ({"h": "60 m"}, "overall_depth"),
+])
+def test_absurd_magnitudes_are_refused_naming_field_value_and_range(change, field):
+    found = problems(rectangle(**change))
+    assert found and f"field {field}:" in found[0], found
+    assert "plausible range for a building beam" in found[0]
+    assert repr(next(iter(change.values()))) in found[0]
+
+
+def test_a_given_flange_width_of_100_m_is_refused():
+    found = problems(TEE.format(bending="sagging", bf="100 m", tension="4 x 25 mm",
+                                d="540 mm", compression="2 x 16 mm"))
+    assert found and "effective_flange_width" in found[0] and "20 000 mm" in found[0]
+
+
+def test_ranges_are_stated_in_the_schema_for_every_checked_quantity():
+    defs = json_schema()["$defs"]
+    beam, floor, layer = (defs[n]["properties"] for n in ("beam", "floor", "layer"))
+    moments = defs["moments"]["properties"]
+    stated = {**{f"beam.{k}": v for k, v in beam.items()},
+              **{f"floor.{k}": v for k, v in floor.items()},
+              **{f"layer.{k}": v for k, v in layer.items()},
+              **{f"moments.{k}": v for k, v in moments.items()}}
+    for name in ("beam.overall_depth", "beam.web_width", "beam.slab_thickness",
+                 "beam.effective_flange_width", "beam.concrete_strength",
+                 "beam.yield_strength", "beam.steel_modulus", "floor.span", "floor.clear_left",
+                 "layer.depth", "layer.area", "moments.dead", "moments.factored"):
+        extent = stated[name]["x-plausible-range"]
+        assert extent["minimum"] < extent["maximum"], name
+    assert beam["overall_depth"]["x-plausible-range"] == {
+        "minimum": PLAUSIBLE["overall_depth"].low, "maximum": PLAUSIBLE["overall_depth"].high,
+        "unit": "mm"}
+
+
+def test_us_units_state_the_range_in_both_systems():
+    text = rectangle(h="400 in").replace('units = "SI"', 'units = "US"')
+    found = problems(text)
+    assert found and "196.9 in" in found[0] and "5000 mm" in found[0]  # 5000 / 25.4
+
+
+def test_an_extreme_but_plausible_beam_raises_no_numpy_warning():
+    schedule = parse_schedule(rectangle(bw="50 mm", h="5000 mm", bars="2 x 16 mm",
+                                        d="4900 mm"), "plan.toml")
+    assert schedule.entries
+    from clausewise.provisions import default_registry
+
+    with warnings.catch_warnings():
+        warnings.simplefilter("error")
+        for edition in default_registry().editions():
+            assess(schedule.entries[0].beam, edition)
+
+
+# --- smaller ---------------------------------------------------------------------------------
+
+def test_a_10_mb_title_is_refused_quickly():
+    start = time.perf_counter()
+    found = problems(rectangle(title="x" * 10_000_000))
+    assert found and "field title" in found[0] and "at most 200 characters" in found[0]
+    assert len(found[0]) < 400 and time.perf_counter() - start < 5.0
+
+
+def test_a_binary_annex_file_error_names_the_file(tmp_path):
+    annex = tmp_path / "annex.toml"
+    annex.write_bytes(b"\x89PNG\r\n\x1a\n\x00\xff\xfe binary")
+    with pytest.raises(AnnexError) as caught:
+        load_annex(annex, Registry())
+    assert str(annex) in str(caught.value) and "UTF-8" in str(caught.value)
+
+
+def test_plain_numbers_without_a_declared_unit_system_warn_once_naming_the_fields():
+    text = rectangle().replace('[project]\nunits = "SI"\n', "").replace(
+        'web_width = "300 mm"', "web_width = 300")
+    text += text.replace('id = "X1"', 'id = "X2"')
+    schedule = parse_schedule(text, "plan.toml")
+    assert len(schedule.warnings) == 1
+    assert "beam X1: web_width" in schedule.warnings[0]
+    assert "beam X2: web_width" in schedule.warnings[0]
+    assert parse_schedule(rectangle().replace('web_width = "300 mm"', "web_width = 300"),
+                          "plan.toml").warnings == ()  # units = "SI" declared
+
+
+def test_the_command_line_shows_the_units_warning_once(tmp_path, capsys):
+    path = tmp_path / "plan.toml"
+    path.write_text(rectangle().replace('[project]\nunits = "SI"\n', "").replace(
+        'web_width = "300 mm"', "web_width = 300"), encoding="utf-8")
+    main(["check", str(path), "--edition", "aci318-19", "--format", "json"])
+    err = capsys.readouterr().err
+    assert err.count("warning:") == 1 and "web_width" in err
+
+
+def test_an_impossible_beam_is_refused_and_the_others_are_checked(tmp_path, capsys):
+    good = rectangle()
+    bad = rectangle(d="595 mm").replace('id = "X1"', 'id = "X2"').split("[[beam]]")[1]
+    path = Path(tmp_path / "plan.toml")
+    path.write_text(good + "[[beam]]" + bad, encoding="utf-8")
+    assert main(["check", str(path), "--edition", "aci318-19", "--format", "json"]) == 2
+    out = capsys.readouterr().out
+    assert '"beam": "X1"' in out and "607.5 mm" in out
+
+
+def test_a_plugins_division_by_zero_is_no_warning_and_its_answer_is_judged():
+    # εty = fy/Es = 500/100 000 = 0.005 equals ACI 318-14's tension-controlled limit
+    # (21.2.2, from memory): the transition is empty, and a section with εt above 0.005 is
+    # tension-controlled, φ = 0.90 (Table 21.2.2, from memory)
+    text = rectangle(bars="2 x 16 mm").replace('yield_strength = "500 MPa"',
+                                              'yield_strength = "500 MPa"\n'
+                                              'steel_modulus = "100000 MPa"')
+    beam = parse_schedule(text, "plan.toml").entries[0].beam
+    with warnings.catch_warnings():
+        warnings.simplefilter("error")
+        a = assess(beam, "aci318-14")
+    assert a.response.net_tensile_strain > 0.005
+    assert a.resistance.factor.value == pytest.approx(0.90)
