@@ -82,3 +82,10 @@ class Aci318_11(Aci318):
 
 
 plugin = Aci318_11()
+
+# Detailing clauses of 318-11: spacing limits (7.6.1, 7.6.2), crack control (10.6.4),
+# cover (7.7.1), from memory.
+Aci318_11.detailing_clauses = MappingProxyType({
+    "bar_spacing": "7.6.1", "layer_spacing": "7.6.2", "crack_control": "10.6.4",
+    "cover": "7.7.1",
+})

@@ -48,6 +48,8 @@ from clausewise.provisions import (
     sqrt,
 )
 from clausewise.provisions.combinations import Combination, factored_moment
+from clausewise.provisions.detailing import DetailingLimits, aggregate_size
+from clausewise.provisions.vocabulary import Candidate, Clause
 from clausewise.provisions.widths import OverhangRule, half_clear_distance, overhang_envelope
 
 EDITION = EditionInfo(
@@ -261,3 +263,29 @@ def ductility_limits(beam: Beam, response: Any, params: Parameters,
 
 def _out(value: Any) -> Any:
     return value if np.ndim(value) else float(value)
+
+
+# --- detailing (spacing of bars: common practice, 8.6.1 crack control, cover) ----------
+
+@hookimpl
+def detailing_limits(beam: Beam, diameter: Any, params: Parameters,
+                     context: Context) -> DetailingLimits:
+    """Clear distance between bars: not recalled with confidence from the standard, so the
+    common-practice value max(db, 1.5 × aggregate size, 25 mm). Crack control for beams
+    (8.6.1): tension bars near the tension face at most 300 mm apart, centre to centre
+    (from memory; the fuller rule ties steel stress to bar size). Default cover 30 mm:
+    common practice for interior beams (Table 4.10.3.2 sets it by exposure)."""
+    practice = Clause("common practice", "clear distance between bars (not the clause)",
+                      EDITION.id)
+    aggregate = np.asarray(aggregate_size(beam), float)
+    terms = [Candidate("db", diameter, practice),
+             Candidate("1.5 × aggregate size", _out(1.5 * aggregate), practice),
+             Candidate("25 mm", 25.0, practice)]
+    return DetailingLimits(
+        Envelope.largest("least clear distance between bars", "s_min", terms, "mm"),
+        Envelope.largest("least clear distance between layers", "s_v", terms, "mm"),
+        Envelope.smallest("largest bar spacing for crack control", "s_max", [
+            Candidate("300 mm", 300.0, clause("8.6.1", "crack control of beams"))], "mm"),
+        Factor("cover", 30.0, Clause("common practice", "cover of interior beams; Table "
+                                     "4.10.3.2 sets it by exposure", EDITION.id),
+               "30 mm", "mm"))

@@ -55,6 +55,7 @@ from clausewise.provisions import (
     log,
     power,
 )
+from clausewise.provisions.detailing import DetailingLimits, aggregate_size
 from clausewise.provisions.widths import OverhangRule, half_clear_distance, overhang_envelope
 
 EDITION = EditionInfo(
@@ -423,3 +424,28 @@ def _out(value: Any) -> Any:
 
 def _show(value: Any) -> str:
     return f"{float(value):.6g}" if np.ndim(value) == 0 else "per beam"
+
+
+# --- detailing (8.2 spacing of bars, 7.3.3 crack control, 4.4.1 cover) ---------------
+
+@hookimpl
+def detailing_limits(beam: Beam, diameter: Any, params: Parameters,
+                     context: Context) -> DetailingLimits:
+    """Clear distance max(k1·φ, dg + k2, 20 mm) with the recommended k1 = 1, k2 = 5 mm,
+    horizontally and vertically (8.2(2)). Crack control without direct calculation
+    (7.3.3, Table 7.3N) needs the steel stress under the quasi-permanent load, which
+    the beam does not give: not checked. Default cover cnom = cmin + Δcdev (4.4.1):
+    cmin,dur 15 mm (XC1, structural class S4, Table 4.4N) + 10 mm; all from memory."""
+    spacing = clause("8.2(2)", "clear distance between bars (recommended k1 = 1, k2 = 5 mm)")
+    aggregate = np.asarray(aggregate_size(beam), float)
+    terms = [Candidate("k1·φ", diameter, spacing),
+             Candidate("dg + k2", _out(aggregate + 5.0), spacing),
+             Candidate("20 mm", 20.0, spacing)]
+    return DetailingLimits(
+        Envelope.largest("least clear distance between bars", "s_min", terms, "mm"),
+        Envelope.largest("least clear distance between layers", "s_v", terms, "mm"),
+        None,
+        Factor("cnom", 25.0, clause("4.4.1", "nominal cover cmin + Δcdev"),
+               "cmin,dur 15 mm (XC1, S4) + Δcdev 10 mm", "mm"),
+        "EN 1992-1-1 7.3.3 (Table 7.3N) ties bar spacing to the steel stress under the "
+        "quasi-permanent load, which the beam file does not give")

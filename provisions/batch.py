@@ -52,6 +52,8 @@ def kind_of(beam: Beam) -> tuple[Any, ...]:
             layout.clear_right is None, layout.zero_moment_length is None,
             layout.adjacent_span is None),
         actions.dead is None, actions.live is None, actions.factored is None,
+        tuple(layer.has_bars for layer in (*beam.tension, *beam.compression)),
+        beam.cover is None, beam.stirrup_diameter is None, beam.aggregate_size is None,
     )
 
 

@@ -56,10 +56,23 @@ class UnitSystem(StrEnum):
 
 @dataclass(frozen=True)
 class Layer:
-    """Bars at one depth: ``area`` (mm²) at ``depth`` (mm) from the compression face."""
+    """Bars at one depth: ``area`` (mm²) at ``depth`` (mm) from the compression face.
+
+    A layer given by bar notation also keeps ``count`` (bars side by side),
+    ``diameter`` (the largest bar, mm) and ``bars_width`` (the sum of the bars'
+    diameters, mm), which the detailing checks need; a layer given only as an area
+    leaves them ``None`` and is not checked for fit or spacing.
+    """
 
     area: Value
     depth: Value
+    count: Value | None = None
+    diameter: Value | None = None
+    bars_width: Value | None = None
+
+    @property
+    def has_bars(self) -> bool:
+        return self.count is not None and self.diameter is not None
 
 
 @dataclass(frozen=True)
@@ -116,6 +129,11 @@ class Beam:
     statically_determinate: bool = False
     isolated: bool = False  # a T whose flange is not part of a slab
     title: str = ""
+    # detailing inputs (mm); None: the stated defaults of clausewise.provisions.detailing
+    cover: Value | None = None  # clear cover to the stirrups (links)
+    stirrup_diameter: Value | None = None
+    aggregate_size: Value | None = None  # nominal maximum size of the coarse aggregate
+    bar_sizes: tuple[str, ...] = ()  # for design: the sizes allowed; (): the whole catalogue
 
     @property
     def flanged(self) -> bool:
@@ -169,6 +187,9 @@ def _numbers(beam: Beam) -> list[Any]:
               beam.flange_thickness, beam.flange_width, beam.steel_modulus]
     values += [v for layer in (*beam.tension, *beam.compression) for v in (layer.area,
                                                                              layer.depth)]
+    values += [v for layer in (*beam.tension, *beam.compression)
+               for v in (layer.count, layer.diameter, layer.bars_width)]
+    values += [beam.cover, beam.stirrup_diameter, beam.aggregate_size]
     if beam.layout is not None:
         layout = beam.layout
         values += [layout.span, layout.clear_span, layout.clear_left, layout.clear_right,

@@ -198,6 +198,24 @@ def additional_checks(beam: Beam, section: Any, response: Any, params: Parameter
     """
 
 
+# --- detailing -----------------------------------------------------------------------
+
+@hookspec(firstresult=True)
+def detailing_limits(beam: Beam, diameter: Any, params: Parameters,
+                     context: Context) -> Any:
+    """Return ``DetailingLimits`` (``clausewise.provisions.detailing``) for bars of
+    ``diameter`` (mm; an array over a batch).
+
+    ``clear_in_layer`` / ``clear_between_layers``: least clear distances between
+    parallel bars as ``Envelope.largest`` of the rule's terms (db, an absolute least,
+    a multiple of the aggregate size: ``detailing.aggregate_size(beam)``);
+    ``max_spacing``: the largest centre-to-centre spacing of the tension bars for crack
+    control as ``Envelope.smallest``, or ``None`` with ``crack_note`` saying why;
+    ``cover``: the default cover to the stirrups as a ``Factor``. Optional: an edition
+    that does not answer leaves bars unchecked for fit, and the assessment says so.
+    """
+
+
 TOPICS = (
     "applicability", "effective_flange_width", "concrete_law", "steel_law",
     "resistance_factor", "design_actions", "minimum_reinforcement", "ductility_limits",

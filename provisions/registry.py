@@ -319,6 +319,16 @@ class Edition:
         return [_returned(self, "additional_checks", c, Check)
                 for answer in reversed(answers) for c in answer]
 
+    def detailing_limits(self, beam: Beam, diameter: Any, params: Parameters,
+                         context: Context) -> Any:
+        """The edition's ``DetailingLimits`` for bars of ``diameter`` mm, or None where no
+        layer answers."""
+        from clausewise.provisions.detailing import DetailingLimits
+
+        return _returned(self, "detailing_limits", self._call(
+            "detailing_limits", beam=beam, diameter=diameter, params=params,
+            context=context), DetailingLimits, allow_none=True)
+
     def _checks(self, hook: str, **kwargs: Any) -> list[Check]:
         answer = self._call(hook, **kwargs)
         return [_returned(self, hook, c, Check) for c in (answer or ())]

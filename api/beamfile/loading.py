@@ -112,7 +112,7 @@ def _beam_id(raw: Any) -> str | None:
     return None
 
 
-def _schedule(data: dict[str, Any], source: str, base: Path) -> Schedule:
+def _schedule(data: dict[str, Any], source: str, base: Path, design: bool = False) -> Schedule:
     project = _header(data, source, base)
     beams = data.get("beam")
     if not beams:
@@ -144,7 +144,7 @@ def _schedule(data: dict[str, Any], source: str, base: Path) -> Schedule:
             continue
         first_seen[model.id] = index
         system = _SYSTEMS[model.units] if model.units else project.unit_system
-        reader = _BeamReader(model, system)
+        reader = _BeamReader(model, system, design)
         beam = reader.read()
         if beam is None:
             report(reader.problems)
@@ -166,13 +166,14 @@ def _collector_paused() -> Iterator[None]:
             gc.enable()
 
 
-def parse_schedule(text: str, source: str = "<text>") -> Schedule:
-    """Read a schedule from TOML text; annex paths are taken relative to ``source``'s folder."""
+def parse_schedule(text: str, source: str = "<text>", *, design: bool = False) -> Schedule:
+    """Read a schedule from TOML text; annex paths are taken relative to ``source``'s folder.
+    With ``design``, beams may leave out their tension bars (design chooses them)."""
     with _collector_paused():
-        return _schedule(_toml_loads(text, source), source, Path(source).parent)
+        return _schedule(_toml_loads(text, source), source, Path(source).parent, design)
 
 
-def load_schedule(path: str | Path) -> Schedule:
+def load_schedule(path: str | Path, *, design: bool = False) -> Schedule:
     """Read a schedule file. Bad beams become problems; the others load."""
     path = Path(path)
     try:
@@ -187,4 +188,4 @@ def load_schedule(path: str | Path) -> Schedule:
         text = raw.decode("utf-8")
     except UnicodeDecodeError as exc:
         raise InputError(f"{path}: not UTF-8 text (bad byte at position {exc.start})") from exc
-    return parse_schedule(text, str(path))
+    return parse_schedule(text, str(path), design=design)
