@@ -197,6 +197,7 @@ def beam_panel(outcome: Outcome) -> Panel:
         shown = a.checks if a.checks else a.applicability
         parts += [Text(""), checks_table(shown, units, a.edition_id,
                                          "checks" if a.checks else "scope")]
+    parts += [Text(f"note: {remark}", style="dim") for remark in a.remarks]
     parts.append(_verdict(a))
     border = {PASS: "green", FAIL: "red"}.get(a.status, "yellow")
     return Panel(Group(*parts), title=Text(f"{name} · {a.edition_id} ({a.form} form, "

@@ -1,0 +1,198 @@
+"""Design over a schedule: the steel each edition requires and the bars chosen, as a
+report for people and as records for programs (JSON, TOML, CSV)."""
+
+from __future__ import annotations
+
+import csv
+import io
+import math
+from collections.abc import Sequence
+from dataclasses import replace
+from typing import TYPE_CHECKING, Any
+
+from clausewise.provisions.beam import UnitSystem
+from clausewise.provisions.design import Design, design_many
+from clausewise.provisions.engine import PASS
+from clausewise.provisions.verdicts import CAUTION
+
+if TYPE_CHECKING:
+    from rich.console import Group
+
+    from clausewise.beamfile import Schedule
+    from clausewise.provisions.registry import Edition
+
+MM2_PER_IN2 = 645.16
+LB_PER_FT_PER_KG_PER_M = 0.3048 / 0.45359237
+
+
+def design_schedule(schedule: Schedule, editions: Sequence[Edition], form: str | None,
+                    situation: str, *, audit: bool = False) -> list[Design]:
+    """Every beam under every edition, beam by beam in file order. Each chosen arrangement
+    was assessed by the same pipeline as ``check``; with ``audit`` it is assessed again
+    one beam at a time, and a design whose bars do not pass is marked as such."""
+    beams = [entry.beam for entry in schedule.entries]
+    by_edition = {e.id: design_many(beams, e, form=form, situation=situation, audit=audit)
+                  for e in editions}
+    out = []
+    for i in range(len(beams)):
+        for e in editions:
+            d = by_edition[e.id][i]
+            if d.assessment is not None and d.assessment.status != PASS:
+                d = replace(d, status="chosen bars fail the check",
+                            message=d.assessment.summary())
+            out.append(d)
+    return out
+
+
+def design_status(designs: Sequence[Design], schedule: Schedule) -> int:
+    """0 every beam designed with passing bars; 1 some beam has none (the section must
+    grow, no bars fit, outside scope); 2 refused input or an edition could not design."""
+    if schedule.problems or any(d.status == "error" for d in designs):
+        return 2
+    return 0 if all(d.passed for d in designs) else 1
+
+
+def _lightest(designs: Sequence[Design]) -> dict[str, float]:
+    """Per beam, the lightest steel mass (kg/m) over the editions that found bars."""
+    best: dict[str, float] = {}
+    for d in designs:
+        if d.arrangement is not None:
+            best[d.beam_id] = min(best.get(d.beam_id, math.inf), d.mass_per_metre)
+    return best
+
+
+def _num(value: float | None) -> float | None:
+    return None if value is None or not math.isfinite(value) else float(value)
+
+
+def design_record(d: Design, lightest: float | None) -> dict[str, Any]:
+    a = d.arrangement
+    return {
+        "beam": d.beam_id, "edition": d.edition_id, "status": d.status,
+        "required_area": _num(d.required_area), "compression_area": _num(d.compression_area),
+        "trial_depth": _num(d.trial_depth), "set_by": d.set_by,
+        "set_by_clause": d.set_by_clause, "bars": a.text if a else "",
+        "layers": list(a.counts) if a else [], "layer_depths": list(a.depths) if a else [],
+        "provided_area": _num(d.provided_area),
+        "provided_compression_area": _num(a.compression_area) if a else None,
+        "mass_per_metre": _num(d.mass_per_metre),
+        "more_than_lightest": _num(d.mass_per_metre - lightest) if a and lightest else None,
+        "utilisation": _num(d.utilisation), "governing": d.governing,
+        "governing_clause": d.governing_clause, "least_depth": _num(d.least_depth),
+        "least_width": _num(d.least_width), "candidates": d.candidates,
+        "message": d.message,
+    }
+
+
+def design_document(schedule: Schedule, designs: Sequence[Design]) -> dict[str, Any]:
+    """The whole design run; areas in mm², lengths in mm, mass in kg/m."""
+    from clausewise import __version__
+
+    p = schedule.project
+    lightest = _lightest(designs)
+    return {
+        "caution": CAUTION, "tool": "clausewise", "version": __version__,
+        "source": str(schedule.source),
+        "project": {"name": p.name, "building": p.building, "town": p.town,
+                    "engineer": p.engineer, "notes": p.notes},
+        "units": {"area": "mm²", "length": "mm", "mass": "kg/m"},
+        "designs": [design_record(d, lightest.get(d.beam_id)) for d in designs],
+        "problems": [{"beam": q.beam, "field": q.field, "message": q.message}
+                     for q in schedule.problems],
+    }
+
+
+CSV_COLUMNS = ("beam", "edition", "status", "required_area", "compression_area", "set_by",
+               "set_by_clause", "bars", "provided_area", "mass_per_metre",
+               "more_than_lightest", "utilisation", "governing", "governing_clause",
+               "least_depth", "least_width", "candidates", "message")
+
+
+def design_csv(data: dict[str, Any]) -> str:
+    """One row per beam and edition (the caution first), then one per refused beam."""
+    out = io.StringIO()
+    csv.writer(out, lineterminator="\n").writerow([f"# {data['caution']}"])
+    columns = csv.DictWriter(out, CSV_COLUMNS, lineterminator="\n", extrasaction="ignore")
+    columns.writeheader()
+    for rec in data["designs"]:
+        columns.writerow({k: "" if v is None else v for k, v in rec.items()})
+    for problem in data["problems"]:
+        columns.writerow({"beam": problem["beam"] or "", "status": "input problem",
+                          "message": problem["message"]})
+    return out.getvalue()
+
+
+# --- the report for people ----------------------------------------------------------------
+
+def _area(value: float, us: bool) -> str:
+    if not math.isfinite(value):
+        return "–"
+    return f"{value / MM2_PER_IN2:.2f}" if us else f"{value:.0f}"
+
+
+def _mass(value: float, us: bool) -> str:
+    if not math.isfinite(value):
+        return "–"
+    return f"{value * LB_PER_FT_PER_KG_PER_M:.2f}" if us else f"{value:.2f}"
+
+
+def design_report(schedule: Schedule, designs: Sequence[Design]) -> Group:
+    """Per beam, one row per edition: required steel, chosen bars, provided steel,
+    utilisation and what governs, mass and the excess over the lightest edition; fits in
+    80 columns."""
+    from rich import box
+    from rich.console import Group
+    from rich.panel import Panel
+    from rich.table import Table
+    from rich.text import Text
+
+    from clausewise.report import caution, header, problems_table
+
+    entries = {e.beam.id: e for e in schedule.entries}
+    lightest = _lightest(designs)
+    parts: list[Any] = [header(schedule, "design")]
+    for beam_id in dict.fromkeys(d.beam_id for d in designs):
+        beam = entries[beam_id].beam
+        us = beam.unit_system is UnitSystem.US
+        area_unit, mass_unit = ("in²", "lb/ft") if us else ("mm²", "kg/m")
+        table = Table(box=box.SIMPLE_HEAD, pad_edge=False, expand=False)
+        for name, justify in (("edition", "left"), (f"As req\n{area_unit}", "right"),
+                              ("bars", "left"), (f"As prov\n{area_unit}", "right"),
+                              ("util.", "right"), ("governs", "left"),
+                              (mass_unit, "right"), ("+", "right")):
+            table.add_column(name, justify=justify, overflow="fold")  # type: ignore[arg-type]
+        notes: list[str] = []
+        for d in (d for d in designs if d.beam_id == beam_id):
+            a = d.arrangement
+            required = _area(d.required_area, us)
+            if d.compression_area > 0:
+                required += f"\n+{_area(d.compression_area, us)}'"
+            extra = "" if a is None else _mass(d.mass_per_metre - lightest[beam_id], us)
+            governs = d.governing or d.status
+            if d.governing_clause:
+                governs += f"\n{d.governing_clause.split(' ', 1)[-1]}"
+            table.add_row(Text(d.edition_id), Text(required), Text(a.text if a else d.status),
+                          Text(_area(d.provided_area, us)),
+                          Text(f"{d.utilisation:.2f}" if a else "–"), Text(governs),
+                          Text(_mass(d.mass_per_metre, us)), Text(extra))
+            if d.set_by and a is not None:
+                notes.append(f"{d.edition_id}: required area set by {d.set_by} "
+                             f"({d.set_by_clause})")
+            if d.least_depth or d.least_width or d.message:
+                grow = []
+                if d.least_depth:
+                    grow.append(f"least overall depth {d.least_depth:.0f} mm")
+                if d.least_width:
+                    grow.append(f"least web width {d.least_width:.0f} mm")
+                notes.append(f"{d.edition_id}: {d.message}" + (
+                    f" ({'; '.join(grow)}, tension steel only)" if grow else ""))
+        title = beam_id + (f" · {beam.title}" if beam.title else "")
+        body: list[Any] = [table] + [Text(n, style="dim") for n in notes]
+        parts.append(Panel(Group(*body), title=Text(title), title_align="left"))
+    if schedule.problems:
+        parts.append(problems_table(schedule.problems))
+    parts.append(Text("As req: least tension steel that passes every check at the trial depth "
+                      "(' compression steel); + : steel mass above the lightest edition.",
+                      style="dim"))
+    parts.append(caution())
+    return Group(*parts)
