@@ -11,7 +11,7 @@ from dataclasses import replace
 from typing import TYPE_CHECKING, Any
 
 from clausewise.provisions.beam import UnitSystem
-from clausewise.provisions.design import Design, design_many
+from clausewise.provisions.design import Design, bars_text, design_many
 from clausewise.provisions.engine import PASS
 from clausewise.provisions.verdicts import CAUTION
 
@@ -136,13 +136,18 @@ def _mass(value: float, us: bool) -> str:
     return f"{value * LB_PER_FT_PER_KG_PER_M:.2f}" if us else f"{value:.2f}"
 
 
+def _ref(clause: str) -> str:
+    """The clause reference without the edition id ("aci318-19 9.5.1.1" -> "9.5.1.1")."""
+    return clause.split(" ", 1)[-1] if clause else ""
+
+
 def design_report(schedule: Schedule, designs: Sequence[Design]) -> Group:
     """Per beam, one row per edition: required steel, chosen bars, provided steel,
-    utilisation and what governs, mass and the excess over the lightest edition; fits in
-    80 columns."""
+    utilisation, mass and the excess over the lightest edition; then what set the
+    required area and what governs the bars. Readable at 80 columns."""
     from rich import box
     from rich.console import Group
-    from rich.panel import Panel
+    from rich.rule import Rule
     from rich.table import Table
     from rich.text import Text
 
@@ -151,48 +156,68 @@ def design_report(schedule: Schedule, designs: Sequence[Design]) -> Group:
     entries = {e.beam.id: e for e in schedule.entries}
     lightest = _lightest(designs)
     parts: list[Any] = [header(schedule, "design")]
+
+    def table(*columns: tuple[str, str, bool]) -> Table:
+        t = Table(box=box.SIMPLE_HEAD, pad_edge=False, collapse_padding=True,
+                  show_edge=False)
+        for name, justify, wrap in columns:
+            t.add_column(name, justify=justify, no_wrap=not wrap,  # type: ignore[arg-type]
+                         overflow="fold")
+        return t
+
     for beam_id in dict.fromkeys(d.beam_id for d in designs):
         beam = entries[beam_id].beam
         us = beam.unit_system is UnitSystem.US
         area_unit, mass_unit = ("in²", "lb/ft") if us else ("mm²", "kg/m")
-        table = Table(box=box.SIMPLE_HEAD, pad_edge=False, expand=False)
-        for name, justify in (("edition", "left"), (f"As req\n{area_unit}", "right"),
-                              ("bars", "left"), (f"As prov\n{area_unit}", "right"),
-                              ("util.", "right"), ("governs", "left"),
-                              (mass_unit, "right"), ("+", "right")):
-            table.add_column(name, justify=justify, overflow="fold")  # type: ignore[arg-type]
+        steel = table(("edition", "left", False), (f"As req\n{area_unit}", "right", False),
+                      ("bars chosen", "left", False), (f"As prov\n{area_unit}", "right", False),
+                      ("util.", "right", False), (mass_unit, "right", False),
+                      ("+" + mass_unit, "right", False))
+        why = table(("edition", "left", False), ("required area set by", "left", True),
+                    ("the chosen bars: governing check", "left", True))
         notes: list[str] = []
         for d in (d for d in designs if d.beam_id == beam_id):
             a = d.arrangement
             required = _area(d.required_area, us)
             if d.compression_area > 0:
-                required += f"\n+{_area(d.compression_area, us)}'"
+                required += f"\n{_area(d.compression_area, us)} top"
+            bars = d.status if a is None else _bars_cell(a)
             extra = "" if a is None else _mass(d.mass_per_metre - lightest[beam_id], us)
-            governs = d.governing or d.status
-            if d.governing_clause:
-                governs += f"\n{d.governing_clause.split(' ', 1)[-1]}"
-            table.add_row(Text(d.edition_id), Text(required), Text(a.text if a else d.status),
-                          Text(_area(d.provided_area, us)),
-                          Text(f"{d.utilisation:.2f}" if a else "–"), Text(governs),
+            provided = _area(d.provided_area, us)
+            if a is not None and a.compression is not None:
+                provided += f"\n{_area(a.compression_area, us)} top"
+            steel.add_row(Text(d.edition_id), Text(required), Text(bars), Text(provided),
+                          Text(f"{d.utilisation:.2f}" if a else "–"),
                           Text(_mass(d.mass_per_metre, us)), Text(extra))
-            if d.set_by and a is not None:
-                notes.append(f"{d.edition_id}: required area set by {d.set_by} "
-                             f"({d.set_by_clause})")
-            if d.least_depth or d.least_width or d.message:
-                grow = []
-                if d.least_depth:
-                    grow.append(f"least overall depth {d.least_depth:.0f} mm")
-                if d.least_width:
-                    grow.append(f"least web width {d.least_width:.0f} mm")
-                notes.append(f"{d.edition_id}: {d.message}" + (
-                    f" ({'; '.join(grow)}, tension steel only)" if grow else ""))
+            set_by = f"{d.set_by} ({_ref(d.set_by_clause)})" if d.set_by_clause else d.set_by
+            governs = f"{d.governing} ({_ref(d.governing_clause)})" if a else d.message
+            why.add_row(Text(d.edition_id), Text(set_by), Text(governs))
+            grow = []
+            if d.least_depth:
+                grow.append(f"overall depth {d.least_depth:.0f} mm")
+            if d.least_width:
+                grow.append(f"web width {d.least_width:.0f} mm")
+            if grow:
+                notes.append(f"{d.edition_id}: tension steel alone passes from "
+                             f"{' or '.join(grow)}")
         title = beam_id + (f" · {beam.title}" if beam.title else "")
-        body: list[Any] = [table] + [Text(n, style="dim") for n in notes]
-        parts.append(Panel(Group(*body), title=Text(title), title_align="left"))
+        parts += [Rule(Text(title), align="left"), steel, why]
+        parts += [Text(n, style="dim") for n in notes]
     if schedule.problems:
         parts.append(problems_table(schedule.problems))
-    parts.append(Text("As req: least tension steel that passes every check at the trial depth "
-                      "(' compression steel); + : steel mass above the lightest edition.",
+    parts.append(Text("As req: the least tension steel that passes every check at the trial "
+                      "depth (top: compression steel); +: steel above the lightest edition.",
                       style="dim"))
     parts.append(caution())
     return Group(*parts)
+
+
+def _bars_cell(a: Any) -> str:
+    """Tension bars, with the layers and any compression bars on lines of their own."""
+    text = bars_text(a.count, a.size)
+    if len(a.counts) > 1:
+        text += f" ({' + '.join(str(n) for n in a.counts)})"
+    if a.compression is not None:
+        size, n, _ = a.compression
+        text += f"\ntop {bars_text(n, size)}"
+    return text

@@ -101,11 +101,11 @@ class Arrangement:
     @property
     def text(self) -> str:
         """"4 x 20 mm", "5 #8 (3 + 2)"; compression bars after a semicolon."""
-        main = _bars_text(self.count, self.size)
+        main = bars_text(self.count, self.size)
         if len(self.counts) > 1:
             main += f" ({' + '.join(str(n) for n in self.counts)})"
         if self.compression is not None:
-            main += f"; compression {_bars_text(self.compression[1], self.compression[0])}"
+            main += f"; compression {bars_text(self.compression[1], self.compression[0])}"
         return main
 
     def layers(self) -> tuple[tuple[Layer, ...], tuple[Layer, ...]]:
@@ -119,7 +119,7 @@ class Arrangement:
         return tension, (Layer(n * size.area, depth, n, size.diameter, n * size.diameter),)
 
 
-def _bars_text(n: int, size: BarSize) -> str:
+def bars_text(n: int, size: BarSize) -> str:
     return f"{n} x {size.name}" if size.name.endswith("mm") else f"{n} {size.name}"
 
 
@@ -385,7 +385,7 @@ def _without_tension_only(group: _Group, missing: NDArray[np.int_], depth: NDArr
         if np.isfinite(best_total[j]):
             out[i] = Design(group.beams[i].id, group.edition.id, COMPRESSION,
                             float(best_total[j] - best[j]), float(depth[i]),
-                            "tension steel alone: strength needs more than the ductility limit allows",
+                            "tension steel alone: strength needs more than ductility allows",
                             compression_area=float(best[j]), message="no tension-only area "
                             "passes: compression steel designed", **grow)
         else:
