@@ -434,6 +434,7 @@ def _arrange(group: _Group, designs: dict[int, Design],
     if not todo:
         return
     candidates: list[tuple[int, Arrangement]] = []
+    options = {i: _compression_bars(group, i, designs[i], sizes_by_beam[i]) for i in todo}
     for size in sorted({s for i in todo for s in sizes_by_beam[i]}, key=lambda s: s.diameter):
         depth, limits = _steel_depth(group, size.diameter)
         s_min = _array(limits.clear_in_layer.value, group.size)
@@ -446,17 +447,17 @@ def _arrange(group: _Group, designs: dict[int, Design],
             if size not in sizes_by_beam[i] or fit[i] < 2:
                 continue
             d = designs[i]
-            options = _compression_bars(group, i, d, sizes_by_beam[i])
             per_layer = int(fit[i])
             for n in range(2, 2 * per_layer + 1):
                 if n * size.area < LIGHTEST_SHARE * d.required_area:
                     continue
-                bottom = n if n <= per_layer else min(per_layer, n - 2)  # 2 bars up top
-                counts = (bottom,) if n == bottom else (bottom, n - bottom)
-                depths = (float(depth[i]),) if n == bottom else (
+                counts = layer_counts(n, per_layer)
+                if counts is None:
+                    continue
+                depths = (float(depth[i]),) if len(counts) == 1 else (
                     float(depth[i]), float(depth[i] - size.diameter - s_v[i]))
                 candidates += [(i, Arrangement(size, counts, depths, compression))
-                               for compression in options]
+                               for compression in options[i]]
     chosen = _lightest_passing(group, candidates)
     params = group.edition.parameters(group.context)
     scope = {c.name for c in group.edition.applicability(group.batch, params, group.context)}
@@ -471,6 +472,16 @@ def _arrange(group: _Group, designs: dict[int, Design],
         else:
             designs[i] = replace(designs[i], status=NO_FIT, message="no arrangement of the "
                                  "catalogue fits the web and passes every check")
+
+
+def layer_counts(n: int, per_layer: int) -> tuple[int, ...] | None:
+    """How n bars sit: one layer when they fit, else the bottom layer as full as leaves at
+    least 2 bars for the layer above, which never holds more than the one below; None
+    beyond two layers (common practice: upper bars directly above lower ones)."""
+    if n <= per_layer:
+        return (n,) if n >= 2 else None
+    bottom = min(per_layer, n - 2)
+    return (bottom, n - bottom) if 2 <= n - bottom <= bottom else None
 
 
 def _compression_bars(group: _Group, i: int, design: Design, sizes: tuple[BarSize, ...]

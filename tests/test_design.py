@@ -124,10 +124,15 @@ def _arrangements(beam: Beam, edition_id: str):
                                 c, s))
         depth = beam.depth - c - s - size.diameter / 2
         for n in range(2, 2 * max(fit, 1) + 3):
-            fits = fit >= 2 and n <= 2 * fit
-            bottom = n if n <= fit else max(min(fit, n - 2), 1)
-            counts = (bottom,) if n == bottom else (bottom, n - bottom)
-            depths = (depth,) if n == bottom else (
+            # by hand: one layer when n ≤ fit, else the bottom layer full (or n − 2) and
+            # 2 to as many as the bottom above it
+            if n <= fit:
+                counts = (n,)
+            else:
+                bottom = min(fit, n - 2)
+                counts = (bottom, n - bottom)
+            fits = fit >= 2 and (len(counts) == 1 or 2 <= counts[1] <= counts[0])
+            depths = (depth,) if len(counts) == 1 else (
                 depth, depth - size.diameter - limits.clear_between_layers.value)
             yield Arrangement(size, counts, depths), fits
 
