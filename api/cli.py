@@ -509,6 +509,7 @@ def _design_parser(commands: Any) -> None:
     design.add_argument("--edition", action="append", metavar="ID",
                         help="edition to design under (repeatable; default: the file's "
                              "editions, else every installed one)")
+    _figure_options(design, "each beam's section with the chosen bars under each edition")
     design.set_defaults(handler=design_command)
 
 
@@ -530,13 +531,35 @@ def design_command(args: argparse.Namespace) -> int:
     situation = args.situation or schedule.project.situation or "persistent"
     editions = _editions(registry, args.edition or list(schedule.project.editions)
                          or registry.ids())
-    designs = design_schedule(schedule, editions, None if form == "auto" else form, situation)
+    designs = design_schedule(schedule, editions, None if form == "auto" else form, situation,
+                              audit=bool(args.figures))
     kind = _chosen_format(args)
     if kind == "rich":
         _emit_report(design_report(schedule, designs), width=80, out=args.out)
     else:
         _emit_document(design_document(schedule, designs), kind, args.out, design_csv)
+    if args.figures:
+        _design_figures(args.figures, schedule, designs, args.figure_format)
     return design_status(designs, schedule)
+
+
+def _design_figures(folder: Path, schedule: Schedule, designs: Sequence[Any],
+                    kind: str) -> None:
+    from clausewise import figures
+    from clausewise.designs import design_figure
+
+    folder.mkdir(parents=True, exist_ok=True)
+    beams = {e.beam.id: e.beam for e in schedule.entries}
+    written = 0
+    for d in designs:
+        if d.arrangement is None:
+            print(f"{PROGRAM}: no figure for beam {d.beam_id} under {d.edition_id} "
+                  f"({d.status})", file=sys.stderr)
+            continue
+        figures.save(design_figure(d, beams[d.beam_id]),
+                     folder / f"{_safe(d.beam_id)}_{_safe(d.edition_id)}_design.{kind}")
+        written += 1
+    print(f"{PROGRAM}: {written} figure(s) written to {folder}", file=sys.stderr)
 
 
 # --- entry point ------------------------------------------------------------------------------

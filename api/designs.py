@@ -221,3 +221,54 @@ def _bars_cell(a: Any) -> str:
         size, n, _ = a.compression
         text += f"\ntop {bars_text(n, size)}"
     return text
+
+
+# --- the figure -----------------------------------------------------------------------------
+
+def design_figure(d: Design, beam: Any) -> Any:
+    """The section with the chosen bars drawn where they sit (to scale, slab on top as in
+    the check figures), the stirrup outline, and the design's numbers."""
+    from matplotlib.patches import Circle, Rectangle
+
+    from clausewise import figures
+    from clausewise.provisions.detailing import stirrup_diameter
+
+    a = d.arrangement
+    if a is None:
+        raise ValueError(f"beam {d.beam_id} under {d.edition_id}: no bars were chosen")
+    bw, h = float(beam.web_width), float(beam.depth)
+    hogging = beam.bending.value == "hogging"
+    flange = 0.0
+    if beam.flanged and d.assessment is not None and d.assessment.effective_width is not None:
+        flange = float(d.assessment.effective_width.value)
+    width = max(bw, flange)
+    figure = figures.Figure(figsize=(5.0, 5.0))
+    ax = figure.add_axes((0.08, 0.12, 0.84, 0.74))
+
+    def y(depth: float) -> float:  # height above the soffit, slab on top
+        return depth if hogging else h - depth
+
+    ax.add_patch(Rectangle((-bw / 2, 0.0), bw, h, facecolor=figures.CONCRETE,
+                           edgecolor="black", lw=1.0))
+    if flange > bw:
+        hf = float(beam.flange_thickness)
+        left = -bw / 2 if beam.shape.value == "L" else -flange / 2
+        ax.add_patch(Rectangle((left, h - hf), flange, hf, facecolor=figures.CONCRETE,
+                               edgecolor="black", lw=1.0))
+    inset = a.edge - float(stirrup_diameter(beam)) / 2  # the stirrup's centre line
+    ax.add_patch(Rectangle((-bw / 2 + inset, inset), bw - 2 * inset, h - 2 * inset,
+                           fill=False, edgecolor="#555555", lw=0.8, ls="--"))
+    for x, depth, db in a.positions(bw):
+        ax.add_patch(Circle((x, y(depth)), db / 2, facecolor=figures.STEEL,
+                            edgecolor="black", lw=0.5))
+    ax.set_xlim(-width / 2 - 20, width / 2 + 20)
+    ax.set_ylim(-20, h + 20)
+    ax.set_aspect("equal")
+    ax.axis("off")
+    figure.text(0.02, 0.97, f"{d.beam_id} · {d.edition_id}: {a.text}", fontsize=10,
+                va="top")
+    figure.text(0.02, 0.92, f"As req {d.required_area:.0f} mm², provided {a.area:.0f} mm²; "
+                f"{d.governing} {d.utilisation:.2f}; {a.mass_per_metre:.2f} kg/m",
+                fontsize=8, va="top")
+    figure.text(0.02, 0.02, CAUTION, fontsize=6, color="#555555", wrap=True)
+    return figure

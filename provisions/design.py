@@ -77,6 +77,22 @@ class Arrangement:
     counts: tuple[int, ...]
     depths: tuple[float, ...]  # mm from the compression face, per layer
     compression: tuple[BarSize, int, float] | None = None  # size, count, depth
+    edge: float = 0.0  # mm from the web face to the outer bars: cover + stirrup
+
+    def positions(self, web_width: float) -> list[tuple[float, float, float]]:
+        """(x from the web's centre line, depth from the compression face, diameter) of every
+        bar, the outer bars against the stirrup legs and the rest evenly between."""
+        groups = [(n, self.size.diameter, depth) for n, depth in
+                  zip(self.counts, self.depths, strict=True)]
+        if self.compression is not None:
+            size, n, depth = self.compression
+            groups.append((n, size.diameter, depth))
+        out = []
+        for n, db, depth in groups:
+            reach = web_width / 2 - self.edge - db / 2
+            xs = [0.0] if n == 1 else list(np.linspace(-reach, reach, n))
+            out += [(float(x), depth, db) for x in xs]
+        return out
 
     @property
     def count(self) -> int:
@@ -440,8 +456,8 @@ def _arrange(group: _Group, designs: dict[int, Design],
         s_min = _array(limits.clear_in_layer.value, group.size)
         s_v = _array(limits.clear_between_layers.value, group.size)
         edge = _array(cover(group.batch, limits), group.size)
-        fit = _array(bars_that_fit(group.batch.web_width, size.diameter, s_min, edge,
-                                   _array(stirrup_diameter(group.batch), group.size)),
+        stirrup = _array(stirrup_diameter(group.batch), group.size)
+        fit = _array(bars_that_fit(group.batch.web_width, size.diameter, s_min, edge, stirrup),
                      group.size)
         for i in todo:
             if size not in sizes_by_beam[i] or fit[i] < 2:
@@ -456,7 +472,8 @@ def _arrange(group: _Group, designs: dict[int, Design],
                     continue
                 depths = (float(depth[i]),) if len(counts) == 1 else (
                     float(depth[i]), float(depth[i] - size.diameter - s_v[i]))
-                candidates += [(i, Arrangement(size, counts, depths, compression))
+                candidates += [(i, Arrangement(size, counts, depths, compression,
+                                               float(edge[i] + stirrup[i])))
                                for compression in options[i]]
     chosen = _lightest_passing(group, candidates)
     params = group.edition.parameters(group.context)

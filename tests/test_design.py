@@ -293,3 +293,23 @@ def test_check_reports_detailing_for_bars_by_notation(tmp_path):
     assert main(["check", str(path), "--edition", "aci318-19", "--out", str(out)]) == 0
     names = [c["name"] for c in json.loads(out.read_text())["results"][0]["checks"]]
     assert "bars fit the web: tension layer 1" in names
+
+
+def test_design_figures_draw_every_chosen_bar(tmp_path):
+    from matplotlib.patches import Circle
+
+    from clausewise.designs import design_figure
+
+    beam = rectangle(330e6, bw=300.0, h=450.0, fc=32.0, fy=500.0)
+    result = design(beam, "aci318-19")
+    figure = design_figure(result, beam)
+    circles = [p for p in figure.axes[0].patches if isinstance(p, Circle)]
+    a = result.arrangement
+    assert len(circles) == a.count + a.compression[1]
+    # outer tension bars touch the stirrup legs: centre at bw/2 − (cover + stirrup) − db/2
+    xs = sorted(c.center[0] for c in circles if c.radius == a.size.diameter / 2)
+    assert xs[-1] == pytest.approx(150.0 - 50.0 - a.size.diameter / 2)
+    folder = tmp_path / "figures"
+    assert main(["design", str(DEMO), "--edition", "aci318-19", "--format", "csv",
+                 "--out", str(tmp_path / "d.csv"), "--figures", str(folder)]) == 0
+    assert len(list(folder.glob("*_design.svg"))) >= 10
