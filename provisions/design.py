@@ -206,6 +206,7 @@ class _Group:
     form: str | None
     count: NDArray[np.int_] = field(default_factory=lambda: np.zeros(0, int))
     clauses: dict[str, str] = field(default_factory=dict)  # check name -> clause
+    limits_by_size: dict[float, Any] = field(default_factory=dict)
 
     @property
     def size(self) -> int:
@@ -222,8 +223,12 @@ class _Group:
                               situation=self.context.situation)[self.edition.id]
 
     def limits(self, diameter: float) -> Any:
-        params = self.edition.parameters(self.context)
-        return self.edition.detailing_limits(self.batch, diameter, params, self.context)
+        """The edition's detailing limits for bars of one diameter (asked once per size)."""
+        if diameter not in self.limits_by_size:
+            params = self.edition.parameters(self.context)
+            self.limits_by_size[diameter] = self.edition.detailing_limits(
+                self.batch, diameter, params, self.context)
+        return self.limits_by_size[diameter]
 
 
 def _array(value: Any, n: int) -> NDArray[np.float64]:
