@@ -54,6 +54,22 @@ class DetailingLimits:
     crack_note: str = ""
 
 
+def senseless(limits: DetailingLimits) -> str:
+    """What makes an edition's limits nonsense (a clear distance not positive, a negative
+    cover, a value that is not a number), or "" when they make sense. A crack-control
+    spacing need only be a number: with a deep cover a rule may leave no spacing at all."""
+    values = [("least clear spacing", limits.clear_in_layer.value, 0.0),
+              ("least clear distance between layers", limits.clear_between_layers.value, 0.0),
+              ("default cover", limits.cover.value, -1e-9)]
+    if limits.max_spacing is not None:
+        values.append(("crack-control spacing", limits.max_spacing.value, -np.inf))
+    for what, value, least in values:
+        array = np.asarray(value, float)
+        if not np.all(np.isfinite(array)) or np.any(array <= least):
+            return f"a {what} of {_show(value)} mm"
+    return ""
+
+
 def stirrup_diameter(beam: Beam) -> Any:
     """The beam's stirrup (link) diameter, else the stated default (10 mm; #3 in US units)."""
     given = beam.stirrup_diameter

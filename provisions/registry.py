@@ -323,11 +323,15 @@ class Edition:
                          context: Context) -> Any:
         """The edition's ``DetailingLimits`` for bars of ``diameter`` mm, or None where no
         layer answers."""
-        from clausewise.provisions.detailing import DetailingLimits
+        from clausewise.provisions.detailing import DetailingLimits, senseless
 
-        return _returned(self, "detailing_limits", self._call(
+        limits = _returned(self, "detailing_limits", self._call(
             "detailing_limits", beam=beam, diameter=diameter, params=params,
             context=context), DetailingLimits, allow_none=True)
+        problem = senseless(limits) if limits is not None else ""
+        if problem:
+            raise PluginError(f"edition {self.id!r}: hook detailing_limits answered {problem}")
+        return limits
 
     def _checks(self, hook: str, **kwargs: Any) -> list[Check]:
         answer = self._call(hook, **kwargs)

@@ -5,14 +5,25 @@ fields they need. Checked against hand arithmetic and the editions' rules as rec
 from __future__ import annotations
 
 import math
+from dataclasses import replace
 
 import pytest
 
 from clausewise.beamfile import parse_schedule
-from clausewise.provisions import Actions, Beam, Bending, Context, Layer, Shape, assess
+from clausewise.provisions import (
+    Actions,
+    Beam,
+    Bending,
+    Context,
+    EditionInfo,
+    Layer,
+    Shape,
+    assess,
+    hookimpl,
+)
 from clausewise.provisions.bars import CANADIAN, METRIC, US, restrict
 from clausewise.provisions.detailing import bars_that_fit, centre_spacing, width_needed
-from clausewise.provisions.registry import default_registry
+from clausewise.provisions.registry import PluginError, Registry, default_registry
 from clausewise.units import read_bars
 
 BUILT_IN = ("aci318-19", "aci318-14", "aci318-11", "en1992-1-1:2004", "csa-a23.3:19",
@@ -198,3 +209,26 @@ def test_bad_cover_names_the_field_and_unit():
                               design=True)
     assert schedule.problems and schedule.problems[0].field == "cover"
     assert "length" in schedule.problems[0].message
+
+
+class NegativeCover:
+    """An extending edition whose detailing answer makes no sense."""
+
+    @hookimpl
+    def edition_info(self):
+        return EditionInfo("xx-negative-cover", "nonsense detailing", 2024,
+                           extends="aci318-19")
+
+    @hookimpl
+    def detailing_limits(self, beam, diameter, params, context):
+        base = default_registry().edition("aci318-19")
+        limits = base.detailing_limits(beam, diameter, params, context)
+        return replace(limits, cover=replace(limits.cover, value=-5.0))
+
+
+def test_a_senseless_detailing_answer_is_refused_naming_edition_and_hook():
+    registry = Registry(only=frozenset({"aci318-19"}))
+    registry.load_entry_points()
+    assert registry.register(NegativeCover()).ok
+    with pytest.raises(PluginError, match="xx-negative-cover.*detailing_limits.*cover"):
+        assess(rectangle((layer(3, 20.0),)), registry.edition("xx-negative-cover"))
