@@ -203,6 +203,7 @@ def design_report(schedule: Schedule, designs: Sequence[Design]) -> Group:
         title = beam_id + (f" · {beam.title}" if beam.title else "")
         parts += [Rule(Text(title), align="left"), steel, why]
         parts += [Text(n, style="dim") for n in notes]
+    parts += _steel_by_edition(designs, entries)
     if schedule.problems:
         parts.append(problems_table(schedule.problems))
     parts.append(Text("As req: the least tension steel that passes every check at the trial "
@@ -272,3 +273,40 @@ def design_figure(d: Design, beam: Any) -> Any:
                 fontsize=8, va="top")
     figure.text(0.02, 0.02, CAUTION, fontsize=6, color="#555555", wrap=True)
     return figure
+
+
+def _steel_by_edition(designs: Sequence[Design], entries: dict[str, Any]) -> list[Any]:
+    """Every beam against every edition at a glance: the required tension steel, with the
+    lightest edition's marked; editions in columns, four to a table so it fits 80 columns."""
+    from rich import box
+    from rich.rule import Rule
+    from rich.table import Table
+    from rich.text import Text
+
+    editions = list(dict.fromkeys(d.edition_id for d in designs))
+    by = {(d.beam_id, d.edition_id): d for d in designs}
+    beams = list(dict.fromkeys(d.beam_id for d in designs))
+    if len(editions) < 2:
+        return []
+    parts: list[Any] = [Rule(Text("required tension steel by edition (* lightest bars)"),
+                             align="left")]
+    for start in range(0, len(editions), 4):
+        chunk = editions[start:start + 4]
+        table = Table(box=box.SIMPLE_HEAD, pad_edge=False, show_edge=False)
+        table.add_column("beam", no_wrap=True)
+        for e in chunk:
+            table.add_column(e, justify="right", no_wrap=True)
+        for beam_id in beams:
+            us = entries[beam_id].beam.unit_system is UnitSystem.US
+            lightest = min((by[beam_id, e].mass_per_metre for e in editions
+                            if by[beam_id, e].arrangement is not None), default=math.nan)
+            cells = []
+            for e in chunk:
+                d = by[beam_id, e]
+                mark = "*" if d.arrangement is not None and math.isclose(
+                    d.mass_per_metre, lightest, rel_tol=1e-9) else " "
+                cells.append(Text(f"{_area(d.required_area, us)} {'in²' if us else 'mm²'}"
+                                  f"{mark}"))
+            table.add_row(Text(beam_id), *cells)
+        parts.append(table)
+    return parts
