@@ -232,3 +232,17 @@ def test_a_senseless_detailing_answer_is_refused_naming_edition_and_hook():
     assert registry.register(NegativeCover()).ok
     with pytest.raises(PluginError, match="xx-negative-cover.*detailing_limits.*cover"):
         assess(rectangle((layer(3, 20.0),)), registry.edition("xx-negative-cover"))
+
+
+def test_remarks_reach_the_json_results(tmp_path):
+    from clausewise.cli import main
+
+    path = tmp_path / "area.toml"
+    path.write_text(FILE.format(tension='tension = [{ area = "1500 mm2", depth = "540 mm" }]'),
+                    encoding="utf-8")
+    out = tmp_path / "area.json"
+    assert main(["check", str(path), "--edition", "aci318-19", "--out", str(out)]) == 0
+    import json
+
+    (result,) = json.loads(out.read_text(encoding="utf-8"))["results"]
+    assert any("given as an area" in r for r in result["remarks"])

@@ -118,6 +118,7 @@ def record(outcome: Outcome) -> dict[str, Any]:
         "section": _section(a), "resistance": _resistance(a),
         "demand": _envelope(a.demand) if a.demand else None,
         "checks": [_check(c) for c in a.checks],
+        "remarks": list(a.remarks),
         "applicability": [_check(c) for c in a.applicability],
         "factors": [_factor(f) for f in (*a.concrete_factors, *a.steel_factors)],
         "parameters": [{"name": p.name, "value": p.value, "unit": p.unit,
