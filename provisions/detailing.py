@@ -133,8 +133,17 @@ def detailing_checks(beam: Beam, edition: Edition, params: Parameters,
     if not placed:
         return checks, remarks
     stirrup = stirrup_diameter(beam)
+    asked: dict[Any, DetailingLimits | None] = {}
+
+    def limits_for(diameter: Any) -> DetailingLimits | None:
+        """The edition's limits, asked once per bar size (per array over a batch)."""
+        key = float(diameter) if np.ndim(diameter) == 0 else id(diameter)
+        if key not in asked:
+            asked[key] = edition.detailing_limits(beam, diameter, params, context)
+        return asked[key]
+
     for name, i, layer in placed:
-        limits = edition.detailing_limits(beam, layer.diameter, params, context)
+        limits = limits_for(layer.diameter)
         if limits is None:
             remarks.append(f"edition {edition.id} gives no detailing limits: bars not "
                            "checked for fit or spacing")
@@ -150,18 +159,20 @@ def detailing_checks(beam: Beam, edition: Edition, params: Parameters,
             f"needed 2(cover + stirrup) + Σdb + (n − 1)·s, clear spacing s = largest of "
             f"{', '.join(cand.label for cand in clear.candidates)}; cover "
             f"{_show(c)} mm, stirrup {_show(stirrup)} mm, {_show(layer.count)} bars"))
-    checks += _between_layers(beam, edition, params, context)
-    checks += _crack_spacing(beam, edition, params, context, stirrup, remarks)
+    checks += _between_layers(beam, limits_for)
+    checks += _crack_spacing(beam, limits_for, stirrup, remarks)
     return checks, remarks
 
 
-def _between_layers(beam: Beam, edition: Edition, params: Parameters,
-                    context: Context) -> list[Check]:
+def _between_layers(beam: Beam, limits_for: Any) -> list[Check]:
     checks = []
     layers = [layer for layer in beam.tension if layer.has_bars]
     for upper, lower in zip(layers, layers[1:], strict=False):
-        larger = np.maximum(np.asarray(upper.diameter, float), np.asarray(lower.diameter, float))
-        limits = edition.detailing_limits(beam, _out(larger), params, context)
+        same = upper.diameter is lower.diameter or (
+            np.ndim(upper.diameter) == 0 and upper.diameter == lower.diameter)
+        larger = upper.diameter if same else _out(np.maximum(
+            np.asarray(upper.diameter, float), np.asarray(lower.diameter, float)))
+        limits = limits_for(larger)
         if limits is None:
             continue
         gap = np.abs(np.asarray(lower.depth, float) - np.asarray(upper.depth, float)) \
@@ -174,14 +185,17 @@ def _between_layers(beam: Beam, edition: Edition, params: Parameters,
     return checks
 
 
-def _crack_spacing(beam: Beam, edition: Edition, params: Parameters, context: Context,
-                   stirrup: Any, remarks: list[str]) -> list[Check]:
+def _crack_spacing(beam: Beam, limits_for: Any, stirrup: Any,
+                   remarks: list[str]) -> list[Check]:
     """Spacing of the bars of the layer nearest the tension face within the crack-control
     limit (checked when every tension layer is given by bars)."""
     if not beam.tension or not all(layer.has_bars for layer in beam.tension):
         return []
-    count, diameter = _deepest(beam.tension)
-    limits = edition.detailing_limits(beam, diameter, params, context)
+    if len(beam.tension) == 1:
+        count, diameter = beam.tension[0].count, beam.tension[0].diameter
+    else:
+        count, diameter = _deepest(beam.tension)
+    limits = limits_for(diameter)
     if limits is None:
         return []
     if limits.max_spacing is None:
