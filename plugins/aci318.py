@@ -22,6 +22,7 @@ Contents (clause numbers of 318-14 and 318-19; 318-11 numbers its own)
                       Grade 420 εty = 0.002: 318-14 and 318-11), 9.5.1.1 φMn ≥ Mu
   demand ............ 5.3.1 load combinations
   limits ............ 9.6.1.2-3 minimum steel, 9.3.3.1 net tensile strain
+  detailing ......... 25.2.1-2 bar spacing, 24.3.2 crack control, 20.5.1.3.1 cover
 """
 
 from __future__ import annotations

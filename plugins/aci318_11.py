@@ -16,6 +16,7 @@ Contents
                       10.3.4 tension-controlled limit, 9.1.1 φMn ≥ Mu
   demand ............ 9.2.1 load combinations
   limits ............ 10.5.1-3 minimum steel, 10.3.5 net tensile strain of beams
+  detailing ......... 7.6.1-2 bar spacing, 10.6.4 crack control, 7.7.1 cover
 """
 
 from __future__ import annotations

@@ -13,6 +13,7 @@ Contents
   strength .......... Table 2.2.2 φ from kuo, 2.2.2 φMuo ≥ M*
   demand ............ AS/NZS 1170.0 4.2.2 load combinations
   limits ............ 8.1.6.1 minimum strength 1.2 Mcr, 8.1.5 kuo limit
+  detailing ......... bar spacing (common practice), 8.6.1 crack control, cover
 """
 
 from __future__ import annotations

@@ -13,6 +13,7 @@ Contents
   strength .......... 8.4 material resistance factors, 8.1.3 Mr ≥ Mf
   demand ............ national building code load combinations (NBC 4.1.3.2)
   limits ............ 10.5.1.2 minimum steel, 10.5.2 c/d limit
+  detailing ......... 6.6.5.2 bar spacing, 10.6.1 crack control z, cover
 """
 
 from __future__ import annotations

@@ -16,6 +16,7 @@ Contents
   strength .......... 6.1 M_Ed at most M_Rd, partial factors on the materials
   demand ............ EN 1990 6.10 fundamental combination
   limits ............ 9.2.1.1(1) minimum steel, 9.2.1.1(3) maximum steel, 5.5(4) xu/d
+  detailing ......... 8.2(2) bar spacing, 4.4.1 cover (7.3.3 crack control: not checked)
 """
 
 from __future__ import annotations

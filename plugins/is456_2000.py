@@ -14,6 +14,7 @@ Contents
   strength .......... 36.4.2 partial factors on materials; 38.1 note, xu,max
   demand ............ 36.4.1 and Table 18 load factors
   limits ............ 26.5.1.1 (a) minimum and (b) maximum tension steel, 38.1 xu ≤ xu,max
+  detailing ......... 26.3.2 bar spacing, 26.3.3(b) largest spacing, 26.4.2 cover
 """
 
 from __future__ import annotations

@@ -33,6 +33,7 @@ read once, when the edition is registered)::
       -> concrete_law, steel_law -> [core solves the section]
       -> resistance_factor -> design_actions
       -> minimum_reinforcement, ductility_limits, additional_checks
+      -> detailing_limits (layers given by bars: fit, layer and crack spacing)
       -> governing check = highest utilisation
 """
 
