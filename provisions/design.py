@@ -427,6 +427,10 @@ def _least_growth(group: _Group, beams: NDArray[np.int_], trial: float,
     steps = np.arange(1, int(math.ceil((GROW_LIMIT - 1) * given.max() / GROW_STEP)) + 1)
     sizes = given[:, None] + GROW_STEP * steps[None, :]
     valid = sizes <= GROW_LIMIT * given[:, None]
+    if dimension == "web_width" and group.batch.flanged and group.batch.flange_width is not None:
+        widest = _array(group.batch.flange_width, group.size)[beams][:, None]
+        valid &= sizes <= widest  # a web no wider than the flange given outright
+        sizes = np.minimum(sizes, widest)
     shares = np.geomspace(1e-3, 1.0, 24)
     k, m = sizes.shape
     rows = np.repeat(beams, m * shares.size)
