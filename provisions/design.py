@@ -613,27 +613,44 @@ def design_many(beams: Sequence[Beam], edition: str | Edition, *, form: str | No
                 situation: str = "persistent", registry: Registry | None = None,
                 audit: bool = False) -> list[Design]:
     """Design every beam under one edition through the array path; results in input order.
-    With ``audit``, each chosen arrangement also carries its full assessment."""
+    Bars a beam gives are replaced by the design's. With ``audit``, each chosen
+    arrangement also carries its full assessment. A group that fails is designed again
+    beam by beam, so one bad beam is reported as an error and the rest go on."""
     ed = (registry or default_registry()).edition(edition) if isinstance(edition, str) \
         else edition
+    out: list[Design | None] = [None] * len(beams)
     groups: dict[tuple[Any, ...], list[int]] = {}
     for i, beam in enumerate(beams):
         bare = replace(beam, tension=(), compression=())
-        groups.setdefault((kind_of(bare), bar_sizes(bare)[0]), []).append(i)
-    out: list[Design | None] = [None] * len(beams)
-    for members in groups.values():
-        group_beams = [replace(beams[i], tension=(), compression=()) for i in members]
-        chosen, _ = resolve_form(ed, group_beams[0], form)
-        group = _Group(ed, group_beams, stack_beams(group_beams),
-                       Context(form=chosen, situation=situation), form)
         try:
-            results = _design_group(group, audit)
-        except (ClausewiseError, ValueError, ArithmeticError) as exc:
-            results = [Design(b.id, ed.id, "error", message=f"{type(exc).__name__}: {exc}")
-                       for b in group_beams]
+            groups.setdefault((kind_of(bare), bar_sizes(bare)[0]), []).append(i)
+        except DesignError as exc:
+            out[i] = Design(beam.id, ed.id, "error", message=str(exc))
+    for members in groups.values():
+        results = _design_members(ed, [beams[i] for i in members], form, situation, audit)
+        if results is None:  # one bad beam spoiled its group: design them one by one
+            results = [d for i in members
+                       for d in _design_members(ed, [beams[i]], form, situation, audit) or ()]
         for i, result in zip(members, results, strict=True):
             out[i] = result
     return [d for d in out if d is not None]
+
+
+def _design_members(edition: Edition, beams: list[Beam], form: str | None, situation: str,
+                    audit: bool) -> list[Design] | None:
+    """Design beams of one kind together; None when a group of several raised (a single
+    beam that raises gets an error design)."""
+    group_beams = [replace(b, tension=(), compression=()) for b in beams]
+    try:
+        chosen, _ = resolve_form(edition, group_beams[0], form)
+        group = _Group(edition, group_beams, stack_beams(group_beams),
+                       Context(form=chosen, situation=situation), form)
+        return _design_group(group, audit)
+    except (ClausewiseError, ValueError, ArithmeticError) as exc:
+        if len(beams) == 1:
+            return [Design(beams[0].id, edition.id, "error",
+                           message=f"{type(exc).__name__}: {exc}")]
+        return None
 
 
 def design(beam: Beam, edition: str | Edition, **options: Any) -> Design:

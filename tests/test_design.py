@@ -317,3 +317,13 @@ def test_design_figures_draw_every_chosen_bar(tmp_path):
     assert main(["design", str(DEMO), "--edition", "aci318-19", "--format", "csv",
                  "--out", str(tmp_path / "d.csv"), "--figures", str(folder)]) == 0
     assert len(list(folder.glob("*_design.svg"))) >= 10
+
+
+def test_a_bad_beam_is_an_error_and_the_others_are_designed():
+    good = rectangle(200e6)
+    bad_sizes = replace(rectangle(200e6), id="bad", bar_sizes=("#8", "25M"))
+    degenerate = replace(rectangle(200e6), id="flat", depth=40.0)  # no room for any bar
+    results = design_many([good, bad_sizes, degenerate, good], "aci318-19")
+    assert [r.status for r in results][0] == DESIGNED and results[3].status == DESIGNED
+    assert results[1].status == "error" and "bar_sizes" in results[1].message
+    assert not results[2].passed
