@@ -216,11 +216,10 @@ class _Group:
         return len(self.beams)
 
     def assess(self, rows: NDArray[np.int_], tension: tuple[Layer, ...],
-               compression: tuple[Layer, ...] = (), **changes: Any) -> BatchTable:
+               compression: tuple[Layer, ...] = ()) -> BatchTable:
         """Assess candidate beams: ``rows`` index the group's beams, the layers are arrays
         over the candidates; every row counts as one candidate of its beam."""
-        sub = replace(take_beam(self.batch, rows), tension=tension, compression=compression,
-                      **{k: v for k, v in changes.items()})
+        sub = replace(take_beam(self.batch, rows), tension=tension, compression=compression)
         np.add.at(self.count, rows, 1)
         return assess_columns(sub, [self.edition], ids=[""] * rows.size, form=self.form,
                               situation=self.context.situation)[self.edition.id]
@@ -378,13 +377,13 @@ def _without_tension_only(group: _Group, missing: NDArray[np.int_], depth: NDArr
         return out
     grow_depth = _least_growth(group, scoped, trial, "depth")
     grow_width = _least_growth(group, scoped, trial, "web_width")
-    # compression steel at the cover depth: the least total steel on a grid, then refined
+    # compression steel at the cover depth: the least total steel on a grid of pairs, then
+    # the tension area refined at that compression area
     _, limits = _steel_depth(group, trial)
     edge = _array(cover(group.batch, limits), group.size) + \
         _array(stirrup_diameter(group.batch), group.size)
     shares = np.geomspace(0.01, 0.5, COMPRESSION_GRID)
     k = scoped.size
-    # every (compression, tension) pair of the grids at once; the least total that passes
     tension_shares = np.geomspace(1e-2, 1.5, GRID)
     comp = (top[scoped, None] * shares[None, :])  # k x C
     pairs_c = np.repeat(comp.ravel(), GRID)
