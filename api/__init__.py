@@ -11,7 +11,10 @@ from typing import TYPE_CHECKING, Any
 __version__ = "0.1.0"
 
 if TYPE_CHECKING:
+    from collections.abc import Sequence
+
     from clausewise.provisions import Assessment, Beam, Edition
+    from clausewise.provisions.design import Design
 
 
 def editions() -> list[Edition]:
@@ -28,4 +31,21 @@ def assess(beam: Beam, edition: str | Edition, **options: Any) -> Assessment:
     return _assess(beam, edition, **options)
 
 
-__all__ = ["__version__", "assess", "editions"]
+def design(beam: Beam, edition: str | Edition, **options: Any) -> Design:
+    """The least steel ``edition`` requires for ``beam`` and the lightest bars that fit and
+    pass, with the search's bracket and the chosen bars' full assessment; see
+    :func:`clausewise.provisions.design.design`."""
+    from clausewise.provisions.design import design as _design
+
+    return _design(beam, edition, **options)
+
+
+def design_many(beams: Sequence[Beam], edition: str | Edition, **options: Any) -> list[Design]:
+    """Design a schedule of beams under one edition through the array path (no per-beam
+    audit unless ``audit=True``)."""
+    from clausewise.provisions.design import design_many as _design_many
+
+    return _design_many(beams, edition, **options)
+
+
+__all__ = ["__version__", "assess", "design", "design_many", "editions"]

@@ -198,6 +198,8 @@ def build_parser() -> argparse.ArgumentParser:
                             "run completes; without it only the summary is shown")
     batch.set_defaults(handler=batch_command)
 
+    _design_parser(commands)
+
     schema = commands.add_parser("schema", help="JSON Schema of the beam file (for editors)")
     schema.add_argument("--results", action="store_true",
                         help="the schema of the JSON results instead")
@@ -646,6 +648,76 @@ def schema_command(args: argparse.Namespace) -> int:
         schema = json_schema()
     _emit_text(json.dumps(schema, indent=2, ensure_ascii=False) + "\n", args.out)
     return 0
+
+
+DESIGN_STATUS = """exit status:
+  0  every beam has bars under every edition, and they pass every check
+  1  some beam has none under some edition (the section must grow, no bars fit, or it
+     is outside the edition's scope)
+  2  bad input or usage; also when some beams of the file were refused or an edition
+     could not design a beam (the others are still designed and reported)
+"""
+
+
+def _design_parser(commands: Any) -> None:
+    design = commands.add_parser(
+        "design", help="the steel each edition requires, and bars that fit the web",
+        epilog=DESIGN_STATUS, formatter_class=argparse.RawDescriptionHelpFormatter)
+    _run_options(design)
+    design.add_argument("--edition", action="append", metavar="ID",
+                        help="edition to design under (repeatable; default: the file's "
+                             "editions, else every installed one)")
+    _figure_options(design, "each beam's section with the chosen bars under each edition")
+    design.set_defaults(handler=design_command)
+
+
+def design_command(args: argparse.Namespace) -> int:
+    """Design every beam of a file (bars may be left out) under every edition."""
+    from clausewise.beamfile import load_schedule
+    from clausewise.designs import (
+        design_csv,
+        design_document,
+        design_report,
+        design_schedule,
+        design_status,
+    )
+
+    schedule = load_schedule(args.file, design=True)
+    registry = _registry([*args.annex, *schedule.project.annexes])
+    _require(registry, schedule.project.required)
+    form = args.form or schedule.project.form or "auto"
+    situation = args.situation or schedule.project.situation or "persistent"
+    editions = _editions(registry, args.edition or list(schedule.project.editions)
+                         or registry.ids())
+    designs = design_schedule(schedule, editions, None if form == "auto" else form, situation,
+                              audit=bool(args.figures))
+    kind = _chosen_format(args)
+    if kind == "text":
+        _emit_report(design_report(schedule, designs), width=80, out=args.out)
+    else:
+        _emit_document(design_document(schedule, designs), kind, args.out, design_csv)
+    if args.figures:
+        _design_figures(args.figures, schedule, designs, args.figure_format)
+    return design_status(designs, schedule)
+
+
+def _design_figures(folder: Path, schedule: Schedule, designs: Sequence[Any],
+                    kind: str) -> None:
+    from clausewise import figures
+    from clausewise.designs import design_figure
+
+    folder.mkdir(parents=True, exist_ok=True)
+    beams = {e.beam.id: e.beam for e in schedule.entries}
+    written = 0
+    for d in designs:
+        if d.arrangement is None:
+            print(f"{PROGRAM}: no figure for beam {d.beam_id} under {d.edition_id} "
+                  f"({d.status})", file=sys.stderr)
+            continue
+        figures.save(design_figure(d, beams[d.beam_id]),
+                     folder / f"{_safe(d.beam_id)}_{_safe(d.edition_id)}_design.{kind}")
+        written += 1
+    print(f"{PROGRAM}: {written} figure(s) written to {folder}", file=sys.stderr)
 
 
 # --- entry point ------------------------------------------------------------------------------

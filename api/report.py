@@ -47,7 +47,8 @@ STATUS_MARK = {PASS: "✓", FAIL: "✗", "outside scope": "⊘", "no equilibrium
 # short codes of the governing check, by words of its name (first match wins)
 CHECK_CODES = (("flexural strength", "M"), ("minimum strength", "Mmin"),
                ("minimum", "min"), ("maximum", "max"), ("steel ratio", "ρ"),
-               ("net tensile strain", "εt"), ("neutral-axis", "x/d"))
+               ("net tensile strain", "εt"), ("neutral-axis", "x/d"), ("bars fit", "fit"),
+               ("between", "gap"), ("crack control", "crack"))
 SCOPE_CODE = "scope"
 NARROW = 100  # below this many columns, tables take their compact layout
 
@@ -299,6 +300,7 @@ def beam_panel(outcome: Outcome) -> Group:
         parts += [Text(""), checks_table(shown, units, a.edition_id,
                                          "checks" if a.checks else "scope",
                                          notation=outcome.notation)]
+    parts += [Text(f"note: {remark}", style="dim") for remark in a.remarks]
     parts.append(_verdict(outcome))
     upper = _upper_layers_line(a)
     if upper:

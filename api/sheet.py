@@ -12,6 +12,7 @@ headless Chromium where it is installed. Imported only when a sheet is asked for
 from __future__ import annotations
 
 import html
+import re
 import shutil
 import subprocess
 import tempfile
@@ -45,6 +46,7 @@ th, td { text-align: left; vertical-align: top; padding: 0.6mm 1.5mm;
          border-bottom: 0.5pt solid #ccc; }
 th { border-bottom: 1pt solid #555; font-weight: 600; }
 td.n { text-align: right; white-space: nowrap; }
+.id { white-space: nowrap; }
 .facts td:first-child { color: #555; width: 38%; }
 .caution { border: 1.5pt solid #b8860b; background: #fff8e1; padding: 2mm 3mm;
            margin: 3mm 0; }
@@ -212,7 +214,7 @@ def _edition_part(outcome: Outcome, figures: bool) -> str:
     parts += [f"<h4>{'checks' if a.checks else 'scope'}</h4>",
               _checks(shown, outcome, units, a.edition_id),
               f'<p class="governing">▶ {_e(beam.id)} under {_e(a.edition_id)}: '
-              f"{_e(a.summary())}</p></div>"]
+              f"{_unbroken_ids(_e(a.summary()))}</p></div>"]
     return "".join(parts)
 
 
@@ -322,3 +324,12 @@ def screenshot(page: str, size: tuple[int, int] = (1000, 1400)) -> bytes:
         _headless(browser, source, f"--screenshot={target}",
                   f"--window-size={size[0]},{size[1]}")
         return target.read_bytes()
+
+
+_EDITION_REF = re.compile(r"\(([^()\s]+) ([^()]+)\)")
+
+
+def _unbroken_ids(text: str) -> str:
+    """Keep a cited "(edition clause)" on one line, so a printed sheet never splits an
+    edition id such as aci318-19 at its hyphen."""
+    return _EDITION_REF.sub(r'<span class="id">(\1 \2)</span>', text)

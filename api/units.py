@@ -18,6 +18,7 @@ from functools import lru_cache
 from typing import Any
 
 from clausewise.provisions import ClausewiseError
+from clausewise.provisions.bars import CANADIAN_SIZES, US_SIZES
 from clausewise.provisions.beam import UnitSystem
 
 
@@ -247,19 +248,9 @@ def _check_sign(value: float, sign: str, kind: Kind, shown: str) -> None:
 
 # --- bars --------------------------------------------------------------------------------
 
-MM2_PER_IN2 = 645.16  # (25.4 mm)², exact
-
-# ASTM A615 inch-pound bar sizes: nominal diameter (in) and area (in²), from memory
-US_BARS = {
-    3: (0.375, 0.11), 4: (0.500, 0.20), 5: (0.625, 0.31), 6: (0.750, 0.44), 7: (0.875, 0.60),
-    8: (1.000, 0.79), 9: (1.128, 1.00), 10: (1.270, 1.27), 11: (1.410, 1.56),
-    14: (1.693, 2.25), 18: (2.257, 4.00),
-}
-# CSA G30.18 metric bar designations: nominal diameter (mm) and area (mm²), from memory
-CANADIAN_BARS = {
-    10: (11.3, 100.0), 15: (16.0, 200.0), 20: (19.5, 300.0), 25: (25.2, 500.0),
-    30: (29.9, 700.0), 35: (35.7, 1000.0), 45: (43.7, 1500.0), 55: (56.4, 2500.0),
-}
+# Bar sizes come from the one catalogue (clausewise.provisions.bars).
+US_BARS = US_SIZES
+CANADIAN_BARS = CANADIAN_SIZES
 MAX_BARS = 200  # in one group; more is a typing slip
 DIAMETER_RANGE = (3.0, 60.0)  # mm: outside this a bar size is a slip of the unit
 BARS_EXPECTED = ("bars such as '4 x 25 mm', '3 #8', '2 N20 + 2 N16', '4 T16' or '3 25M' "
@@ -302,13 +293,13 @@ def _bars(text: str, system: UnitSystem) -> Bars:
             if size not in US_BARS:
                 raise QuantityError(text, BARS_EXPECTED, "US sizes are "
                                     + ", ".join(f"#{s}" for s in US_BARS))
-            diameter, area = US_BARS[size][0] * 25.4, US_BARS[size][1] * MM2_PER_IN2
+            diameter, area = US_BARS[size].diameter, US_BARS[size].area
         elif match["ca"] is not None:
             size = int(match["ca"])
             if size not in CANADIAN_BARS:
                 raise QuantityError(text, BARS_EXPECTED, "metric M sizes are "
                                     + ", ".join(f"{s}M" for s in CANADIAN_BARS))
-            diameter, area = CANADIAN_BARS[size]
+            diameter, area = CANADIAN_BARS[size].diameter, CANADIAN_BARS[size].area
         else:
             if match["dia"] is not None:
                 diameter = float(match["dia"])

@@ -22,6 +22,7 @@ Contents (clause numbers of 318-14 and 318-19; 318-11 numbers its own)
                       Grade 420 εty = 0.002: 318-14 and 318-11), 9.5.1.1 φMn ≥ Mu
   demand ............ 5.3.1 load combinations
   limits ............ 9.6.1.2-3 minimum steel, 9.3.3.1 net tensile strain
+  detailing ......... 25.2.1-2 bar spacing, 24.3.2 crack control, 20.5.1.3.1 cover
 """
 
 from __future__ import annotations
@@ -39,6 +40,7 @@ from clausewise.provisions import (
     Check,
     Clause,
     Context,
+    DetailingLimits,
     EditionInfo,
     ElasticPlastic,
     Envelope,
@@ -53,6 +55,7 @@ from clausewise.provisions import (
     Resistance,
     Sense,
     Shape,
+    aggregate_size,
     choose,
     clamp,
     cylinder_strength,
@@ -66,6 +69,7 @@ from clausewise.provisions import (
     ratio_parameter,
     smallest_of,
     sqrt,
+    stirrup_diameter,
 )
 
 INCH_POUND = "inch-pound"
@@ -93,6 +97,13 @@ CLAUSES_2014: Mapping[str, str] = MappingProxyType({
     "flange_in_tension": "9.6.1.2",
     "minimum_steel_waiver": "9.6.1.3",
     "beam_strain": "9.3.3.1",
+})
+
+# Detailing clauses of 318-14 and 318-19 (318-11 numbers its own): spacing, layers, crack
+# control, cover.
+DETAILING_CLAUSES_2014: Mapping[str, str] = MappingProxyType({
+    "bar_spacing": "25.2.1", "layer_spacing": "25.2.2", "crack_control": "24.3.2",
+    "cover": "20.5.1.3.1",
 })
 
 # Bars of Grade 420 (SI) or Grade 60 (inch-pound), MPa, and how near fy must be to count.
@@ -399,4 +410,52 @@ class Aci318:
                       per_beam(0.5 * np.asarray(beam.web_width, float)), Sense.AT_LEAST,
                       self.clause("isolated_tee", "isolated T-beam flange"), "hf", "mm",
                       "the beam is marked isolated: its flange is not part of a slab")]
+
+    # --- detailing (25.2.1-2 spacing, 24.3.2 crack control, 20.5.1.3.1 cover) -------
+
+    detailing_clauses: ClassVar[Mapping[str, str]] = DETAILING_CLAUSES_2014
+
+    def detailing_clause(self, topic: str, title: str) -> Clause:
+        return self.info.clause(self.detailing_clauses[topic], title)
+
+    @hookimpl
+    def detailing_limits(self, beam: Beam, diameter: Any, params: Parameters,
+                         context: Context) -> DetailingLimits:
+        """Clear spacing the largest of db, 25 mm (1 in.) and 4/3 of the aggregate; layers
+        25 mm (1 in.) apart; crack-control spacing with fs = 2/3 fy; cover 40 mm (1.5 in.)
+        for beams not exposed to weather or earth (from memory)."""
+        ip = context.form == INCH_POUND
+        least = 25.4 if ip else 25.0
+        spacing = self.detailing_clause("bar_spacing", "clear spacing of parallel bars")
+        layers = self.detailing_clause("layer_spacing", "clear distance between layers")
+        crack = self.detailing_clause("crack_control", "spacing of bars for crack control")
+        aggregate = aggregate_size(beam)
+        cover_value = 1.5 * 25.4 if ip else 40.0
+        cover_to_bar = np.asarray(beam.cover if beam.cover is not None else cover_value,
+                                  float) + stirrup_diameter(beam)
+        fs = 2.0 / 3.0 * np.asarray(beam.yield_strength, float)  # fs may be taken as 2/3 fy
+        if ip:
+            ratio = 40_000.0 / psi(fs)
+            limits = [Candidate("15(40 000/fs) − 2.5cc", per_beam((15 * ratio - 2.5 * cover_to_bar
+                                                               / 25.4) * 25.4), crack),
+                      Candidate("12(40 000/fs)", per_beam(12 * ratio * 25.4), crack)]
+        else:
+            ratio = 280.0 / fs
+            limits = [Candidate("380(280/fs) − 2.5cc", per_beam(380 * ratio - 2.5 * cover_to_bar),
+                                crack),
+                      Candidate("300(280/fs)", per_beam(300 * ratio), crack)]
+        return DetailingLimits(
+            Envelope.largest("least clear spacing in a layer", "s_min", [
+                Candidate("db", diameter, spacing),
+                Candidate("1 in." if ip else "25 mm", least, spacing),
+                Candidate("4/3 of the aggregate size", per_beam(4 / 3 * np.asarray(aggregate,
+                                                                                 float)),
+                          spacing)], "mm"),
+            Envelope.largest("least clear distance between layers", "s_v", [
+                Candidate("1 in." if ip else "25 mm", least, layers)], "mm"),
+            Envelope.smallest("largest bar spacing for crack control", "s_max", limits, "mm"),
+            Factor("cover", cover_value, self.detailing_clause(
+                "cover", "cover of beams not exposed to weather or earth"),
+                "1.5 in." if ip else "40 mm", "mm"))
+
 

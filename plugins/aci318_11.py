@@ -16,6 +16,7 @@ Contents
                       10.3.4 tension-controlled limit, 9.1.1 φMn ≥ Mu
   demand ............ 9.2.1 load combinations
   limits ............ 10.5.1-3 minimum steel, 10.3.5 net tensile strain of beams
+  detailing ......... 7.6.1-2 bar spacing, 10.6.4 crack control, 7.7.1 cover
 """
 
 from __future__ import annotations
@@ -82,3 +83,10 @@ class Aci318_11(Aci318):
 
 
 plugin = Aci318_11()
+
+# Detailing clauses of 318-11: spacing limits (7.6.1, 7.6.2), crack control (10.6.4),
+# cover (7.7.1), from memory.
+Aci318_11.detailing_clauses = MappingProxyType({
+    "bar_spacing": "7.6.1", "layer_spacing": "7.6.2", "crack_control": "10.6.4",
+    "cover": "7.7.1",
+})

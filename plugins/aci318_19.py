@@ -13,6 +13,7 @@ Contents
   strength .......... 21.2.2 φ by net tensile strain (εty + 0.003), 9.5.1.1 φMn ≥ Mu
   demand ............ 5.3.1 load combinations
   limits ............ 9.6.1.2-3 minimum steel, 9.3.3.1 net tensile strain
+  detailing ......... 25.2.1-2 bar spacing, 24.3.2 crack control, 20.5.1.3.1 cover
 """
 
 from __future__ import annotations

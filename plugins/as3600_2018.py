@@ -13,6 +13,7 @@ Contents
   strength .......... Table 2.2.2 φ from kuo, 2.2.2 φMuo ≥ M*
   demand ............ AS/NZS 1170.0 4.2.2 load combinations
   limits ............ 8.1.6.1 minimum strength 1.2 Mcr, 8.1.5 kuo limit
+  detailing ......... bar spacing (common practice), 8.6.1 crack control, cover
 """
 
 from __future__ import annotations
@@ -25,9 +26,12 @@ import numpy as np
 from clausewise.provisions import (
     Beam,
     BeamDataError,
+    Candidate,
     Check,
+    Clause,
     Context,
     Continuity,
+    DetailingLimits,
     EditionInfo,
     ElasticPlastic,
     Envelope,
@@ -42,6 +46,7 @@ from clausewise.provisions import (
     Regime,
     Resistance,
     Sense,
+    aggregate_size,
     choose,
     clamp,
     cylinder_strength,
@@ -282,3 +287,29 @@ def ductility_limits(beam: Beam, response: Any, params: Parameters,
                   params.value("kuo_limit"), Sense.AT_MOST, params["kuo_limit"].clause, "kuo",
                   "", "kuo = ku/do, do the depth of the extreme tension layer")]
 
+
+
+# --- detailing (spacing of bars: common practice, 8.6.1 crack control, cover) ----------
+
+@hookimpl
+def detailing_limits(beam: Beam, diameter: Any, params: Parameters,
+                     context: Context) -> DetailingLimits:
+    """Clear distance between bars: not recalled with confidence from the standard, so the
+    common-practice value max(db, 1.5 × aggregate size, 25 mm). Crack control for beams
+    (8.6.1): tension bars near the tension face at most 300 mm apart, centre to centre
+    (from memory; the fuller rule ties steel stress to bar size). Default cover 30 mm:
+    common practice for interior beams (Table 4.10.3.2 sets it by exposure)."""
+    practice = Clause("common practice", "clear distance between bars (not the clause)",
+                      EDITION.id)
+    aggregate = np.asarray(aggregate_size(beam), float)
+    terms = [Candidate("db", diameter, practice),
+             Candidate("1.5 × aggregate size", per_beam(1.5 * aggregate), practice),
+             Candidate("25 mm", 25.0, practice)]
+    return DetailingLimits(
+        Envelope.largest("least clear distance between bars", "s_min", terms, "mm"),
+        Envelope.largest("least clear distance between layers", "s_v", terms, "mm"),
+        Envelope.smallest("largest bar spacing for crack control", "s_max", [
+            Candidate("300 mm", 300.0, clause("8.6.1", "crack control of beams"))], "mm"),
+        Factor("cover", 30.0, Clause("common practice", "cover of interior beams; Table "
+                                     "4.10.3.2 sets it by exposure", EDITION.id),
+               "30 mm", "mm"))

@@ -13,6 +13,7 @@ Contents
   strength .......... 8.4 material resistance factors, 8.1.3 Mr ≥ Mf
   demand ............ national building code load combinations (NBC 4.1.3.2)
   limits ............ 10.5.1.2 minimum steel, 10.5.2 c/d limit
+  detailing ......... 6.6.5.2 bar spacing, 10.6.1 crack control z, cover
 """
 
 from __future__ import annotations
@@ -24,9 +25,11 @@ import numpy as np
 
 from clausewise.provisions import (
     Beam,
+    Candidate,
     Check,
     Context,
     Continuity,
+    DetailingLimits,
     EditionInfo,
     ElasticPlastic,
     Envelope,
@@ -40,6 +43,7 @@ from clausewise.provisions import (
     Regime,
     Resistance,
     Sense,
+    aggregate_size,
     cylinder_strength,
     dead_alone_and_with_live,
     factored_moment,
@@ -51,6 +55,7 @@ from clausewise.provisions import (
     ratio_parameter,
     smallest_of,
     sqrt,
+    stirrup_diameter,
 )
 
 EDITION = EditionInfo(
@@ -249,3 +254,34 @@ def ductility_limits(beam: Beam, response: Any, params: Parameters,
                   f"c from the factored forces; d to the tension steel centroid; "
                   f"limit {k:g}/({k:g} + fy)")]
 
+
+
+# --- detailing (6.6.5.2 spacing of bars, 10.6.1 crack control, cover) -----------------
+
+@hookimpl
+def detailing_limits(beam: Beam, diameter: Any, params: Parameters,
+                     context: Context) -> DetailingLimits:
+    """Clear distance the greatest of 1.4 db, 1.4 × the aggregate size and 30 mm (Annex A
+    / 6.6.5.2, carried from CSA A23.1). Crack control (10.6.1): z = fs (dc A)^(1/3) ≤
+    30 000 N/mm for interior exposure with fs = 0.6 fy; with A = 2 dc s per bar this is
+    s ≤ z³ / (2 fs³ dc²). Default cover 30 mm for interior beams (CSA A23.1 Table 17,
+    not recalled with confidence: common practice); all from memory."""
+    spacing = clause("6.6.5.2", "clear distance between parallel bars")
+    aggregate = np.asarray(aggregate_size(beam), float)
+    terms = [Candidate("1.4 db", per_beam(1.4 * np.asarray(diameter, float)), spacing),
+             Candidate("1.4 × aggregate size", per_beam(1.4 * aggregate), spacing),
+             Candidate("30 mm", 30.0, spacing)]
+    cover_value = 30.0
+    dc = (np.asarray(beam.cover if beam.cover is not None else cover_value, float)
+          + stirrup_diameter(beam) + np.asarray(diameter, float) / 2)
+    fs = 0.6 * np.asarray(beam.yield_strength, float)
+    z = 30_000.0
+    crack = clause("10.6.1", "crack control parameter z, interior exposure")
+    return DetailingLimits(
+        Envelope.largest("least clear distance between bars", "s_min", terms, "mm"),
+        Envelope.largest("least clear distance between layers", "s_v", terms, "mm"),
+        Envelope.smallest("largest bar spacing for crack control", "s_max", [
+            Candidate("z³/(2 fs³ dc²), z = 30 000 N/mm, fs = 0.6 fy",
+                      per_beam(z**3 / (2 * fs**3 * dc**2)), crack)], "mm"),
+        Factor("cover", cover_value, clause("A23.1 Table 17", "cover of interior beams "
+                                            "(common practice)"), "30 mm", "mm"))

@@ -17,6 +17,7 @@ Contents
   demand ............ EN 1990 6.10 fundamental combination, or 6.10a/b by choice
   limits ............ 9.2.1.1(1) minimum steel, 9.2.1.1(3) maximum steel, 5.5(4) xu/d
                       where moments are redistributed (always, by choice)
+  detailing ......... 8.2(2) bar spacing, 4.4.1 cover (7.3.3 crack control: not checked)
 """
 
 from __future__ import annotations
@@ -31,11 +32,13 @@ from clausewise.provisions import (
     Beam,
     Bending,
     BilinearHardening,
+    Candidate,
     Check,
     ClassTable,
     Combination,
     Context,
     Continuity,
+    DetailingLimits,
     EditionInfo,
     ElasticPlastic,
     Envelope,
@@ -51,6 +54,7 @@ from clausewise.provisions import (
     Regime,
     Resistance,
     Sense,
+    aggregate_size,
     choose,
     cylinder_strength,
     factored_moment,
@@ -464,3 +468,27 @@ def ductility_limits(beam: Beam, section: Any, response: Any, params: Parameters
         f"0.0014/εcu2); {cited}")]
 
 
+
+# --- detailing (8.2 spacing of bars, 7.3.3 crack control, 4.4.1 cover) ---------------
+
+@hookimpl
+def detailing_limits(beam: Beam, diameter: Any, params: Parameters,
+                     context: Context) -> DetailingLimits:
+    """Clear distance max(k1·φ, dg + k2, 20 mm) with the recommended k1 = 1, k2 = 5 mm,
+    horizontally and vertically (8.2(2)). Crack control without direct calculation
+    (7.3.3, Table 7.3N) needs the steel stress under the quasi-permanent load, which
+    the beam does not give: not checked. Default cover cnom = cmin + Δcdev (4.4.1):
+    cmin,dur 15 mm (XC1, structural class S4, Table 4.4N) + 10 mm; all from memory."""
+    spacing = clause("8.2(2)", "clear distance between bars (recommended k1 = 1, k2 = 5 mm)")
+    aggregate = np.asarray(aggregate_size(beam), float)
+    terms = [Candidate("k1·φ", diameter, spacing),
+             Candidate("dg + k2", per_beam(aggregate + 5.0), spacing),
+             Candidate("20 mm", 20.0, spacing)]
+    return DetailingLimits(
+        Envelope.largest("least clear distance between bars", "s_min", terms, "mm"),
+        Envelope.largest("least clear distance between layers", "s_v", terms, "mm"),
+        None,
+        Factor("cnom", 25.0, clause("4.4.1", "nominal cover cmin + Δcdev"),
+               "cmin,dur 15 mm (XC1, S4) + Δcdev 10 mm", "mm"),
+        "EN 1992-1-1 7.3.3 (Table 7.3N) ties bar spacing to the steel stress under the "
+        "quasi-permanent load, which the beam file does not give")

@@ -16,6 +16,7 @@ Contents
   strength .......... 36.4.2 partial factors on materials; 38.1 note, xu,max
   demand ............ 36.4.1 and Table 18 load factors
   limits ............ 26.5.1.1 (a) minimum and (b) maximum tension steel, 38.1 xu ≤ xu,max
+  detailing ......... 26.3.2 bar spacing, 26.3.3(b) largest spacing, 26.4.2 cover
 """
 
 from __future__ import annotations
@@ -34,6 +35,7 @@ from clausewise.provisions import (
     Combination,
     Context,
     Continuity,
+    DetailingLimits,
     EditionInfo,
     Envelope,
     Factor,
@@ -48,6 +50,7 @@ from clausewise.provisions import (
     Resistance,
     Sense,
     Shape,
+    aggregate_size,
     choose,
     cube_strength,
     factored_moment,
@@ -420,3 +423,34 @@ def ductility_limits(beam: Beam, response: Any, params: Parameters,
                             f"{params.value('max_steel_ratio'):g} bw D"))
     return checks
 
+
+
+# --- detailing (26.3.2 spacing of bars, 26.3.3 maximum distance, 26.4.2 cover) -------
+
+@hookimpl
+def detailing_limits(beam: Beam, diameter: Any, params: Parameters,
+                     context: Context) -> DetailingLimits:
+    """Horizontal distance between bars at least the larger bar diameter and the aggregate
+    size + 5 mm; between layers at least 15 mm, 2/3 of the aggregate size and the larger
+    bar diameter (26.3.2). Largest clear distance between tension bars without
+    redistribution (26.3.3(b), Table 15): fy 250 → 300 mm, 415 → 180, 500 → 150,
+    linear between (our reading), checked as clear distance + db centre to centre.
+    Default cover 20 mm, mild exposure (26.4.2, Table 16); all from memory."""
+    spacing = clause("26.3.2", "least distance between bars")
+    aggregate = np.asarray(aggregate_size(beam), float)
+    db = np.asarray(diameter, float)
+    table = clause("26.3.3(b), Table 15", "largest clear distance between tension bars")
+    clear_max = np.interp(np.asarray(beam.yield_strength, float), [250.0, 415.0, 500.0],
+                          [300.0, 180.0, 150.0])
+    return DetailingLimits(
+        Envelope.largest("least clear distance between bars", "s_min", [
+            Candidate("bar diameter", diameter, spacing),
+            Candidate("aggregate size + 5 mm", per_beam(aggregate + 5.0), spacing)], "mm"),
+        Envelope.largest("least clear distance between layers", "s_v", [
+            Candidate("15 mm", 15.0, spacing),
+            Candidate("2/3 of the aggregate size", per_beam(2 / 3 * aggregate), spacing),
+            Candidate("bar diameter", diameter, spacing)], "mm"),
+        Envelope.smallest("largest bar spacing for crack control", "s_max", [
+            Candidate("Table 15 clear distance + db", per_beam(clear_max + db), table)], "mm"),
+        Factor("cover", 20.0, clause("26.4.2, Table 16", "nominal cover, mild exposure"),
+               "20 mm", "mm"))

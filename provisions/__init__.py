@@ -50,6 +50,9 @@ _EXPORTS = {
     "PluginError": "clausewise.provisions.registry",
     "Registry": "clausewise.provisions.registry",
     "default_registry": "clausewise.provisions.registry",
+    "DetailingLimits": "clausewise.provisions.detailing",
+    "aggregate_size": "clausewise.provisions.detailing",
+    "stirrup_diameter": "clausewise.provisions.detailing",
     "Bound": "clausewise.provisions.vocabulary",
     "Candidate": "clausewise.provisions.vocabulary",
     "Check": "clausewise.provisions.vocabulary",
@@ -118,6 +121,7 @@ if TYPE_CHECKING:
         dead_alone_and_with_live,
         factored_moment,
     )
+    from clausewise.provisions.detailing import DetailingLimits, aggregate_size, stirrup_diameter
     from clausewise.provisions.engine import (
         Assessment,
         assess,
@@ -173,6 +177,9 @@ if TYPE_CHECKING:
     )
 
 __all__ = [
+    "DetailingLimits",
+    "aggregate_size",
+    "stirrup_diameter",
     "Actions",
     "Assessment",
     "Beam",

@@ -58,10 +58,23 @@ class UnitSystem(StrEnum):
 
 @dataclass(frozen=True)
 class Layer:
-    """Bars at one depth: ``area`` (mm²) at ``depth`` (mm) from the compression face."""
+    """Bars at one depth: ``area`` (mm²) at ``depth`` (mm) from the compression face.
+
+    A layer given by bar notation also keeps ``count`` (bars side by side),
+    ``diameter`` (the largest bar, mm) and ``bars_width`` (the sum of the bars'
+    diameters, mm), which the detailing checks need; a layer given only as an area
+    leaves them ``None`` and is not checked for fit or spacing.
+    """
 
     area: Value
     depth: Value
+    count: Value | None = None
+    diameter: Value | None = None
+    bars_width: Value | None = None
+
+    @property
+    def has_bars(self) -> bool:
+        return self.count is not None and self.diameter is not None
 
 
 @dataclass(frozen=True)
@@ -145,6 +158,11 @@ class Beam:
     statically_determinate: bool = False
     isolated: bool = False  # a T whose flange is not part of a slab
     title: str = ""
+    # detailing inputs (mm); None: the stated defaults of clausewise.provisions.detailing
+    cover: Value | None = None  # clear cover to the stirrups (links)
+    stirrup_diameter: Value | None = None
+    aggregate_size: Value | None = None  # nominal maximum size of the coarse aggregate
+    bar_sizes: tuple[str, ...] = ()  # for design: the sizes allowed; (): the whole catalogue
 
     @property
     def flanged(self) -> bool:
@@ -207,8 +225,8 @@ def field_roles(cls: type) -> tuple[tuple[str, str], ...]:
             continue
         hint = hints[f.name]
         inner = [a for a in get_args(hint) if a is not type(None)] or [hint]
-        if get_origin(hint) is tuple:
-            role = "group"
+        if get_origin(hint) is tuple:  # layers are a group; a tuple of words is a word
+            role = "group" if is_dataclass(get_args(hint)[0]) else "word"
         elif hint is Any or inner == [Any]:
             role = "optional" if f.default is None else "number"
         else:

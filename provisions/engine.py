@@ -24,6 +24,7 @@ from clausewise.core import (
 )
 from clausewise.provisions.answers import MaterialModel, Parameters, Resistance
 from clausewise.provisions.beam import Beam, Context, UnitSystem
+from clausewise.provisions.detailing import detailing_checks
 from clausewise.provisions.registry import (
     Edition,
     EditionError,
@@ -111,6 +112,7 @@ class Evaluation:
     design_resistance: Factor | None = None
     demand: Envelope | None = None
     checks: tuple[Check, ...] = ()
+    remarks: tuple[str, ...] = ()  # what was not checked and why (detailing of areas)
 
 
 def resolve_form(edition: Edition, beam: Beam, form: str | None) -> tuple[str, str]:
@@ -187,9 +189,11 @@ def evaluate(beam: Beam, edition: Edition, context: Context) -> Evaluation:
                                             params, context)
     checks += edition.ductility_limits(beam, section, response, params, context)
     checks += edition.additional_checks(beam, section, response, params, context)
+    detailing, remarks = detailing_checks(beam, edition, params, context)
+    checks += detailing
     return replace(result, concrete=concrete, steel=steel, section=section, response=response,
                    resistance=resistance, design_resistance=design_resistance, demand=demand,
-                   checks=tuple(checks))
+                   checks=tuple(checks), remarks=tuple(remarks))
 
 
 def _all_passed(checks: tuple[Check, ...]) -> Any:
@@ -233,6 +237,7 @@ class Assessment:
     section: SectionView | None = None
     caution: str = CAUTION
     topics: tuple[TopicAnswer, ...] = ()  # which layer answered each hook, which wrapped it
+    remarks: tuple[str, ...] = ()  # what was not checked and why
 
     @property
     def all_checks(self) -> tuple[Check, ...]:
@@ -306,6 +311,7 @@ def assess(beam: Beam, edition: str | Edition, *, form: str | None = None,
         design_resistance=ev.design_resistance, demand=ev.demand, checks=ev.checks,
         situation=situation, concrete_law=ev.concrete.law if ev.concrete else None,
         section=ev.section, topics=tuple(trail.values()),
+        remarks=ev.remarks,
     )
 
 

@@ -61,6 +61,7 @@ read once, when the edition is registered)::
       -> concrete_law, steel_law -> [core solves the section]
       -> resistance_factor -> design_actions
       -> minimum_reinforcement, ductility_limits, additional_checks
+      -> detailing_limits (layers given by bars: fit, layer and crack spacing)
       -> governing check = highest utilisation
 """
 
@@ -75,6 +76,7 @@ import pluggy
 
 from clausewise.provisions.answers import EditionInfo, MaterialModel, Parameters, Resistance
 from clausewise.provisions.beam import Beam, Context
+from clausewise.provisions.detailing import DetailingLimits
 from clausewise.provisions.vocabulary import Check, Envelope, Parameter
 
 PROJECT = "clausewise"
@@ -309,6 +311,22 @@ def additional_checks(beam: Beam, section: SectionView, response: SolvedSection,
     """
 
 
+# --- detailing -----------------------------------------------------------------------
+
+def detailing_limits(beam: Beam, diameter: Any, params: Parameters,
+                     context: Context) -> Any:
+    """Return ``DetailingLimits`` (``clausewise.provisions.detailing``) for bars of
+    ``diameter`` (mm; an array over a batch).
+
+    ``clear_in_layer`` / ``clear_between_layers``: least clear distances between
+    parallel bars as ``Envelope.largest`` of the rule's terms (db, an absolute least,
+    a multiple of the aggregate size: ``detailing.aggregate_size(beam)``);
+    ``max_spacing``: the largest centre-to-centre spacing of the tension bars for crack
+    control as ``Envelope.smallest``, or ``None`` with ``crack_note`` saying why;
+    ``cover``: the default cover to the stirrups as a ``Factor``. Optional: an edition
+    that does not answer leaves bars unchecked for fit, and the assessment says so.
+    """
+
 
 
 # --- the table: each hook declared once ---------------------------------------------------
@@ -356,6 +374,7 @@ HOOKS: tuple[Hook, ...] = (
     Hook("minimum_reinforcement", Check, many=True),
     Hook("ductility_limits", Check, many=True),
     Hook("additional_checks", Check, many=True, every_layer=True, topic=False),
+    Hook("detailing_limits", DetailingLimits, may_return_none=True, topic=False),
 )
 """Every hook, in the order the engine calls them."""
 

@@ -466,6 +466,19 @@ class Edition:
         return list(self.ask("additional_checks", beam=beam, section=section,
                              response=response, params=params, context=context))
 
+    def detailing_limits(self, beam: Beam, diameter: Any, params: Parameters,
+                         context: Context) -> Any:
+        """The edition's ``DetailingLimits`` for bars of ``diameter`` mm, or None where no
+        layer answers."""
+        from clausewise.provisions.detailing import senseless
+
+        limits = self.ask("detailing_limits", beam=beam, diameter=diameter, params=params,
+                          context=context)
+        problem = senseless(limits) if limits is not None else ""
+        if problem:
+            raise PluginError(f"edition {self.id!r}: hook detailing_limits answered {problem}")
+        return limits
+
     # --- who answers what ---------------------------------------------------------------
     def implementers(self, hook: str) -> list[str]:
         """Which layers implement a hook, topmost first (replacing or wrapping)."""

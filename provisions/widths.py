@@ -23,7 +23,7 @@ from typing import Any
 import numpy as np
 
 from clausewise.provisions.beam import Beam, Shape
-from clausewise.provisions.vocabulary import Bound, Candidate, Clause, Envelope
+from clausewise.provisions.vocabulary import Bound, Candidate, Clause, Envelope, per_beam
 
 Value = Any
 SEPARATE = "bw + overhangs, each side by its own smallest limit"
@@ -93,7 +93,7 @@ def overhangs(rules: Sequence[OverhangRule], sides: Sequence[str]) -> tuple[Over
                                                for r in applying]))
         index = np.argmin(stack, axis=0)
         width = np.take_along_axis(stack, index[None, ...], axis=0)[0]
-        found.append(Overhang(side, _out(width), index if index.ndim else int(index),
+        found.append(Overhang(side, per_beam(width), index if index.ndim else int(index),
                               applying))
     return tuple(found)
 
@@ -153,7 +153,7 @@ def overhang_envelope(beam: Beam, rules: Sequence[OverhangRule],
             total = bw + sum(np.asarray(v, float) for v in rule.per_side)
             uniform.append(total)
             where = "each side" if len(sides) == 2 else "the slab side"
-            candidates.append(Candidate(f"bw + {rule.label} on {where}", _out(total),
+            candidates.append(Candidate(f"bw + {rule.label} on {where}", per_beam(total),
                                         rule.clause, rule.basis))
     limited = overhangs(rules, sides)
     if sides and len(limited) == len(sides):
@@ -196,7 +196,7 @@ def _separate(overhangs: Sequence[Overhang], total: Value) -> Candidate:
         cited = [o.rules[i].clause for o in overhangs
                  for i in sorted(set(np.asarray(o.governing).ravel().tolist()))]
         basis = "per beam"
-    return Candidate(SEPARATE, _out(np.asarray(total, float)), _joined(cited), basis)
+    return Candidate(SEPARATE, per_beam(np.asarray(total, float)), _joined(cited), basis)
 
 
 def _joined(clauses: Sequence[Clause]) -> Clause:
@@ -206,7 +206,3 @@ def _joined(clauses: Sequence[Clause]) -> Clause:
     refs = " / ".join(dict.fromkeys(c.ref for c in unique))
     editions = " + ".join(dict.fromkeys(c.edition for c in unique))
     return Clause(refs, "each overhang by its own smallest limit", editions)
-
-
-def _out(value: Value) -> Value:
-    return value if np.ndim(value) else float(value)

@@ -8,6 +8,7 @@ from __future__ import annotations
 
 import importlib.metadata
 import textwrap
+from dataclasses import replace
 
 import pytest
 from hypothesis import given, settings
@@ -282,7 +283,14 @@ def test_hook_call_order_of_one_assessment():
         "steel_law", "resistance_factor", "design_actions", "minimum_reinforcement",
         "ductility_limits", "additional_checks",
     ]
-    assert called == [hook.name for hook in hookspecs.HOOKS][1:]  # the table is in call order
+    # detailing is asked only for layers given as bars (count and diameter)
+    beam = floor_beam()
+    with_bars = replace(beam, tension=(replace(beam.tension[0], count=4, diameter=25.0,
+                                               bars_width=100.0),))
+    with answers_trail() as trail:
+        assess(with_bars, edition)
+    assert list(trail) == [*called, "detailing_limits"]
+    assert list(trail) == [hook.name for hook in hookspecs.HOOKS][1:]  # the table's order
 
 
 # --- loading only some editions ---------------------------------------------------------

@@ -118,7 +118,7 @@ def _beam_id(raw: Any) -> str | None:
     return None
 
 
-def _schedule(data: dict[str, Any], source: str, base: Path) -> Schedule:
+def _schedule(data: dict[str, Any], source: str, base: Path, design: bool = False) -> Schedule:
     project, header_problems = _header(data, source, base)
     beams = data.get("beam")
     if not beams:
@@ -154,7 +154,7 @@ def _schedule(data: dict[str, Any], source: str, base: Path) -> Schedule:
         first_seen[model.id] = index
         system = _SYSTEMS[model.units] if model.units else (
             project.unit_system if project else UnitSystem.SI)
-        reader = _BeamReader(model, system)
+        reader = _BeamReader(model, system, design)
         beam = reader.read()
         if not declared and model.units is None and reader.defaulted:
             defaulted[model.id] = reader.defaulted
@@ -213,13 +213,14 @@ def _collector_paused() -> Iterator[None]:
             gc.enable()
 
 
-def parse_schedule(text: str, source: str = "<text>") -> Schedule:
-    """Read a schedule from TOML text; annex paths are taken relative to ``source``'s folder."""
+def parse_schedule(text: str, source: str = "<text>", *, design: bool = False) -> Schedule:
+    """Read a schedule from TOML text; annex paths are taken relative to ``source``'s folder.
+    With ``design``, beams may leave out their tension bars (design chooses them)."""
     with _collector_paused():
-        return _schedule(_toml_loads(text, source), source, Path(source).parent)
+        return _schedule(_toml_loads(text, source), source, Path(source).parent, design)
 
 
-def load_schedule(path: str | Path) -> Schedule:
+def load_schedule(path: str | Path, *, design: bool = False) -> Schedule:
     """Read a schedule file. Bad beams become problems; the others load."""
     path = Path(path)
     try:
@@ -234,4 +235,4 @@ def load_schedule(path: str | Path) -> Schedule:
         text = raw.decode("utf-8")
     except UnicodeDecodeError as exc:
         raise InputError(f"{path}: not UTF-8 text (bad byte at position {exc.start})") from exc
-    return parse_schedule(text, str(path))
+    return parse_schedule(text, str(path), design=design)

@@ -229,9 +229,10 @@ class BeamModel(_Model):
         "usual assumption")
     ductility_class: Literal["A", "B", "C", "N", "L"] = Field(
         default="N", description="ductility class of the bars (A, B, C; or N, L)")
-    tension: Annotated[list[LayerModel], Field(min_length=1), _Expect(
+    tension: Annotated[list[LayerModel], _Expect(
         "a list of one or more layers, e.g. [{ bars = '4 x 25 mm', depth = '540 mm' }]")] = \
-        Field(description="tension reinforcement, one table per layer")
+        Field(default_factory=list, description="tension reinforcement, one table per "
+              "layer; leave out only for design, which chooses the bars")
     compression: Annotated[list[LayerModel], _Expect(
         "a list of layers, e.g. [{ bars = '2 x 16 mm', depth = '50 mm' }]")] = Field(
         default_factory=list, description="compression reinforcement, one table per layer")
@@ -243,6 +244,18 @@ class BeamModel(_Model):
         "isolated T, with the limits some editions set on it)")
     moments: MomentsModel | None = Field(
         default=None, description="the actions; leave out for the capacity only")
+    cover: Length | None = Field(
+        default=None, description="clear cover to the stirrups (links); leave out for the "
+        "edition's default")
+    stirrup_diameter: Length | None = Field(
+        default=None, description="diameter of the stirrups (links); default 10 mm (#3 in "
+        "US units)")
+    aggregate_size: Length | None = Field(
+        default=None, description="nominal maximum size of the coarse aggregate; default "
+        "20 mm (3/4 in in US units)")
+    bar_sizes: list[Text] = Field(
+        default_factory=list, description="for design: the bar sizes allowed, e.g. ['16 mm', "
+        "'20 mm', '25 mm'] or ['#6', '#8']; empty: the whole catalogue of the beam's units")
 
 
 class ProjectModel(_Model):

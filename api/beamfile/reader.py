@@ -55,14 +55,17 @@ _SHAPE_TEXT = {(shape, bending): f"{shape}, {bending}" for shape in _SHAPES
 class _BeamReader:
     """Reads one validated beam model, collecting every bad value rather than the first."""
 
-    def __init__(self, model: BeamModel, system: UnitSystem) -> None:
+    def __init__(self, model: BeamModel, system: UnitSystem, design: bool = False) -> None:
         self.model = model
         self.system = system
+        self.design = design  # a design file may leave out the bars
         self.problems: list[tuple[str, str, str]] = []
         self.shown: dict[str, str] = {}
         self.bar_groups: list[tuple[int, float] | None] = []  # per layer, for drawing
         self.defaulted: list[str] = []  # fields whose plain number took the default unit
         self.geometry: tuple[tuple[float, str] | None, ...] = (None, None, None)  # bw, hf, bf
+        self._bars: dict[str, Bars] = {}  # layers given by notation, by field
+        self._texts: dict[str, list[str]] = {}  # shown text of each layer, by group
 
     def problem(self, field: str, value: str, expected: str) -> None:
         self.problems.append((field, value, expected))
@@ -110,9 +113,11 @@ class _BeamReader:
 
     # --- parts --------------------------------------------------------------------------
     def layers(self, name: str, models: list[LayerModel], h: tuple[float, str] | None,
-               tension: bool) -> list[tuple[float, float, str]]:
-        """(area, depth, shown text) per layer; depth from the compression face."""
-        read: list[tuple[float, float, str]] = []
+               tension: bool) -> list[Layer]:
+        """Each layer with its depth from the compression face (and its bars, where given
+        by notation); the shown text goes to ``self.shown``."""
+        read: list[Layer] = []
+        texts: list[str] = []
         symbol = "d" if tension else "d'"
         face = "tension" if tension else "compression"
         for i, layer in enumerate(models, 1):
@@ -121,8 +126,15 @@ class _BeamReader:
             depth = self._layer_depth(layer, field, h, tension, symbol, face)
             if area is not None and depth is not None and h is not None and self._placed(
                     field, layer, depth, h, tension):
-                read.append((area[0], depth[0], f"{area[1]} {depth[1]}"))
-                self.bar_groups.append(area[2])
+                bars = self._bars.pop(field, None)
+                read.append(Layer(area[0], depth[0]) if bars is None else Layer(
+                    area[0], depth[0], bars.count, bars.largest_diameter, bars.side_by_side))
+                texts.append(f"{area[1]} {depth[1]}")
+                self.bar_groups.append(None if bars is None else
+                                       (bars.count, bars.largest_diameter))
+        self._texts[name] = texts
+        if texts:
+            self.shown[f"{name} steel"] = "; ".join(texts)
         return read
 
     def _placed(self, field: str, layer: LayerModel, depth: tuple[float, str],
@@ -177,9 +189,8 @@ class _BeamReader:
                 return None if bf is None else (bf[0], f"flange width ({bf[1]})")
         return bw[0], f"web width ({bw[1]})"
 
-    def _layer_area(self, layer: LayerModel, field: str
-                    ) -> tuple[float, str, tuple[int, float] | None] | None:
-        """(area, shown text, (bar count, largest diameter) when given as bars)."""
+    def _layer_area(self, layer: LayerModel, field: str) -> tuple[float, str] | None:
+        """(area, shown text); bars given by notation are kept for the layer."""
         if (layer.bars is None) == (layer.area is None):
             both = layer.bars is not None
             self.problem(f"{field}.area" if both else field, _text(layer.area) if both else "",
@@ -192,9 +203,9 @@ class _BeamReader:
             except QuantityError as exc:
                 self.problem(f"{field}.bars", exc.value, exc.expected)
                 return None
-            return bars.area, bars.text, (bars.count, bars.largest_diameter)
-        given = self.quantity(layer.area, f"{field}.area", AREA, plausible="steel area")
-        return None if given is None else (*given, None)
+            self._bars[field] = bars
+            return bars.area, bars.text
+        return self.quantity(layer.area, f"{field}.area", AREA, plausible="steel area")
 
     def _layer_depth(self, layer: LayerModel, field: str, h: tuple[float, str] | None,
                      tension: bool, symbol: str, face: str) -> tuple[float, str] | None:
@@ -298,12 +309,17 @@ class _BeamReader:
             self.problem("floor", "", "a floor table with at least the span (or an "
                          "effective_flange_width): a flanged beam needs one for its "
                          "effective flange width")
+        if not m.tension and not self.design:
+            self.problem("tension", "", "a list of one or more layers, e.g. [{ bars = "
+                         "'4 x 25 mm', depth = '540 mm' }] (only design may leave them out)")
         tension = self.layers("tension", m.tension, h, tension=True)
         compression = self.layers("compression", m.compression, h, tension=False)
         self._compression_inside(tension, compression)
-        self.shown["tension steel"] = "; ".join(t for _, _, t in tension)
-        if compression:
-            self.shown["compression steel"] = "; ".join(t for _, _, t in compression)
+        if not m.tension:
+            self.shown["tension steel"] = "to be designed"
+        cover = q(m.cover, "cover", LENGTH, "cover to stirrups")
+        stirrup = q(m.stirrup_diameter, "stirrup_diameter", LENGTH, "stirrup diameter")
+        aggregate = q(m.aggregate_size, "aggregate_size", LENGTH, "aggregate size")
         actions = self.actions()
         determinate = m.statically_determinate
         if determinate is None:
@@ -321,14 +337,15 @@ class _BeamReader:
             id=m.id, shape=_SHAPES[m.shape],
             bending=_FLIPPED[bending] if m.shape == "inverted T" else bending,
             web_width=bw[0], depth=h[0], concrete_strength=fc[0], yield_strength=fy[0],
-            tension=tuple(Layer(a, d) for a, d, _ in tension),
-            compression=tuple(Layer(a, d) for a, d, _ in compression),
+            tension=tuple(tension), compression=tuple(compression),
             flange_thickness=_v(hf), flange_width=_v(bf), layout=layout,
             strength_basis=_BASES[m.strength_basis], steel_modulus=_v(es),
             steel_kind=m.steel_kind or "unstated", ductility_class=m.ductility_class,
             actions=actions,
             unit_system=self.system, statically_determinate=determinate,
             isolated=m.isolated, title=m.title,
+            cover=_v(cover), stirrup_diameter=_v(stirrup), aggregate_size=_v(aggregate),
+            bar_sizes=tuple(m.bar_sizes),
         )
 
     def _flange(self, flanged: bool, bw: tuple[float, str] | None, h: tuple[float, str] | None,
@@ -351,14 +368,14 @@ class _BeamReader:
             self.problem("effective_flange_width", bf[1], f"a flange width at least the web "
                          f"width ({bw[1]})")
 
-    def _compression_inside(self, tension: list[tuple[float, float, str]],
-                            compression: list[tuple[float, float, str]]) -> None:
+    def _compression_inside(self, tension: list[Layer], compression: list[Layer]) -> None:
         if not tension or not compression:
             return
-        d = sum(a * depth for a, depth, _ in tension) / sum(a for a, _, _ in tension)
-        for i, (_, depth, text) in enumerate(compression, 1):
-            if depth >= d:
-                self.problem(f"compression[{i}]", text, "compression steel nearer the "
+        d = sum(t.area * t.depth for t in tension) / sum(t.area for t in tension)
+        for i, layer in enumerate(compression, 1):
+            if layer.depth >= d:
+                self.problem(f"compression[{i}]", self._texts["compression"][i - 1],
+                             "compression steel nearer the "
                              "compression face than the tension steel (effective depth d = "
                              f"{self.in_user_units(d, LENGTH)})")
 

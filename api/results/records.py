@@ -169,6 +169,7 @@ def record(outcome: Outcome, units: str = "beam", digits: int = DIGITS) -> dict[
         "section": _section(a, q), "resistance": _resistance(a, q),
         "demand": _envelope(a.demand, q) if a.demand else None,
         "checks": [_check(c, q) for c in a.checks],
+        "remarks": list(a.remarks),
         "applicability": [_check(c, q) for c in a.applicability],
         "factors": [_factor(f, q) for f in (*a.concrete_factors, *a.steel_factors)],
         "parameters": [{"name": p.name, "value": p.value, "unit": p.unit,

@@ -71,6 +71,7 @@ def results_schema() -> dict[str, Any]:
         }, ("factor", "regime", "design_resistance"))),
         "demand": _nullable(_ENVELOPE),
         "checks": {"type": "array", "items": _CHECK},
+        "remarks": {"type": "array", "items": _STR},
         "applicability": {"type": "array", "items": _CHECK},
         "factors": {"type": "array", "items": _FACTOR},
         "parameters": {"type": "array", "items": _obj(
