@@ -41,7 +41,7 @@ if TYPE_CHECKING:
 
 PROGRAM = "clausewise"
 FORMATS = ("text", "html", "pdf", "json", "toml", "csv")
-REPORT_WIDTH = 110  # columns of a report that does not go to a terminal
+REPORT_WIDTH = 110  # columns of a report that does not go to a terminal (unless COLUMNS says)
 BATCH_FROM = 2_000  # beam-editions beyond which check takes the batch path (text or CSV)
 
 EXIT_STATUS = """exit status:
@@ -351,16 +351,24 @@ def _confirm(out: Path) -> None:
     confirm(out)
 
 
+def _columns(width: int) -> int | None:
+    """The report's width: the terminal's own (None), else ``COLUMNS`` when set, else
+    ``width``: a report piped to a file or a pager reads at the width the user asked."""
+    if sys.stdout.isatty():
+        return None
+    asked = os.environ.get("COLUMNS", "")
+    return int(asked) if asked.isdigit() and 40 <= int(asked) <= 400 else width
+
+
 def _emit_report(renderable: Any, width: int = REPORT_WIDTH, out: Path | None = None) -> None:
-    """Print a text report (``width`` columns unless on a terminal), or write it to a
-    file as plain text."""
+    """Print a text report (``width`` columns unless on a terminal or COLUMNS says), or
+    write it to a file as plain text."""
     from rich.console import Console
 
     from clausewise.results import write_atomic
 
     if out is None:
-        terminal = sys.stdout.isatty()
-        Console(width=None if terminal else width, highlight=False).print(renderable)
+        Console(width=_columns(width), highlight=False).print(renderable)
         return
     console = Console(file=io.StringIO(), record=True, width=width, highlight=False)
     console.print(renderable)
