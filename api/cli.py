@@ -359,13 +359,22 @@ def _emit_report(renderable: Any, width: int = REPORT_WIDTH, out: Path | None = 
     from clausewise.results import write_atomic
 
     if out is None:
-        terminal = sys.stdout.isatty()
-        Console(width=None if terminal else width, highlight=False).print(renderable)
+        Console(width=_screen_width(width), highlight=False).print(renderable)
         return
     console = Console(file=io.StringIO(), record=True, width=width, highlight=False)
     console.print(renderable)
     write_atomic(out, console.export_text())
     _confirm(out)
+
+
+def _screen_width(default: int) -> int | None:
+    """The columns a report gets on stdout: ``COLUMNS`` when the user set it (also when
+    the output is piped, as in ``COLUMNS=80 clausewise check F | less``), else the
+    terminal's own width, else ``default``."""
+    columns = os.environ.get("COLUMNS", "").strip()
+    if columns.isdigit() and int(columns) >= 40:
+        return int(columns)
+    return None if sys.stdout.isatty() else default
 
 
 def _emit_sheet(page: str, kind: str, out: Path | None) -> None:
