@@ -223,12 +223,14 @@ def checks_table(checks: Sequence[Check], units: Units, edition: str, title: str
             footnotes.append(f"[{marker}] {c.name}: {c.note}\n")
         names.append(name)
     footnotes.rstrip()
+    longest_word = max((len(w) for name in names for w in name.plain.split()), default=5)
 
     def build(width: int) -> RenderableType:
         narrow = width < NARROW
         table = Table(title=title or None, title_justify="left", title_style="bold",
                       box=box.SIMPLE_HEAD, pad_edge=False, expand=narrow)
-        table.add_column("check", ratio=3, overflow="fold")
+        table.add_column("check", ratio=None if narrow else 3, overflow="fold",
+                         min_width=longest_word)
         table.add_column("value", justify="right", overflow="fold")
         table.add_column("limit", justify="right", overflow="fold")
         table.add_column("utilisation" if not narrow else "util.", no_wrap=True)

@@ -23,3 +23,30 @@ def test_columns_from_the_environment_bound_a_piped_report(command, monkeypatch,
     lines = capsys.readouterr().out.splitlines()
     assert lines, "the report is empty"
     assert max(len(line) for line in lines) <= 80
+
+
+@pytest.mark.parametrize("edition", ["en1992-1-1:2004", "aci318-19", "csa-a23.3:19"])
+def test_no_word_of_a_check_name_is_cut_at_80_columns(edition, monkeypatch, capsys):
+    """A check's name wraps between words ("minimum tension / reinforcement"), never
+    inside one ("reinforcemen / t")."""
+    import json
+
+    demo = str(DEMO / "quellmoor-library.toml")
+    main(["check", demo, "--edition", edition, "--format", "json"])
+    records = json.loads(capsys.readouterr().out)["results"]
+    words = {w for r in records for c in r["checks"] for w in c["name"].split()
+             if w.isalpha()}
+    monkeypatch.setenv("COLUMNS", "80")
+    main(["check", demo, "--edition", edition])
+    tokens: set[str] = set()
+    in_table = False
+    for line in capsys.readouterr().out.splitlines():
+        if line.split()[:2] == ["check", "value"]:
+            in_table = True
+        elif in_table and not line.strip():
+            in_table = False
+        elif in_table:
+            tokens.update(line.split())
+    cut = {t for t in tokens - words for w in words if len(t) >= 3 and w.startswith(t)}
+    assert tokens & words, "no checks table found"
+    assert cut == set()
