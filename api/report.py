@@ -30,7 +30,7 @@ from clausewise.provisions.registry import TopicAnswer
 from clausewise.provisions.verdicts import CAPACITY_ONLY, ERROR, Status
 from clausewise.provisions.vocabulary import Check, Clause, Envelope, Factor, Sense
 from clausewise.provisions.widths import OverhangEnvelope
-from clausewise.results import Outcome, Units, convert, number
+from clausewise.results import Outcome, Units, convert, number, utilisation_text
 
 if TYPE_CHECKING:
     from pathlib import Path
@@ -224,6 +224,10 @@ def checks_table(checks: Sequence[Check], units: Units, edition: str, title: str
         names.append(name)
     footnotes.rstrip()
     longest_word = max((len(w) for name in names for w in name.plain.split()), default=5)
+    # a number stays on the line of its unit: "1257 mm²", never "1257 / mm²"
+    value_width = max((len(units.value(c.value, c.unit)) for c in checks), default=5)
+    limit_width = max((len(f"{_sign(c.sense)} {units.value(c.limit, c.unit)}") for c in checks),
+                      default=5)
 
     def build(width: int) -> RenderableType:
         narrow = width < NARROW
@@ -231,15 +235,15 @@ def checks_table(checks: Sequence[Check], units: Units, edition: str, title: str
                       box=box.SIMPLE_HEAD, pad_edge=False, expand=narrow)
         table.add_column("check", ratio=None if narrow else 3, overflow="fold",
                          min_width=longest_word)
-        table.add_column("value", justify="right", overflow="fold")
-        table.add_column("limit", justify="right", overflow="fold")
+        table.add_column("value", justify="right", overflow="fold", min_width=value_width)
+        table.add_column("limit", justify="right", overflow="fold", min_width=limit_width)
         table.add_column("utilisation" if not narrow else "util.", no_wrap=True)
         table.add_column("result", no_wrap=True)
         table.add_column("clause", no_wrap=narrow, overflow="fold",
                          min_width=None if narrow else 18)  # a reference is never split
         for c, name in zip(checks, names, strict=True):
             symbol = f"{say(c.symbol, n)} " if c.symbol else ""
-            utilisation = (Text(number(c.utilisation, 3)) if narrow
+            utilisation = (Text(utilisation_text(c.utilisation)) if narrow
                            else utilisation_bar(c.utilisation))
             clause = _where(c.clause, edition)
             _row(table, name, f"{symbol}{units.value(c.value, c.unit)}",
@@ -336,7 +340,7 @@ def summary_table(outcomes: Sequence[Outcome]) -> RenderableType:
             if check is not None and a is not None:
                 governing = Text(f"{check.name} [{_where(check.clause, o.edition)}]")
             _row(table, o.entry.beam.id, o.edition, _status(o.status),
-                 number(check.utilisation, 3) if check else "", governing)
+                 utilisation_text(check.utilisation) if check else "", governing)
         return table
 
     return ByWidth(build)
@@ -574,7 +578,7 @@ def details_tables(outcomes: Sequence[Outcome]) -> list[RenderableType]:
                 return f"{symbol} {number(convert(value, 'N·mm', units.system)[0])}"
 
             _row(table, edition, _status(o.status),
-                 number(check.utilisation, 3) if check else "",
+                 utilisation_text(check.utilisation) if check else "",
                  moment(a.design_resistance.value if a.design_resistance else None,
                         n.resistance),
                  moment(a.demand.value if a.demand else None, n.demand),

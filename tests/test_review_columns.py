@@ -50,3 +50,20 @@ def test_no_word_of_a_check_name_is_cut_at_80_columns(edition, monkeypatch, caps
     cut = {t for t in tokens - words for w in words if len(t) >= 3 and w.startswith(t)}
     assert tokens & words, "no checks table found"
     assert cut == set()
+
+
+def test_a_check_at_its_limit_reads_1_000_and_numbers_keep_their_units(monkeypatch, capsys):
+    """Demo B6 meets its clear distance between tension layers exactly (the demo's 25 mm
+    gap equals IS 456:2000 26.3.2's larger-bar-diameter minimum, from memory): its
+    utilisation is shown as 1.000 like every other, to three decimals, and at 80 columns
+    no number is parted from its unit."""
+    monkeypatch.setenv("COLUMNS", "80")
+    main(["check", str(DEMO / "quellmoor-library.toml"), "--edition", "is456:2000"])
+    out = capsys.readouterr().out
+    summary = [line.split() for line in out.splitlines() if line.split()[:1] == ["B6"]]
+    assert summary and summary[0][3] == "1.000"
+    lines = out.splitlines()
+    for above, below in zip(lines, lines[1:], strict=False):
+        starts = below.split()[:1]
+        if starts and starts[0] in ("mm", "mm²", "kN·m", "in", "in²", "kip·ft"):
+            pytest.fail(f"a unit left its number:\n{above}\n{below}")
