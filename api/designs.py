@@ -75,6 +75,7 @@ def design_record(d: Design, lightest: float | None) -> dict[str, Any]:
         "layers": list(a.counts) if a else [], "layer_depths": list(a.depths) if a else [],
         "provided_area": _num(d.provided_area),
         "provided_compression_area": _num(a.compression_area) if a else None,
+        "compression_depth": _num(a.compression[2]) if a and a.compression else None,
         "mass_per_metre": _num(d.mass_per_metre),
         "more_than_lightest": _num(d.mass_per_metre - lightest) if a and lightest else None,
         "utilisation": _num(d.utilisation), "governing": d.governing,
