@@ -328,8 +328,9 @@ def _chosen_format(args: argparse.Namespace) -> str:
 
 def _guard_inputs(args: argparse.Namespace, *more: Path) -> None:
     """Refuse an --out that is one of the run's input files, before anything is computed."""
-    from clausewise.outputs import refuse_inputs
+    from clausewise.outputs import refuse_inputs, refuse_unwritable
 
+    refuse_unwritable(getattr(args, "out", None), getattr(args, "figures", None))
     refuse_inputs(getattr(args, "out", None),
                   [p for p in (getattr(args, "file", None), *getattr(args, "annex", ()), *more)
                    if p is not None])
@@ -691,7 +692,9 @@ def design_command(args: argparse.Namespace) -> int:
         design_status,
     )
 
+    _guard_inputs(args)
     schedule = load_schedule(args.file, design=True)
+    _guard_inputs(args, *schedule.project.annexes)
     registry = _registry([*args.annex, *schedule.project.annexes])
     _require(registry, schedule.project.required)
     form = args.form or schedule.project.form or "auto"

@@ -1,0 +1,52 @@
+"""Hostile command lines: an output that would destroy the input or cannot be written is
+refused up front with a message in the user's words, exit status 2, and nothing is
+changed on disk."""
+
+from __future__ import annotations
+
+import shutil
+from pathlib import Path
+
+import pytest
+
+from clausewise.cli import main
+
+DEMO = Path(__file__).resolve().parents[1] / "fixtures" / "demo"
+CHECKED = DEMO / "quellmoor-library.toml"
+DESIGNED = DEMO / "orrin-vale-depot-design.toml"
+
+
+def test_design_never_writes_over_its_own_input(tmp_path, capsys):
+    source = tmp_path / "schedule.toml"
+    shutil.copy(DESIGNED, source)
+    before = source.read_bytes()
+    assert main(["design", str(source), "--out", str(source)]) == 2
+    assert source.read_bytes() == before
+    assert "would overwrite the input file" in capsys.readouterr().err
+
+
+@pytest.mark.parametrize("command", [["check", str(CHECKED), "--edition", "aci318-19"],
+                                     ["design", str(DESIGNED), "--edition", "aci318-19"],
+                                     ["batch", str(CHECKED)]])
+def test_an_out_in_a_missing_folder_is_refused_in_plain_words(tmp_path, capsys, command):
+    target = tmp_path / "no-such-folder" / "results.csv"
+    assert main([*command, "--out", str(target)]) == 2
+    err = capsys.readouterr().err
+    assert f"--out {target}" in err and "does not exist" in err
+    assert ".tmp" not in err and "Errno" not in err
+    assert not target.parent.exists()
+
+
+def test_an_out_that_is_a_folder_is_refused(tmp_path, capsys):
+    assert main(["check", str(CHECKED), "--edition", "aci318-19", "--out", str(tmp_path)]) == 2
+    assert "is a folder" in capsys.readouterr().err
+
+
+def test_figures_into_a_file_is_refused_before_any_report(tmp_path, capsys):
+    keep = tmp_path / "notes.txt"
+    keep.write_text("the engineer's notes", encoding="utf-8")
+    assert main(["check", str(CHECKED), "--edition", "aci318-19",
+                 "--figures", str(keep)]) == 2
+    out, err = capsys.readouterr()
+    assert out == "" and "--figures" in err and "not a folder" in err
+    assert keep.read_text(encoding="utf-8") == "the engineer's notes"
