@@ -388,6 +388,10 @@ def check_report(schedule: Schedule, outcomes: Sequence[Outcome],
                                           editions)]
     if schedule.problems:
         parts.append(problems_table(schedule.problems))
+    if not outcomes:
+        parts += [Text("No beam could be checked: every beam of the file has an input "
+                       "problem (above).", style="bold red"), caution()]
+        return Group(*parts)
     shown = editions if details is True else [] if details is False else list(details)
     if len(editions) > 1 and not shown:  # the summary at a glance: a line per beam
         parts.append(comparison_table(outcomes, editions))
@@ -595,6 +599,10 @@ def comparison_report(schedule: Schedule, outcomes: Sequence[Outcome],
         header(schedule, "editions compared", _situation(outcomes), editions)]
     if schedule.problems:
         parts.append(problems_table(schedule.problems))
+    if not outcomes:
+        parts += [Text("No beam could be compared: every beam of the file has an input "
+                       "problem (above).", style="bold red"), caution()]
+        return Group(*parts)
     parts.append(comparison_table(outcomes, editions))
     if details:
         parts += details_tables(outcomes)

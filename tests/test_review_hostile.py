@@ -50,3 +50,33 @@ def test_figures_into_a_file_is_refused_before_any_report(tmp_path, capsys):
     out, err = capsys.readouterr()
     assert out == "" and "--figures" in err and "not a folder" in err
     assert keep.read_text(encoding="utf-8") == "the engineer's notes"
+
+
+REFUSED = """
+[project]
+name = "Corran Yard sheds"
+units = "SI"
+
+[[beam]]
+id = "WIDE"
+shape = "rectangular"
+web_width = "300 mm"
+overall_depth = "700 mm"
+concrete_strength = "30 MPa"
+yield_strength = "500 MPa"
+tension = [{ bars = "12 x 32 mm", depth = "620 mm" }]
+moments = { factored = "100 kN m" }
+"""
+
+
+@pytest.mark.parametrize(("command", "verb"), [("check", "checked"), ("compare", "compared")])
+def test_a_file_whose_every_beam_is_refused_says_so(tmp_path, capsys, command, verb):
+    """Not an empty table with a blank legend, nor advice to give --edition when one was
+    given: one line saying no beam was assessed, then the caution."""
+    path = tmp_path / "refused.toml"
+    path.write_text(REFUSED, encoding="utf-8")
+    assert main([command, str(path), "--edition", "aci318-19"]) == 2
+    out = " ".join(capsys.readouterr().out.split())
+    assert f"No beam could be {verb}" in out
+    assert "give --edition ID" not in out and "marks:" not in out
+    assert "CAUTION" in out
