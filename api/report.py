@@ -744,10 +744,56 @@ def _section(title: str) -> Rule:
     return Rule(Text(title, style="bold"), align="left", style="dim")
 
 
+LONGEST_KEPT_WORD = 20  # a longer word (a module path) may still fold at a narrow width
+
+
+class WordTable(Table):
+    """A table whose columns are never narrower than their longest word (up to
+    LONGEST_KEPT_WORD), so an edition id or a clause title wraps between words at 80
+    columns ("en1992-1-1:2004", never "en1992-1-1:2 / 004"). The widths are shared out
+    here, since rich narrows the widest columns first whatever their words."""
+
+    def __rich_console__(self, console: Console, options: ConsoleOptions) -> RenderResult:
+        natural, widths, fixed = [], [], []
+        for column in self.columns:
+            column.width = None
+            cells = [c.plain if isinstance(c, Text) else c for c in column.cells]
+            texts = [c for c in (column.header, *cells) if isinstance(c, str)]
+            longest_line = max((len(line) for t in texts for line in t.splitlines()),
+                               default=1)
+            longest_word = max((len(w) for t in texts for w in t.split()), default=1)
+            natural.append(longest_line)
+            fixed.append(column.no_wrap)
+            widths.append(longest_line if column.no_wrap else
+                          min(longest_word, LONGEST_KEPT_WORD, longest_line))
+        room = options.max_width - self._extra_width - sum(
+            self._get_padding_width(i) for i in range(len(self.columns)))
+        if sum(natural) <= room or any(not isinstance(c, str | Text) for column in
+                                       self.columns for c in column.cells):
+            yield from super().__rich_console__(console, options)
+            return
+        while sum(widths) > room:  # too narrow for every word: the longest give way first
+            flexible = [(w, i) for i, w in enumerate(widths) if not fixed[i] and w > 8]
+            if not flexible:
+                break
+            widths[max(flexible)[1]] -= 1
+        while sum(widths) < room:  # the rest to the columns furthest from their natural width
+            short = [(natural[i] - w, i) for i, w in enumerate(widths) if w < natural[i]]
+            if not short:
+                break
+            widths[max(short)[1]] += 1
+        for column, width in zip(self.columns, widths, strict=True):
+            column.width = width
+        yield from super().__rich_console__(console, options)
+
+
+ID_COLUMNS = {"supplied by", "answered by"}  # edition ids: never cut
+
+
 def _plain_table(*columns: str) -> Table:
-    table = Table(box=box.SIMPLE_HEAD, pad_edge=False)
+    table = WordTable(box=box.SIMPLE_HEAD, pad_edge=False)
     for column in columns:
-        table.add_column(column, overflow="fold")
+        table.add_column(column, overflow="fold", no_wrap=column in ID_COLUMNS)
     return table
 
 

@@ -67,3 +67,20 @@ def test_a_check_at_its_limit_reads_1_000_and_numbers_keep_their_units(monkeypat
         starts = below.split()[:1]
         if starts and starts[0] in ("mm", "mm²", "kN·m", "in", "in²", "kip·ft"):
             pytest.fail(f"a unit left its number:\n{above}\n{below}")
+
+
+@pytest.mark.parametrize("edition", ["en1992-1-1:2004", "is456:2000", "aci318-19"])
+def test_explain_at_80_columns_keeps_every_supplier_whole(edition, monkeypatch, capsys):
+    """The audit trail's "supplied by" column names an edition id, which is never cut
+    ("en1992-1-1:2 / 004" was): each row's supplier is a whole id of the stack, and no
+    line is wider than the screen."""
+    monkeypatch.setenv("COLUMNS", "80")
+    assert main(["explain", str(DEMO / "quellmoor-library.toml"), "B3",
+                 "--edition", edition]) in (0, 1)
+    lines = capsys.readouterr().out.splitlines()
+    assert max(len(line) for line in lines) <= 80
+    fragments = [line for line in lines if line.split()
+                 and len(line.split()[-1]) >= 4 and edition.startswith(line.split()[-1])
+                 and line.split()[-1] != edition]
+    assert fragments == []
+    assert sum(line.rstrip().endswith(edition) for line in lines) >= 5
