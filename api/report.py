@@ -775,7 +775,8 @@ class WordTable(Table):
         while sum(widths) > room:  # too narrow for every word: the longest give way first
             flexible = [(w, i) for i, w in enumerate(widths) if not fixed[i] and w > 8]
             if not flexible:
-                break
+                yield from self._stacked(console, options)
+                return
             widths[max(flexible)[1]] -= 1
         while sum(widths) < room:  # the rest to the columns furthest from their natural width
             short = [(natural[i] - w, i) for i, w in enumerate(widths) if w < natural[i]]
@@ -785,6 +786,25 @@ class WordTable(Table):
         for column, width in zip(self.columns, widths, strict=True):
             column.width = width
         yield from super().__rich_console__(console, options)
+
+    def _stacked(self, console: Console, options: ConsoleOptions) -> RenderResult:
+        """Where the columns cannot all keep their words: a block per row, its first cell
+        as the heading and every other cell under its column's name."""
+        if self.title:
+            yield Text(str(self.title), style="bold")
+        names = [str(column.header) for column in self.columns]
+        cells = [list(column.cells) for column in self.columns]
+        for row in range(self.row_count):
+            yield Text(" ") + (cells[0][row] if isinstance(cells[0][row], Text)
+                               else Text(str(cells[0][row]), style="bold"))
+            grid = Table.grid(padding=(0, 2), pad_edge=True)
+            grid.add_column(style="dim", no_wrap=True)
+            grid.add_column(overflow="fold")
+            for name, column in zip(names[1:], cells[1:], strict=True):
+                value = column[row]
+                if (value.plain if isinstance(value, Text) else str(value)).strip():
+                    grid.add_row(f"  {name}", value)
+            yield grid
 
 
 ID_COLUMNS = {"supplied by", "answered by"}  # edition ids: never cut
@@ -956,8 +976,8 @@ def explain_report(schedule: Schedule, outcome: Outcome) -> Group:
 # --- the installed editions ------------------------------------------------------------------
 
 def editions_report(registry: Registry) -> Group:
-    table = Table(title="installed editions", title_justify="left", title_style="bold",
-                  box=box.SIMPLE_HEAD)
+    table = WordTable(title="installed editions", title_justify="left", title_style="bold",
+                      box=box.SIMPLE_HEAD)
     table.add_column("id", no_wrap=True)
     for column in ("title", "year", "extends", "forms", "distribution", "version"):
         table.add_column(column, overflow="fold")
@@ -1008,11 +1028,11 @@ def parameters_report(edition: Edition, form: str) -> Group:
     """An edition's named parameters after layering, with what a layer may set them to."""
     from clausewise.provisions.beam import Context
 
-    table = Table(title=f"parameters of {edition.id} ({form} form)", title_justify="left",
-                  title_style="bold", box=box.SIMPLE_HEAD)
+    table = WordTable(title=f"parameters of {edition.id} ({form} form)",
+                      title_justify="left", title_style="bold", box=box.SIMPLE_HEAD)
     table.add_column("name", no_wrap=True)  # spelled as an annex file must spell it
     for column in ("value", "may be set to", "meaning", "clause", "supplied by"):
-        table.add_column(column, overflow="fold")
+        table.add_column(column, overflow="fold", no_wrap=column in ID_COLUMNS)
     for p in edition.parameters(Context(form=form)).values():
         allowed = (" | ".join(p.choices) if p.choices else
                    f"{p.bounds[0]:g} to {p.bounds[1]:g}" if p.bounds else "any")

@@ -3,6 +3,7 @@
 
 from __future__ import annotations
 
+import re
 from pathlib import Path
 
 import pytest
@@ -84,3 +85,28 @@ def test_explain_at_80_columns_keeps_every_supplier_whole(edition, monkeypatch, 
                  and line.split()[-1] != edition]
     assert fragments == []
     assert sum(line.rstrip().endswith(edition) for line in lines) >= 5
+
+
+@pytest.mark.parametrize("command", [["editions"],
+                                     ["editions", "--parameters", "as3600:2018"],
+                                     ["editions", "--parameters", "en1992-1-1:2004"]])
+def test_the_listings_read_at_80_columns_without_cut_words(command, monkeypatch, capsys):
+    """At 80 columns the editions listing cut titles into "structu / ral concret / e"
+    and parameter meanings into "defaul / t": where the columns cannot all keep their
+    words, each row becomes a block, and every parameter name, edition id and title
+    word is whole."""
+    import json
+
+    main([*command, "--format", "json"])
+    data = json.loads(capsys.readouterr().out)
+    monkeypatch.setenv("COLUMNS", "80")
+    main(command)
+    out = capsys.readouterr().out
+    lines = out.splitlines()
+    assert max(len(line) for line in lines) <= 80
+    tokens = set(out.split())
+    text = json.dumps(data, ensure_ascii=False)
+    words = {w for w in re.findall(r"[A-Za-z_]{4,}", text)}
+    cut = {t for t in tokens if len(t) >= 4 and t.isalpha() and t not in words
+           and any(w.startswith(t) for w in words)}
+    assert cut == set()
