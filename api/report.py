@@ -641,6 +641,18 @@ def _drivers(outcome: Outcome) -> dict[str, tuple[str, float, str, bool]]:
         found["effective width"] = (e.symbol, float(e.value), "mm", True)
     for f in (*a.concrete_factors, *a.steel_factors):
         found[f.symbol] = (f.symbol, float(f.value), f.unit, True)
+    # the design stresses themselves, which every edition has whatever it names its
+    # factors (0.85 f'c against η fcd, fy against fyd = fyk/γs): the partial factors show
+    law = a.concrete_law
+    stress = getattr(law, "stress", getattr(law, "peak_stress", None))
+    if stress is not None:
+        found["concrete design stress"] = ("concrete design stress", float(stress), "MPa",
+                                           True)
+    r = a.response
+    if r is not None and r.equilibrium and r.layers:
+        deepest = max(r.layers, key=lambda layer: float(layer.depth))
+        found["tension steel stress"] = ("tension steel stress", abs(float(deepest.stress)),
+                                         "MPa", True)
     for c in a.checks:
         if "minimum" in c.name or "maximum" in c.name:
             found[c.name] = (f"{c.name} {c.symbol}", float(c.limit), c.unit, False)
@@ -733,7 +745,10 @@ def migration_report(schedule: Schedule, outcomes: Sequence[Outcome], source: st
             text.append(f"\n· {cause}")
         _row(table, Text(c.beam, style="bold"), _cell(c.before), _cell(c.after), text)
     keys: dict[str, str] = {}
-    parts += [table, _legend([x for c in changes for x in (c.before, c.after)] or outcomes,
+    shown: RenderableType = table if changes else Text(
+        f"No beam of {beams} changes status, governing check or design resistance by more "
+        f"than {threshold:.0%} from {source} to {target}.", style="bold")
+    parts += [shown, _legend([x for c in changes for x in (c.before, c.after)] or outcomes,
                              keys), Text(same_cylinder(outcomes), style="dim"), caution()]
     return Group(*parts)
 
