@@ -463,7 +463,8 @@ def _least_growth(group: _Group, beams: NDArray[np.int_], trial: float,
 
 def _arrange(group: _Group, designs: dict[int, Design],
              sizes_by_beam: list[tuple[BarSize, ...]]) -> None:
-    """Choose the lightest passing arrangement for every designed beam, in place."""
+    """Choose the preferred passing arrangement (:func:`preferred`) for every designed beam,
+    in place."""
     todo = [i for i, d in designs.items() if d.status in (DESIGNED, COMPRESSION)]
     if not todo:
         return
