@@ -693,6 +693,11 @@ def design_command(args: argparse.Namespace) -> int:
     )
 
     _guard_inputs(args)
+    if _chosen_format(args) in ("html", "pdf"):
+        raise UsageError("design writes text, json, toml or csv (.txt, .json, .toml, .csv); "
+                         "the calculation sheet (.html, .pdf) is made by check, compare and "
+                         "explain: write the chosen bars into the beam file and run check "
+                         "--out calcs.html")
     schedule = load_schedule(args.file, design=True)
     _guard_inputs(args, *schedule.project.annexes)
     registry = _registry([*args.annex, *schedule.project.annexes])

@@ -80,3 +80,15 @@ def test_a_file_whose_every_beam_is_refused_says_so(tmp_path, capsys, command, v
     assert f"No beam could be {verb}" in out
     assert "give --edition ID" not in out and "marks:" not in out
     assert "CAUTION" in out
+
+
+@pytest.mark.parametrize("asked", [["--out", "design.html"], ["--format", "pdf"],
+                                   ["--format", "html"]])
+def test_design_refuses_the_sheet_formats_in_words(tmp_path, capsys, asked):
+    """`design --out design.html` raised a KeyError traceback; it is a usage error (exit 2)
+    that says which formats design writes and where the sheet comes from."""
+    args = [a if not a.endswith(".html") else str(tmp_path / a) for a in asked]
+    assert main(["design", str(DESIGNED), "--edition", "aci318-19", *args]) == 2
+    err = capsys.readouterr().err
+    assert "design writes text, json, toml or csv" in err and "Traceback" not in err
+    assert not (tmp_path / "design.html").exists()
