@@ -32,8 +32,9 @@ def assess(beam: Beam, edition: str | Edition, **options: Any) -> Assessment:
 
 
 def design(beam: Beam, edition: str | Edition, **options: Any) -> Design:
-    """The least steel ``edition`` requires for ``beam`` and the lightest bars that fit and
-    pass, with the search's bracket and the chosen bars' full assessment; see
+    """The least steel ``edition`` requires for ``beam`` and the bars that fit, pass and an
+    engineer would place (within 15 % of the lightest passing mass: fewest layers, then
+    fewest bars), with the search's bracket and the chosen bars' full assessment; see
     :func:`clausewise.provisions.design.design`."""
     from clausewise.provisions.design import design as _design
 

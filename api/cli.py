@@ -328,8 +328,9 @@ def _chosen_format(args: argparse.Namespace) -> str:
 
 def _guard_inputs(args: argparse.Namespace, *more: Path) -> None:
     """Refuse an --out that is one of the run's input files, before anything is computed."""
-    from clausewise.outputs import refuse_inputs
+    from clausewise.outputs import refuse_inputs, refuse_unwritable
 
+    refuse_unwritable(getattr(args, "out", None), getattr(args, "figures", None))
     refuse_inputs(getattr(args, "out", None),
                   [p for p in (getattr(args, "file", None), *getattr(args, "annex", ()), *more)
                    if p is not None])
@@ -351,15 +352,6 @@ def _confirm(out: Path) -> None:
     confirm(out)
 
 
-def _columns(width: int) -> int | None:
-    """The report's width: the terminal's own (None), else ``COLUMNS`` when set, else
-    ``width``: a report piped to a file or a pager reads at the width the user asked."""
-    if sys.stdout.isatty():
-        return None
-    asked = os.environ.get("COLUMNS", "")
-    return int(asked) if asked.isdigit() and 40 <= int(asked) <= 400 else width
-
-
 def _emit_report(renderable: Any, width: int = REPORT_WIDTH, out: Path | None = None) -> None:
     """Print a text report (``width`` columns unless on a terminal or COLUMNS says), or
     write it to a file as plain text."""
@@ -368,12 +360,22 @@ def _emit_report(renderable: Any, width: int = REPORT_WIDTH, out: Path | None = 
     from clausewise.results import write_atomic
 
     if out is None:
-        Console(width=_columns(width), highlight=False).print(renderable)
+        Console(width=_screen_width(width), highlight=False).print(renderable)
         return
     console = Console(file=io.StringIO(), record=True, width=width, highlight=False)
     console.print(renderable)
     write_atomic(out, console.export_text())
     _confirm(out)
+
+
+def _screen_width(default: int) -> int | None:
+    """The columns a report gets on stdout: ``COLUMNS`` when the user set it (also when
+    the output is piped, as in ``COLUMNS=80 clausewise check F | less``), else the
+    terminal's own width, else ``default``."""
+    columns = os.environ.get("COLUMNS", "").strip()
+    if columns.isdigit() and int(columns) >= 40:
+        return int(columns)
+    return None if sys.stdout.isatty() else default
 
 
 def _emit_sheet(page: str, kind: str, out: Path | None) -> None:
@@ -690,7 +692,14 @@ def design_command(args: argparse.Namespace) -> int:
         design_status,
     )
 
+    _guard_inputs(args)
+    if _chosen_format(args) in ("html", "pdf"):
+        raise UsageError("design writes text, json, toml or csv (.txt, .json, .toml, .csv); "
+                         "the calculation sheet (.html, .pdf) is made by check, compare and "
+                         "explain: write the chosen bars into the beam file and run check "
+                         "--out calcs.html")
     schedule = load_schedule(args.file, design=True)
+    _guard_inputs(args, *schedule.project.annexes)
     registry = _registry([*args.annex, *schedule.project.annexes])
     _require(registry, schedule.project.required)
     form = args.form or schedule.project.form or "auto"

@@ -11,7 +11,7 @@ from dataclasses import replace
 from typing import TYPE_CHECKING, Any
 
 from clausewise.provisions.beam import UnitSystem
-from clausewise.provisions.design import Design, bars_text, design_many
+from clausewise.provisions.design import PRACTICAL_MARGIN, Design, bars_text, design_many
 from clausewise.provisions.engine import PASS
 from clausewise.provisions.verdicts import CAUTION
 
@@ -75,6 +75,7 @@ def design_record(d: Design, lightest: float | None) -> dict[str, Any]:
         "layers": list(a.counts) if a else [], "layer_depths": list(a.depths) if a else [],
         "provided_area": _num(d.provided_area),
         "provided_compression_area": _num(a.compression_area) if a else None,
+        "compression_depth": _num(a.compression[2]) if a and a.compression else None,
         "mass_per_metre": _num(d.mass_per_metre),
         "more_than_lightest": _num(d.mass_per_metre - lightest) if a and lightest else None,
         "utilisation": _num(d.utilisation), "governing": d.governing,
@@ -216,7 +217,10 @@ def design_report(schedule: Schedule, designs: Sequence[Design]) -> Group:
     if schedule.problems:
         parts.append(problems_table(schedule.problems))
     parts.append(Text("As req: the least tension steel that passes every check at the trial "
-                      "depth (top: compression steel); +: steel above the lightest edition.",
+                      "depth (top: compression steel); bars chosen: of the arrangements "
+                      f"that pass, within {PRACTICAL_MARGIN:.0%} of the lightest one's mass, "
+                      "the fewest layers, then the fewest bars; +: steel above the lightest "
+                      "edition.",
                       style="dim"))
     parts.append(caution())
     return Group(*parts)

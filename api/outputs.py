@@ -115,6 +115,23 @@ def refuse_inputs(out: Path | None, inputs: Iterable[Path]) -> None:
                                   "choose another name for the results")
 
 
+def refuse_unwritable(out: Path | None, figures: Path | None) -> None:
+    """Refuse, before anything is computed, an --out whose folder does not exist or that
+    is a folder, and a --figures that names a file: said in the user's words, not as an
+    operating-system error naming a temporary file."""
+    if out is not None:
+        if out.is_dir():
+            raise OutputError(f"--out {out}: is a folder; give a file name such as "
+                              f"{out / 'results.json'}")
+        folder = out.parent
+        if not folder.is_dir():
+            raise OutputError(f"--out {out}: the folder {folder} does not exist; create it "
+                              "or choose another place for the results")
+    if figures is not None and figures.exists() and not figures.is_dir():
+        raise OutputError(f"--figures {figures}: is a file, not a folder; the figures go "
+                          "into a folder (it is created if missing)")
+
+
 def confirm(path: Path, what: str = "results") -> None:
     """The one-line confirmation of a file written."""
     print(f"{PROGRAM}: wrote {what} to {path}", file=sys.stderr)

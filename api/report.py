@@ -30,7 +30,7 @@ from clausewise.provisions.registry import TopicAnswer
 from clausewise.provisions.verdicts import CAPACITY_ONLY, ERROR, Status
 from clausewise.provisions.vocabulary import Check, Clause, Envelope, Factor, Sense
 from clausewise.provisions.widths import OverhangEnvelope
-from clausewise.results import Outcome, Units, convert, number
+from clausewise.results import Outcome, Units, convert, number, utilisation_text
 
 if TYPE_CHECKING:
     from pathlib import Path
@@ -223,21 +223,27 @@ def checks_table(checks: Sequence[Check], units: Units, edition: str, title: str
             footnotes.append(f"[{marker}] {c.name}: {c.note}\n")
         names.append(name)
     footnotes.rstrip()
+    longest_word = max((len(w) for name in names for w in name.plain.split()), default=5)
+    # a number stays on the line of its unit: "1257 mm²", never "1257 / mm²"
+    value_width = max((len(units.value(c.value, c.unit)) for c in checks), default=5)
+    limit_width = max((len(f"{_sign(c.sense)} {units.value(c.limit, c.unit)}") for c in checks),
+                      default=5)
 
     def build(width: int) -> RenderableType:
         narrow = width < NARROW
         table = Table(title=title or None, title_justify="left", title_style="bold",
                       box=box.SIMPLE_HEAD, pad_edge=False, expand=narrow)
-        table.add_column("check", ratio=3, overflow="fold")
-        table.add_column("value", justify="right", overflow="fold")
-        table.add_column("limit", justify="right", overflow="fold")
+        table.add_column("check", ratio=None if narrow else 3, overflow="fold",
+                         min_width=longest_word)
+        table.add_column("value", justify="right", overflow="fold", min_width=value_width)
+        table.add_column("limit", justify="right", overflow="fold", min_width=limit_width)
         table.add_column("utilisation" if not narrow else "util.", no_wrap=True)
         table.add_column("result", no_wrap=True)
         table.add_column("clause", no_wrap=narrow, overflow="fold",
                          min_width=None if narrow else 18)  # a reference is never split
         for c, name in zip(checks, names, strict=True):
             symbol = f"{say(c.symbol, n)} " if c.symbol else ""
-            utilisation = (Text(number(c.utilisation, 3)) if narrow
+            utilisation = (Text(utilisation_text(c.utilisation)) if narrow
                            else utilisation_bar(c.utilisation))
             clause = _where(c.clause, edition)
             _row(table, name, f"{symbol}{units.value(c.value, c.unit)}",
@@ -334,7 +340,7 @@ def summary_table(outcomes: Sequence[Outcome]) -> RenderableType:
             if check is not None and a is not None:
                 governing = Text(f"{check.name} [{_where(check.clause, o.edition)}]")
             _row(table, o.entry.beam.id, o.edition, _status(o.status),
-                 number(check.utilisation, 3) if check else "", governing)
+                 utilisation_text(check.utilisation) if check else "", governing)
         return table
 
     return ByWidth(build)
@@ -382,6 +388,10 @@ def check_report(schedule: Schedule, outcomes: Sequence[Outcome],
                                           editions)]
     if schedule.problems:
         parts.append(problems_table(schedule.problems))
+    if not outcomes:
+        parts += [Text("No beam could be checked: every beam of the file has an input "
+                       "problem (above).", style="bold red"), caution()]
+        return Group(*parts)
     shown = editions if details is True else [] if details is False else list(details)
     if len(editions) > 1 and not shown:  # the summary at a glance: a line per beam
         parts.append(comparison_table(outcomes, editions))
@@ -572,7 +582,7 @@ def details_tables(outcomes: Sequence[Outcome]) -> list[RenderableType]:
                 return f"{symbol} {number(convert(value, 'N·mm', units.system)[0])}"
 
             _row(table, edition, _status(o.status),
-                 number(check.utilisation, 3) if check else "",
+                 utilisation_text(check.utilisation) if check else "",
                  moment(a.design_resistance.value if a.design_resistance else None,
                         n.resistance),
                  moment(a.demand.value if a.demand else None, n.demand),
@@ -589,6 +599,10 @@ def comparison_report(schedule: Schedule, outcomes: Sequence[Outcome],
         header(schedule, "editions compared", _situation(outcomes), editions)]
     if schedule.problems:
         parts.append(problems_table(schedule.problems))
+    if not outcomes:
+        parts += [Text("No beam could be compared: every beam of the file has an input "
+                       "problem (above).", style="bold red"), caution()]
+        return Group(*parts)
     parts.append(comparison_table(outcomes, editions))
     if details:
         parts += details_tables(outcomes)
@@ -627,6 +641,18 @@ def _drivers(outcome: Outcome) -> dict[str, tuple[str, float, str, bool]]:
         found["effective width"] = (e.symbol, float(e.value), "mm", True)
     for f in (*a.concrete_factors, *a.steel_factors):
         found[f.symbol] = (f.symbol, float(f.value), f.unit, True)
+    # the design stresses themselves, which every edition has whatever it names its
+    # factors (0.85 f'c against η fcd, fy against fyd = fyk/γs): the partial factors show
+    law = a.concrete_law
+    stress = getattr(law, "stress", getattr(law, "peak_stress", None))
+    if stress is not None:
+        found["concrete design stress"] = ("concrete design stress", float(stress), "MPa",
+                                           True)
+    r = a.response
+    if r is not None and r.equilibrium and r.layers:
+        deepest = max(r.layers, key=lambda layer: float(layer.depth))
+        found["tension steel stress"] = ("tension steel stress", abs(float(deepest.stress)),
+                                         "MPa", True)
     for c in a.checks:
         if "minimum" in c.name or "maximum" in c.name:
             found[c.name] = (f"{c.name} {c.symbol}", float(c.limit), c.unit, False)
@@ -719,7 +745,10 @@ def migration_report(schedule: Schedule, outcomes: Sequence[Outcome], source: st
             text.append(f"\n· {cause}")
         _row(table, Text(c.beam, style="bold"), _cell(c.before), _cell(c.after), text)
     keys: dict[str, str] = {}
-    parts += [table, _legend([x for c in changes for x in (c.before, c.after)] or outcomes,
+    shown: RenderableType = table if changes else Text(
+        f"No beam of {beams} changes status, governing check or design resistance by more "
+        f"than {threshold:.0%} from {source} to {target}.", style="bold")
+    parts += [shown, _legend([x for c in changes for x in (c.before, c.after)] or outcomes,
                              keys), Text(same_cylinder(outcomes), style="dim"), caution()]
     return Group(*parts)
 
@@ -730,10 +759,76 @@ def _section(title: str) -> Rule:
     return Rule(Text(title, style="bold"), align="left", style="dim")
 
 
+LONGEST_KEPT_WORD = 20  # a longer word (a module path) may still fold at a narrow width
+
+
+class WordTable(Table):
+    """A table whose columns are never narrower than their longest word (up to
+    LONGEST_KEPT_WORD), so an edition id or a clause title wraps between words at 80
+    columns ("en1992-1-1:2004", never "en1992-1-1:2 / 004"). The widths are shared out
+    here, since rich narrows the widest columns first whatever their words."""
+
+    def __rich_console__(self, console: Console, options: ConsoleOptions) -> RenderResult:
+        natural, widths, fixed = [], [], []
+        for column in self.columns:
+            column.width = None
+            cells = [c.plain if isinstance(c, Text) else c for c in column.cells]
+            texts = [c for c in (column.header, *cells) if isinstance(c, str)]
+            longest_line = max((len(line) for t in texts for line in t.splitlines()),
+                               default=1)
+            longest_word = max((len(w) for t in texts for w in t.split()), default=1)
+            natural.append(longest_line)
+            fixed.append(column.no_wrap)
+            widths.append(longest_line if column.no_wrap else
+                          min(longest_word, LONGEST_KEPT_WORD, longest_line))
+        room = options.max_width - self._extra_width - sum(
+            self._get_padding_width(i) for i in range(len(self.columns)))
+        if sum(natural) <= room or any(not isinstance(c, str | Text) for column in
+                                       self.columns for c in column.cells):
+            yield from super().__rich_console__(console, options)
+            return
+        while sum(widths) > room:  # too narrow for every word: the longest give way first
+            flexible = [(w, i) for i, w in enumerate(widths) if not fixed[i] and w > 8]
+            if not flexible:
+                yield from self._stacked(console, options)
+                return
+            widths[max(flexible)[1]] -= 1
+        while sum(widths) < room:  # the rest to the columns furthest from their natural width
+            short = [(natural[i] - w, i) for i, w in enumerate(widths) if w < natural[i]]
+            if not short:
+                break
+            widths[max(short)[1]] += 1
+        for column, width in zip(self.columns, widths, strict=True):
+            column.width = width
+        yield from super().__rich_console__(console, options)
+
+    def _stacked(self, console: Console, options: ConsoleOptions) -> RenderResult:
+        """Where the columns cannot all keep their words: a block per row, its first cell
+        as the heading and every other cell under its column's name."""
+        if self.title:
+            yield Text(str(self.title), style="bold")
+        names = [str(column.header) for column in self.columns]
+        cells = [list(column.cells) for column in self.columns]
+        for row in range(self.row_count):
+            yield Text(" ") + (cells[0][row] if isinstance(cells[0][row], Text)
+                               else Text(str(cells[0][row]), style="bold"))
+            grid = Table.grid(padding=(0, 2), pad_edge=True)
+            grid.add_column(style="dim", no_wrap=True)
+            grid.add_column(overflow="fold")
+            for name, column in zip(names[1:], cells[1:], strict=True):
+                value = column[row]
+                if (value.plain if isinstance(value, Text) else str(value)).strip():
+                    grid.add_row(f"  {name}", value)
+            yield grid
+
+
+ID_COLUMNS = {"supplied by", "answered by"}  # edition ids: never cut
+
+
 def _plain_table(*columns: str) -> Table:
-    table = Table(box=box.SIMPLE_HEAD, pad_edge=False)
+    table = WordTable(box=box.SIMPLE_HEAD, pad_edge=False)
     for column in columns:
-        table.add_column(column, overflow="fold")
+        table.add_column(column, overflow="fold", no_wrap=column in ID_COLUMNS)
     return table
 
 
@@ -896,8 +991,8 @@ def explain_report(schedule: Schedule, outcome: Outcome) -> Group:
 # --- the installed editions ------------------------------------------------------------------
 
 def editions_report(registry: Registry) -> Group:
-    table = Table(title="installed editions", title_justify="left", title_style="bold",
-                  box=box.SIMPLE_HEAD)
+    table = WordTable(title="installed editions", title_justify="left", title_style="bold",
+                      box=box.SIMPLE_HEAD)
     table.add_column("id", no_wrap=True)
     for column in ("title", "year", "extends", "forms", "distribution", "version"):
         table.add_column(column, overflow="fold")
@@ -948,11 +1043,11 @@ def parameters_report(edition: Edition, form: str) -> Group:
     """An edition's named parameters after layering, with what a layer may set them to."""
     from clausewise.provisions.beam import Context
 
-    table = Table(title=f"parameters of {edition.id} ({form} form)", title_justify="left",
-                  title_style="bold", box=box.SIMPLE_HEAD)
+    table = WordTable(title=f"parameters of {edition.id} ({form} form)",
+                      title_justify="left", title_style="bold", box=box.SIMPLE_HEAD)
     table.add_column("name", no_wrap=True)  # spelled as an annex file must spell it
     for column in ("value", "may be set to", "meaning", "clause", "supplied by"):
-        table.add_column(column, overflow="fold")
+        table.add_column(column, overflow="fold", no_wrap=column in ID_COLUMNS)
     for p in edition.parameters(Context(form=form)).values():
         allowed = (" | ".join(p.choices) if p.choices else
                    f"{p.bounds[0]:g} to {p.bounds[1]:g}" if p.bounds else "any")

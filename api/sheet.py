@@ -24,7 +24,7 @@ from typing import TYPE_CHECKING
 from clausewise.provisions import CAUTION, ClausewiseError
 from clausewise.provisions.vocabulary import Check, Envelope, Factor, Sense
 from clausewise.report import _where, input_label, same_cylinder, say
-from clausewise.results import Outcome, Units, number
+from clausewise.results import Outcome, Units, number, utilisation_text
 
 if TYPE_CHECKING:
     from clausewise.beamfile import Schedule
@@ -136,7 +136,8 @@ def _checks(checks: Sequence[Check], outcome: Outcome, units: Units, edition: st
         verdict = "pass" if c.passed else "fail"
         rows.append((_e(c.name), _e(symbol + units.value(c.value, c.unit)),
                      _e(f"{sign} {units.value(c.limit, c.unit)}"),
-                     _e(number(c.utilisation, 3)), f'<span class="{verdict}">{verdict}</span>',
+                     _e(utilisation_text(c.utilisation)),
+                     f'<span class="{verdict}">{verdict}</span>',
                      _clause(_where(c.clause, edition), c.clause.title)))
     return _table(("check", "value", "limit", "utilisation", "result", "clause"), rows,
                   numeric=(1, 2, 3))

@@ -8,7 +8,7 @@ check and the caution. CSV files of check, compare and batch share one column sc
 (``writers.result_columns``).
 """
 
-from clausewise.results.display import UNITS, Units, convert, number
+from clausewise.results.display import UNITS, Units, convert, number, utilisation_text
 from clausewise.results.files import write_atomic
 from clausewise.results.records import (
     document,
@@ -33,4 +33,4 @@ from clausewise.results.writers import (
 __all__ = ["UNITS", "Outcome", "Units", "convert", "csv_row", "document", "editions_csv",
            "editions_document", "number", "parameters_csv", "parameters_document",
            "problem_record", "record", "results_schema", "run", "to_csv", "to_json", "to_toml",
-           "topics_csv", "topics_document", "write_atomic"]
+           "topics_csv", "topics_document", "utilisation_text", "write_atomic"]

@@ -53,6 +53,14 @@ def number(value: Any, digits: int = 4) -> str:
     return text.rstrip("0").rstrip(".")
 
 
+def utilisation_text(u: float) -> str:
+    """A utilisation to three decimals everywhere it is shown (0.780, 1.000, 0.063), so a
+    column of them lines up and a check at its limit reads 1.000, not 1."""
+    if not math.isfinite(u):
+        return "∞" if u > 0 else "—"
+    return f"{u:.3f}"
+
+
 @dataclass(frozen=True)
 class Units:
     """How one beam's quantities are shown to the engineer: in its own unit system,

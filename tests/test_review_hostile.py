@@ -1,0 +1,94 @@
+"""Hostile command lines: an output that would destroy the input or cannot be written is
+refused up front with a message in the user's words, exit status 2, and nothing is
+changed on disk."""
+
+from __future__ import annotations
+
+import shutil
+from pathlib import Path
+
+import pytest
+
+from clausewise.cli import main
+
+DEMO = Path(__file__).resolve().parents[1] / "fixtures" / "demo"
+CHECKED = DEMO / "quellmoor-library.toml"
+DESIGNED = DEMO / "orrin-vale-depot-design.toml"
+
+
+def test_design_never_writes_over_its_own_input(tmp_path, capsys):
+    source = tmp_path / "schedule.toml"
+    shutil.copy(DESIGNED, source)
+    before = source.read_bytes()
+    assert main(["design", str(source), "--out", str(source)]) == 2
+    assert source.read_bytes() == before
+    assert "would overwrite the input file" in capsys.readouterr().err
+
+
+@pytest.mark.parametrize("command", [["check", str(CHECKED), "--edition", "aci318-19"],
+                                     ["design", str(DESIGNED), "--edition", "aci318-19"],
+                                     ["batch", str(CHECKED)]])
+def test_an_out_in_a_missing_folder_is_refused_in_plain_words(tmp_path, capsys, command):
+    target = tmp_path / "no-such-folder" / "results.csv"
+    assert main([*command, "--out", str(target)]) == 2
+    err = capsys.readouterr().err
+    assert f"--out {target}" in err and "does not exist" in err
+    assert ".tmp" not in err and "Errno" not in err
+    assert not target.parent.exists()
+
+
+def test_an_out_that_is_a_folder_is_refused(tmp_path, capsys):
+    assert main(["check", str(CHECKED), "--edition", "aci318-19", "--out", str(tmp_path)]) == 2
+    assert "is a folder" in capsys.readouterr().err
+
+
+def test_figures_into_a_file_is_refused_before_any_report(tmp_path, capsys):
+    keep = tmp_path / "notes.txt"
+    keep.write_text("the engineer's notes", encoding="utf-8")
+    assert main(["check", str(CHECKED), "--edition", "aci318-19",
+                 "--figures", str(keep)]) == 2
+    out, err = capsys.readouterr()
+    assert out == "" and "--figures" in err and "not a folder" in err
+    assert keep.read_text(encoding="utf-8") == "the engineer's notes"
+
+
+REFUSED = """
+[project]
+name = "Corran Yard sheds"
+units = "SI"
+
+[[beam]]
+id = "WIDE"
+shape = "rectangular"
+web_width = "300 mm"
+overall_depth = "700 mm"
+concrete_strength = "30 MPa"
+yield_strength = "500 MPa"
+tension = [{ bars = "12 x 32 mm", depth = "620 mm" }]
+moments = { factored = "100 kN m" }
+"""
+
+
+@pytest.mark.parametrize(("command", "verb"), [("check", "checked"), ("compare", "compared")])
+def test_a_file_whose_every_beam_is_refused_says_so(tmp_path, capsys, command, verb):
+    """Not an empty table with a blank legend, nor advice to give --edition when one was
+    given: one line saying no beam was assessed, then the caution."""
+    path = tmp_path / "refused.toml"
+    path.write_text(REFUSED, encoding="utf-8")
+    assert main([command, str(path), "--edition", "aci318-19"]) == 2
+    out = " ".join(capsys.readouterr().out.split())
+    assert f"No beam could be {verb}" in out
+    assert "give --edition ID" not in out and "marks:" not in out
+    assert "CAUTION" in out
+
+
+@pytest.mark.parametrize("asked", [["--out", "design.html"], ["--format", "pdf"],
+                                   ["--format", "html"]])
+def test_design_refuses_the_sheet_formats_in_words(tmp_path, capsys, asked):
+    """`design --out design.html` raised a KeyError traceback; it is a usage error (exit 2)
+    that says which formats design writes and where the sheet comes from."""
+    args = [a if not a.endswith(".html") else str(tmp_path / a) for a in asked]
+    assert main(["design", str(DESIGNED), "--edition", "aci318-19", *args]) == 2
+    err = capsys.readouterr().err
+    assert "design writes text, json, toml or csv" in err and "Traceback" not in err
+    assert not (tmp_path / "design.html").exists()
