@@ -88,6 +88,8 @@ class Registry:
     strict: bool = False
     only: frozenset[str] | None = None
     records: list[PluginRecord] = field(default_factory=list)
+    _editions: dict[str, Edition] = field(default_factory=dict, init=False, repr=False,
+                                          compare=False)
 
     # --- loading -----------------------------------------------------------------
     def load_entry_points(self) -> None:
@@ -136,6 +138,7 @@ class Registry:
                 raise PluginError(f"plugin {name!r} ({source}) is broken: {record.error}") \
                     from exc
         self.records = [r for r in self.records if r.name != name or r.ok] + [record]
+        self._editions.clear()  # a new layer may change any stack
         return record
 
     # --- lookup ------------------------------------------------------------------
@@ -150,7 +153,16 @@ class Registry:
         return sorted(self._by_id())
 
     def edition(self, edition_id: str) -> Edition:
-        """The layered edition ``edition_id`` (its bases below it)."""
+        """The layered edition ``edition_id`` (its bases below it), built once per id and
+        kept until a plugin is added: building one costs a plugin manager."""
+        cached = self._editions.get(edition_id)
+        if cached is not None:
+            return cached
+        edition = self._build(edition_id)
+        self._editions[edition_id] = edition
+        return edition
+
+    def _build(self, edition_id: str) -> Edition:
         by_id = self._by_id()
         if edition_id not in by_id:
             known = ", ".join(sorted(by_id)) or "none installed"
