@@ -11,6 +11,7 @@ strip edges of shape ``(N, k)``.
 
 from __future__ import annotations
 
+import math
 from dataclasses import dataclass, fields
 from typing import Any, Protocol, TypeVar
 
@@ -29,9 +30,18 @@ def _col(value: ArrayLike) -> Array:
     return arr[:, None] if arr.ndim == 1 else arr
 
 
+def _clip(value: ArrayLike, low: ArrayLike, high: ArrayLike) -> Array:
+    """``np.clip`` without its dispatch overhead (the same two ufuncs, the same result),
+    which counts on the small arrays of a single section."""
+    return np.minimum(np.maximum(value, low), high)
+
+
 def _require_positive(law: object, *names: str) -> None:
     for name in names:
-        value = np.asarray(getattr(law, name), dtype=float)
+        raw = getattr(law, name)
+        if type(raw) is float and math.isfinite(raw) and raw > 0:  # one section: no numpy
+            continue
+        value = np.asarray(raw, dtype=float)
         if not np.all(np.isfinite(value)) or np.any(value <= 0):
             raise SectionError(
                 f"{type(law).__name__}.{name} must be positive and finite, got {value.tolist()}"
@@ -80,8 +90,8 @@ class RectangularBlock:
 
     def strip_resultants(self, c: Array, top: Array, bottom: Array) -> tuple[Array, Array]:
         a = _col(self.zone_depth(c))
-        lo = np.clip(top, 0.0, a)
-        hi = np.clip(bottom, 0.0, a)
+        lo = _clip(top, 0.0, a)
+        hi = _clip(bottom, 0.0, a)
         stress = _col(self.stress)
         return stress * (hi - lo), stress * 0.5 * (hi * hi - lo * lo)
 
@@ -123,12 +133,12 @@ class ParabolaRectangle:
         cc = _col(c)
         fcd = _col(self.peak_stress)
         n = _col(self.exponent)
-        lo = np.clip(top, 0.0, y_r)
-        hi = np.clip(bottom, 0.0, y_r)
+        lo = _clip(top, 0.0, y_r)
+        hi = _clip(bottom, 0.0, y_r)
         force = fcd * (hi - lo)
         moment = fcd * 0.5 * (hi * hi - lo * lo)
-        tp = (np.clip(top, y_r, cc) - y_r) / length
-        tq = (np.clip(bottom, y_r, cc) - y_r) / length
+        tp = (_clip(top, y_r, cc) - y_r) / length
+        tq = (_clip(bottom, y_r, cc) - y_r) / length
         linear = tq - tp
         p1 = (tq ** (n + 1) - tp ** (n + 1)) / (n + 1)
         p2 = (tq ** (n + 2) - tp ** (n + 2)) / (n + 2)
@@ -141,7 +151,7 @@ class ParabolaRectangle:
     def stress_at(self, c: Array, y: Array) -> Array:
         cc = _col(c)
         eps = _col(self.ultimate_strain) * (cc - y) / cc
-        ratio = np.clip(eps / _col(self.strain_at_peak), 0.0, 1.0)
+        ratio = _clip(eps / _col(self.strain_at_peak), 0.0, 1.0)
         return _col(self.peak_stress) * (1.0 - (1.0 - ratio) ** _col(self.exponent))
 
 
@@ -174,7 +184,7 @@ class ElasticPlastic:
 
     def stress(self, strain: Array) -> Array:
         fy = np.asarray(self.yield_stress)
-        return np.clip(np.asarray(self.modulus) * strain, -fy, fy)
+        return _clip(np.asarray(self.modulus) * strain, -fy, fy)
 
 
 @dataclass(frozen=True)

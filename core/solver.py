@@ -61,9 +61,9 @@ def _forces(sec: SectionArrays, concrete: ConcreteLaw, c: Array) -> _Forces:
         c, sec.edges[:, :-1], sec.edges[:, 1:])
     strip_force = sec.widths * force_per_width
     strip_moment = sec.widths * moment_per_width
-    concrete_force = strip_force.sum(axis=1)
-    net = concrete_force + np.sum(sec.areas * (stress - displaced), axis=1)
-    scale = concrete_force + np.sum(sec.areas * np.abs(stress), axis=1)
+    concrete_force = np.add.reduce(strip_force, axis=1)
+    net = concrete_force + np.add.reduce(sec.areas * (stress - displaced), axis=1)
+    scale = concrete_force + np.add.reduce(sec.areas * np.abs(stress), axis=1)
     return _Forces(net, scale, strain, stress, displaced, strip_force, strip_moment)
 
 
@@ -315,24 +315,26 @@ def solve_arrays(sec: SectionArrays, concrete: ConcreteLaw, *, rtol: float = 1e-
     web_width = sec.widths.min(axis=1, keepdims=True)
     per_width_force = f.strip_force / sec.widths
     per_width_moment = f.strip_moment / sec.widths
-    web_force = np.sum(web_width * per_width_force, axis=1)
-    web_moment = np.sum(web_width * per_width_moment, axis=1)
-    overhang_force = np.sum((sec.widths - web_width) * per_width_force, axis=1)
-    overhang_moment = np.sum((sec.widths - web_width) * per_width_moment, axis=1)
-    concrete_force = f.strip_force.sum(axis=1)
-    concrete_moment = f.strip_moment.sum(axis=1)
+    web_force = np.add.reduce(web_width * per_width_force, axis=1)
+    web_moment = np.add.reduce(web_width * per_width_moment, axis=1)
+    overhang_force = np.add.reduce((sec.widths - web_width) * per_width_force, axis=1)
+    overhang_moment = np.add.reduce((sec.widths - web_width) * per_width_moment, axis=1)
+    concrete_force = np.add.reduce(f.strip_force, axis=1)
+    concrete_moment = np.add.reduce(f.strip_moment, axis=1)
 
-    nominal_moment = -(concrete_moment + np.sum(layer_force * sec.depths, axis=1))
+    nominal_moment = -(concrete_moment + np.add.reduce(layer_force * sec.depths, axis=1))
     deepest = np.argmax(sec.depths, axis=1)
     rows = np.arange(sec.size)
     dt = sec.depths[rows, deepest]
     in_tension = f.strain < 0
-    tension_area = np.sum(np.where(in_tension, sec.areas, 0.0), axis=1)
+    tension_area = np.add.reduce(np.where(in_tension, sec.areas, 0.0), axis=1)
     with np.errstate(invalid="ignore", divide="ignore"):
-        d_eff = np.sum(np.where(in_tension, sec.areas * sec.depths, 0.0), axis=1) / tension_area
+        d_eff = np.add.reduce(np.where(in_tension, sec.areas * sec.depths, 0.0),
+                              axis=1) / tension_area
     zone = concrete.zone_depth(c_eval)
     zone_strip = np.minimum(
-        np.sum(sec.edges[:, 1:-1] < zone[:, None] * (1 - 1e-12), axis=1), len(sec.labels) - 1)
+        np.add.reduce(sec.edges[:, 1:-1] < zone[:, None] * (1 - 1e-12), axis=1),
+        len(sec.labels) - 1)
 
     invalid = status == NOT_BRACKETED
 

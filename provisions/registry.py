@@ -330,7 +330,8 @@ class Edition:
         and returns it changed. A hook of every layer keeps every answer, bottom first.
         """
         spec = hookspecs.BY_NAME[hook]
-        value, answered, wrapped = self._fold(spec, len(self._steps[hook]) - 1, kwargs)
+        with _quiet_floats():  # once for every layer asked
+            value, answered, wrapped = self._fold(spec, len(self._steps[hook]) - 1, kwargs)
         if value is None and spec.many:
             value = []
         self._check(spec, "the stack", value)
@@ -393,8 +394,7 @@ class Edition:
     def _run(self, spec: hookspecs.Hook, step: _Step, args: list[Any],
              call: Callable[..., Any] | None = None) -> Any:
         try:
-            with _quiet_floats():
-                return (call or step.function)(*args)
+            return (call or step.function)(*args)
         except (ClausewiseError, StopIteration):
             raise
         except Exception as exc:
