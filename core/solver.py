@@ -112,6 +112,8 @@ def find_neutral_axis(sec: SectionArrays, concrete: ConcreteLaw, *, rtol: float 
         c[rows[converged]] = x[converged]
         status[rows[converged]] = OK
         done |= converged
+        if done.all():
+            break
         negative = fx < 0
         # Illinois: halve the stale end's value when the same end moves twice running
         fb = np.where(negative & (side < 0), 0.5 * fb, fb)
@@ -119,7 +121,7 @@ def find_neutral_axis(sec: SectionArrays, concrete: ConcreteLaw, *, rtol: float 
         a, fa = np.where(negative, x, a), np.where(negative, fx, fa)
         b, fb = np.where(negative, b, x), np.where(negative, fb, fx)
         side = np.where(negative, -1.0, 1.0)
-        if 4 * done.sum() >= done.size and not done.all():  # shrink the working set
+        if 4 * done.sum() >= done.size:  # shrink the working set
             keep = np.flatnonzero(~done)
             rows, a, fa, b, fb, side = rows[keep], a[keep], fa[keep], b[keep], fb[keep], side[keep]
             work, law = work.take(keep), take_rows(law, keep, done.size)
