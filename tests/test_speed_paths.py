@@ -7,7 +7,11 @@ result is compared with the same result reached another way.
 
 from __future__ import annotations
 
+import math
+
 import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
 
 from clausewise.provisions import (
     Actions,
@@ -20,9 +24,13 @@ from clausewise.provisions import (
     Registry,
     Shape,
     assess,
+    default_registry,
     hookimpl,
 )
+from clausewise.provisions.batch import assess_many
+from clausewise.provisions.engine import NO_EQUILIBRIUM, OUT_OF_SCOPE
 from clausewise.provisions.registry import Edition
+from clausewise.synthetic import synthetic_beams
 
 ACI = frozenset({"aci318-19", "aci318-14", "aci318-11"})
 
@@ -117,3 +125,54 @@ def test_a_kept_edition_gives_the_results_of_a_fresh_one(edition_id):
     assert numbers(first) == numbers(again) == numbers(fresh)
     assert first.topics == again.topics == fresh.topics
     assert first.parameters == fresh.parameters
+
+
+# --- the single-beam path and the batch path agree -----------------------------------------
+
+BUILT_IN = sorted(r.info.id for r in default_registry().records
+                  if r.ok and r.info and r.distribution == "clausewise")
+
+
+def _close(one: float, many: float, rel: float = 1e-12) -> bool:
+    if math.isnan(one) or math.isnan(many):
+        return math.isnan(one) and math.isnan(many)
+    return one == many or abs(one - many) <= rel * max(abs(one), abs(many))
+
+
+def _nan(value) -> float:
+    return math.nan if value is None else float(value)
+
+
+def test_every_built_in_edition_is_compared():
+    # the seven editions shipped with the package, common practice of this project
+    assert len(BUILT_IN) == 7 and "aci318-19" in BUILT_IN and "en1992-1-1:2004" in BUILT_IN
+
+
+@pytest.mark.parametrize("edition_id", BUILT_IN)
+@settings(max_examples=4, deadline=None)
+@given(seed=st.integers(0, 2**31 - 1))
+def test_single_beam_equals_batch_to_1e_12(edition_id, seed):
+    """Each beam assessed alone (floats) gives its row of the batch (arrays) to 1e-12:
+    the same rules, the same solver, only the shape of the numbers differs."""
+    beams = synthetic_beams(24, seed)
+    (table,) = assess_many(beams, [edition_id]).values()
+    for i, beam in enumerate(beams):
+        one = assess(beam, edition_id)
+        assert table.status[i] == one.status, beam.id
+        if one.status in (OUT_OF_SCOPE, NO_EQUILIBRIUM):
+            continue
+        pairs = {
+            "design resistance": (one.design_resistance.value, table.design_resistance[i]),
+            "member factor": (one.resistance.factor.value, table.resistance_factor[i]),
+            "demand": (_nan(one.demand and one.demand.value), table.demand[i]),
+            "neutral axis": (one.response.c, table.neutral_axis[i]),
+            "net tensile strain": (one.response.net_tensile_strain,
+                                   table.net_tensile_strain[i]),
+            "effective width": (_nan(one.effective_width and one.effective_width.value),
+                                table.effective_width[i]),
+        }
+        pairs |= {f"utilisation of {c.name}": (c.utilisation, table.utilisation[c.name][i])
+                  for c in one.all_checks}
+        for what, (single, batch) in pairs.items():
+            assert _close(float(single), float(batch)), (beam.id, what, single, batch)
+        assert table.governing_check[i] == one.governing.name, beam.id
