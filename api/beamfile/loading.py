@@ -287,4 +287,5 @@ def load_schedule(path: str | Path, *, design: bool = False) -> Schedule:
         text = raw.decode("utf-8")
     except UnicodeDecodeError as exc:
         raise InputError(f"{path}: not UTF-8 text (bad byte at position {exc.start})") from exc
+    del raw  # the text is enough: a large file is not held twice while it is read
     return parse_schedule(text, str(path), design=design)
