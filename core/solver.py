@@ -147,7 +147,10 @@ def _before_first_step(sec: SectionArrays, concrete: ConcreteLaw, lo: Array,
         rows = np.flatnonzero((edge > lo) & (edge < hi))
         if rows.size == 0:
             continue
-        net, _ = _net(sec.take(rows), take_rows(concrete, rows, sec.size), edge[rows])
+        if rows.size == sec.size:  # every section (always so for one): no copy needed
+            net, _ = _net(sec, concrete, edge)
+        else:
+            net, _ = _net(sec.take(rows), take_rows(concrete, rows, sec.size), edge[rows])
         positive = rows[net > 0]
         hi[positive] = edge[positive]
     return hi
