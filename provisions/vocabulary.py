@@ -212,6 +212,8 @@ class Regime:
 
 def per_beam(value: Any) -> Value:
     """A float for one beam, the array itself for a batch: the shape every rule returns."""
+    if type(value) is float:
+        return value
     return value if np.ndim(value) else float(value)
 
 
