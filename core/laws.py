@@ -30,6 +30,14 @@ def _col(value: ArrayLike) -> Array:
     return arr[:, None] if arr.ndim == 1 else arr
 
 
+def _number(value: ArrayLike) -> Any:
+    """A law parameter to compute with: a plain float as it is (the same arithmetic as a
+    0-d array, without its cost), anything else as a float array."""
+    if type(value) is float or type(value) is int:
+        return float(value)
+    return np.asarray(value, dtype=float)
+
+
 def _clip(value: ArrayLike, low: ArrayLike, high: ArrayLike) -> Array:
     """``np.clip``, the same result: as two ufuncs on the small arrays of a single section
     (``np.clip`` costs more to call), as ``np.clip`` (one pass) on a batch."""
@@ -247,8 +255,8 @@ class PiecewiseLinear:
 
     def stress(self, strain: Array) -> Array:
         magnitude = np.abs(strain)
-        strains = [np.asarray(0.0)] + [np.asarray(p[0], dtype=float) for p in self.points]
-        stresses = [np.asarray(0.0)] + [np.asarray(p[1], dtype=float) for p in self.points]
+        strains = [0.0] + [_number(p[0]) for p in self.points]
+        stresses = [0.0] + [_number(p[1]) for p in self.points]
         result = np.broadcast_to(stresses[-1], np.shape(magnitude)).astype(float)
         for i in range(len(strains) - 1, 0, -1):
             e0, e1, s0, s1 = strains[i - 1], strains[i], stresses[i - 1], stresses[i]
