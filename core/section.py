@@ -164,12 +164,12 @@ class SectionArrays:
             raise SectionError("areas and depths must both have shape (N, layers)")
         if len(self.steel) != self.areas.shape[1] or len(self.labels) != k:
             raise SectionError("one steel law per layer and one label per strip are needed")
+        if not validate:  # rows taken from a checked batch (``take``)
+            return
         for j, law in enumerate(self.steel):
             if law_size(law) not in (1, n):
                 raise SectionError(f"steel law of layer {j} has parameters for {law_size(law)} "
                                    f"sections but the batch has {n}")
-        if not validate:
-            return
         bad = ~(np.all(np.isfinite(self.widths) & (self.widths > 0), axis=1)
                 & np.all(np.diff(self.edges, axis=1) > 0, axis=1)
                 & np.all(np.isfinite(self.areas) & (self.areas > 0), axis=1)

@@ -61,9 +61,9 @@ def _forces(sec: SectionArrays, concrete: ConcreteLaw, c: Array) -> _Forces:
         c, sec.edges[:, :-1], sec.edges[:, 1:])
     strip_force = sec.widths * force_per_width
     strip_moment = sec.widths * moment_per_width
-    concrete_force = strip_force.sum(axis=1)
-    net = concrete_force + np.sum(sec.areas * (stress - displaced), axis=1)
-    scale = concrete_force + np.sum(sec.areas * np.abs(stress), axis=1)
+    concrete_force = np.add.reduce(strip_force, axis=1)
+    net = concrete_force + np.add.reduce(sec.areas * (stress - displaced), axis=1)
+    scale = concrete_force + np.add.reduce(sec.areas * np.abs(stress), axis=1)
     return _Forces(net, scale, strain, stress, displaced, strip_force, strip_moment)
 
 
@@ -112,6 +112,8 @@ def find_neutral_axis(sec: SectionArrays, concrete: ConcreteLaw, *, rtol: float 
         c[rows[converged]] = x[converged]
         status[rows[converged]] = OK
         done |= converged
+        if done.all():
+            break
         negative = fx < 0
         # Illinois: halve the stale end's value when the same end moves twice running
         fb = np.where(negative & (side < 0), 0.5 * fb, fb)
@@ -119,7 +121,7 @@ def find_neutral_axis(sec: SectionArrays, concrete: ConcreteLaw, *, rtol: float 
         a, fa = np.where(negative, x, a), np.where(negative, fx, fa)
         b, fb = np.where(negative, b, x), np.where(negative, fb, fx)
         side = np.where(negative, -1.0, 1.0)
-        if 4 * done.sum() >= done.size and not done.all():  # shrink the working set
+        if 4 * done.sum() >= done.size:  # shrink the working set
             keep = np.flatnonzero(~done)
             rows, a, fa, b, fb, side = rows[keep], a[keep], fa[keep], b[keep], fb[keep], side[keep]
             work, law = work.take(keep), take_rows(law, keep, done.size)
@@ -145,7 +147,10 @@ def _before_first_step(sec: SectionArrays, concrete: ConcreteLaw, lo: Array,
         rows = np.flatnonzero((edge > lo) & (edge < hi))
         if rows.size == 0:
             continue
-        net, _ = _net(sec.take(rows), take_rows(concrete, rows, sec.size), edge[rows])
+        if rows.size == sec.size:  # every section (always so for one): no copy needed
+            net, _ = _net(sec, concrete, edge)
+        else:
+            net, _ = _net(sec.take(rows), take_rows(concrete, rows, sec.size), edge[rows])
         positive = rows[net > 0]
         hi[positive] = edge[positive]
     return hi
@@ -315,24 +320,26 @@ def solve_arrays(sec: SectionArrays, concrete: ConcreteLaw, *, rtol: float = 1e-
     web_width = sec.widths.min(axis=1, keepdims=True)
     per_width_force = f.strip_force / sec.widths
     per_width_moment = f.strip_moment / sec.widths
-    web_force = np.sum(web_width * per_width_force, axis=1)
-    web_moment = np.sum(web_width * per_width_moment, axis=1)
-    overhang_force = np.sum((sec.widths - web_width) * per_width_force, axis=1)
-    overhang_moment = np.sum((sec.widths - web_width) * per_width_moment, axis=1)
-    concrete_force = f.strip_force.sum(axis=1)
-    concrete_moment = f.strip_moment.sum(axis=1)
+    web_force = np.add.reduce(web_width * per_width_force, axis=1)
+    web_moment = np.add.reduce(web_width * per_width_moment, axis=1)
+    overhang_force = np.add.reduce((sec.widths - web_width) * per_width_force, axis=1)
+    overhang_moment = np.add.reduce((sec.widths - web_width) * per_width_moment, axis=1)
+    concrete_force = np.add.reduce(f.strip_force, axis=1)
+    concrete_moment = np.add.reduce(f.strip_moment, axis=1)
 
-    nominal_moment = -(concrete_moment + np.sum(layer_force * sec.depths, axis=1))
+    nominal_moment = -(concrete_moment + np.add.reduce(layer_force * sec.depths, axis=1))
     deepest = np.argmax(sec.depths, axis=1)
     rows = np.arange(sec.size)
     dt = sec.depths[rows, deepest]
     in_tension = f.strain < 0
-    tension_area = np.sum(np.where(in_tension, sec.areas, 0.0), axis=1)
+    tension_area = np.add.reduce(np.where(in_tension, sec.areas, 0.0), axis=1)
     with np.errstate(invalid="ignore", divide="ignore"):
-        d_eff = np.sum(np.where(in_tension, sec.areas * sec.depths, 0.0), axis=1) / tension_area
+        d_eff = np.add.reduce(np.where(in_tension, sec.areas * sec.depths, 0.0),
+                              axis=1) / tension_area
     zone = concrete.zone_depth(c_eval)
     zone_strip = np.minimum(
-        np.sum(sec.edges[:, 1:-1] < zone[:, None] * (1 - 1e-12), axis=1), len(sec.labels) - 1)
+        np.add.reduce(sec.edges[:, 1:-1] < zone[:, None] * (1 - 1e-12), axis=1),
+        len(sec.labels) - 1)
 
     invalid = status == NOT_BRACKETED
 

@@ -21,6 +21,7 @@ The ranges are the trade's, wide enough for every published edition:
 
 from __future__ import annotations
 
+import math
 import re
 from collections.abc import Callable, Iterable
 from functools import lru_cache
@@ -80,6 +81,9 @@ def _shown(values: np.ndarray, bad: np.ndarray, raw: Any = 0.0) -> str:
 def _within(values: np.ndarray, ok: Callable[[np.ndarray], np.ndarray],
             allow_nan: bool = False) -> np.ndarray:
     """The elements that are out of range (NaN counts as out unless allowed)."""
+    if values.size == 1:  # one beam: the same test on a float, without numpy's per-call cost
+        v = float(values[0])
+        return np.array([not (bool(ok(v)) or (allow_nan and math.isnan(v)))])
     with np.errstate(invalid="ignore"):
         good = ok(values) | (np.isnan(values) if allow_nan else False)
     return ~good

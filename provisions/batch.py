@@ -267,23 +267,24 @@ def iter_assess_many(beams: Sequence[Beam], editions: Iterable[str | Edition], *
     groups: dict[tuple[Any, ...], list[int]] = {}
     for i, beam in enumerate(beams):
         groups.setdefault(kind_of(beam), []).append(i)
-    chunks = [np.array(members[start:start + chunk]) for members in groups.values()
+    chunks = [members[start:start + chunk] for members in groups.values()
               for start in range(0, len(members), chunk)]
-    stacked: dict[int, Beam] = {}
+    indices = [np.array(members) for members in chunks]
+    stacked: dict[int, tuple[list[Beam], list[str], Beam]] = {}  # built once, for every edition
     for edition in resolved:
-        for number, index in enumerate(chunks):
-            group = [beams[i] for i in index]
+        for number, members in enumerate(chunks):
             if number not in stacked:
-                stacked[number] = stack_beams(group)
-            yield index, _chunk_table(edition, group, stacked[number], form, situation)
+                group = [beams[i] for i in members]
+                stacked[number] = group, [b.id for b in group], stack_beams(group)
+            group, ids, batch = stacked[number]
+            yield indices[number], _chunk_table(edition, group, ids, batch, form, situation)
 
 
-def _chunk_table(edition: Edition, group: list[Beam], batch: Beam, form: str | None,
-                 situation: str) -> BatchTable:
+def _chunk_table(edition: Edition, group: list[Beam], ids: list[str], batch: Beam,
+                 form: str | None, situation: str) -> BatchTable:
     try:
         chosen, _ = resolve_form(edition, group[0], form)
-        return _group_table(edition, batch, [b.id for b in group],
-                            Context(form=chosen, situation=situation))
+        return _group_table(edition, batch, ids, Context(form=chosen, situation=situation))
     except (ClausewiseError, ValueError, ArithmeticError):
         tables = [_single_table(edition, b, form, situation) for b in group]
         merged = BatchTable.empty(edition.id, [b.id for b in group])

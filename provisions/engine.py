@@ -199,6 +199,8 @@ def evaluate(beam: Beam, edition: Edition, context: Context) -> Evaluation:
 def _all_passed(checks: tuple[Check, ...]) -> Any:
     if not checks:
         return True
+    if all(type(c.passed) is bool for c in checks):  # one beam
+        return all(c.passed for c in checks)
     passed = np.logical_and.reduce(np.broadcast_arrays(*[np.asarray(c.passed) for c in checks]))
     return passed if np.ndim(passed) else bool(passed)
 

@@ -88,6 +88,8 @@ class Registry:
     strict: bool = False
     only: frozenset[str] | None = None
     records: list[PluginRecord] = field(default_factory=list)
+    _editions: dict[str, Edition] = field(default_factory=dict, init=False, repr=False,
+                                          compare=False)
 
     # --- loading -----------------------------------------------------------------
     def load_entry_points(self) -> None:
@@ -136,6 +138,7 @@ class Registry:
                 raise PluginError(f"plugin {name!r} ({source}) is broken: {record.error}") \
                     from exc
         self.records = [r for r in self.records if r.name != name or r.ok] + [record]
+        self._editions.clear()  # a new layer may change any stack
         return record
 
     # --- lookup ------------------------------------------------------------------
@@ -150,7 +153,16 @@ class Registry:
         return sorted(self._by_id())
 
     def edition(self, edition_id: str) -> Edition:
-        """The layered edition ``edition_id`` (its bases below it)."""
+        """The layered edition ``edition_id`` (its bases below it), built once per id and
+        kept until a plugin is added: building one costs a plugin manager."""
+        cached = self._editions.get(edition_id)
+        if cached is not None:
+            return cached
+        edition = self._build(edition_id)
+        self._editions[edition_id] = edition
+        return edition
+
+    def _build(self, edition_id: str) -> Edition:
         by_id = self._by_id()
         if edition_id not in by_id:
             known = ", ".join(sorted(by_id)) or "none installed"
@@ -318,7 +330,8 @@ class Edition:
         and returns it changed. A hook of every layer keeps every answer, bottom first.
         """
         spec = hookspecs.BY_NAME[hook]
-        value, answered, wrapped = self._fold(spec, len(self._steps[hook]) - 1, kwargs)
+        with _quiet_floats():  # once for every layer asked
+            value, answered, wrapped = self._fold(spec, len(self._steps[hook]) - 1, kwargs)
         if value is None and spec.many:
             value = []
         self._check(spec, "the stack", value)
@@ -381,8 +394,7 @@ class Edition:
     def _run(self, spec: hookspecs.Hook, step: _Step, args: list[Any],
              call: Callable[..., Any] | None = None) -> Any:
         try:
-            with _quiet_floats():
-                return (call or step.function)(*args)
+            return (call or step.function)(*args)
         except (ClausewiseError, StopIteration):
             raise
         except Exception as exc:

@@ -63,6 +63,9 @@ def status(*, in_scope: Any, equilibrium: Any, checks: Sequence[Check],
     """The verdict: outside scope, else no equilibrium, else fail if a check fails, else
     pass, or capacity only where no actions were given. Scalars give a ``Status``; arrays
     (one entry per beam) give an object array of ``Status``."""
+    if all(type(v) is bool or isinstance(v, float | int) for v in (in_scope, equilibrium)) \
+            and all(isinstance(c.utilisation, float) for c in checks):
+        return _one_status(bool(in_scope), bool(equilibrium), checks, has_demand)
     import numpy as np
 
     passed: Any = True
@@ -74,6 +77,18 @@ def status(*, in_scope: Any, equilibrium: Any, checks: Sequence[Check],
                      np.where(~np.asarray(equilibrium, bool), _ORDER.index(NO_EQUILIBRIUM),
                               np.where(passed, done, _ORDER.index(FAIL))))
     return order[index] if index.ndim else _ORDER[int(index)]
+
+
+def _one_status(in_scope: bool, equilibrium: bool, checks: Sequence[Check],
+                has_demand: bool) -> Status:
+    """The same verdict for one beam, without numpy's per-call cost."""
+    if not in_scope:
+        return OUT_OF_SCOPE
+    if not equilibrium:
+        return NO_EQUILIBRIUM
+    if not all(c.utilisation <= 1.0 + TOLERANCE for c in checks):
+        return FAIL
+    return PASS if has_demand else CAPACITY_ONLY
 
 
 _ORDER = (PASS, FAIL, OUT_OF_SCOPE, NO_EQUILIBRIUM, CAPACITY_ONLY)

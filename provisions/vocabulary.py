@@ -94,6 +94,12 @@ class Envelope:
     def __post_init__(self) -> None:
         if not self.candidates:
             raise ValueError(f"envelope {self.name!r} needs at least one candidate")
+        values = [c.value for c in self.candidates]
+        if all(type(v) is float or type(v) is int for v in values):  # one beam, no numpy
+            index = _pick(values, self.bound)
+            object.__setattr__(self, "governing", index)
+            object.__setattr__(self, "value", float(values[index]))
+            return
         stack = np.array(np.broadcast_arrays(*[np.asarray(c.value, float)
                                                for c in self.candidates]))
         pick = np.argmin if self.bound is Bound.SMALLEST else np.argmax
@@ -120,6 +126,17 @@ class Envelope:
     def excess(self, candidate: Candidate) -> Value:
         """How far a candidate lies beyond the governing value (0 for the governing one)."""
         return np.abs(np.asarray(candidate.value, float) - self.value)
+
+
+def _pick(values: list[float], bound: Bound) -> int:
+    """``np.argmin`` (or ``argmax``) of plain numbers: the first NaN, else the first
+    smallest (largest)."""
+    nan = next((i for i, v in enumerate(values) if v != v), None)
+    if nan is not None:
+        return nan
+    key = values.__getitem__
+    return min(range(len(values)), key=key) if bound is Bound.SMALLEST else \
+        max(range(len(values)), key=key)
 
 
 class Sense(StrEnum):
@@ -195,6 +212,8 @@ class Regime:
 
 def per_beam(value: Any) -> Value:
     """A float for one beam, the array itself for a batch: the shape every rule returns."""
+    if type(value) is float:
+        return value
     return value if np.ndim(value) else float(value)
 
 

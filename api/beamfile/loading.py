@@ -3,7 +3,8 @@
 from __future__ import annotations
 
 import gc
-from collections.abc import Iterator
+import re
+from collections.abc import Iterable, Iterator
 from contextlib import contextmanager
 from dataclasses import dataclass
 from pathlib import Path
@@ -118,14 +119,18 @@ def _beam_id(raw: Any) -> str | None:
     return None
 
 
-def _schedule(data: dict[str, Any], source: str, base: Path, design: bool = False) -> Schedule:
+def _schedule(data: dict[str, Any], source: str, base: Path, design: bool = False,
+              beams: Iterable[Any] | None = None) -> Schedule:
+    """The schedule of a parsed file; ``beams``, when given, are the [[beam]] tables read
+    apart from ``data`` (chunk by chunk, see :func:`_beam_chunks`)."""
     project, header_problems = _header(data, source, base)
-    beams = data.get("beam")
-    if not beams:
-        raise InputError(f"{source}: no beams; add at least one [[beam]] table")
-    if not isinstance(beams, list):
-        raise InputError(f"{source}, field beam: got {_text(beams)!r}, expected [[beam]] "
-                         "tables, one per beam")
+    if beams is None:
+        beams = data.get("beam")
+        if not beams:
+            raise InputError(f"{source}: no beams; add at least one [[beam]] table")
+        if not isinstance(beams, list):
+            raise InputError(f"{source}, field beam: got {_text(beams)!r}, expected [[beam]] "
+                             "tables, one per beam")
     entries: list[BeamEntry] = []
     problems: list[InputProblem] = []
     first_seen: dict[str, int] = {}
@@ -213,11 +218,58 @@ def _collector_paused() -> Iterator[None]:
             gc.enable()
 
 
+_BEAM_TABLE = re.compile(r"^\[\[[ \t]*beam[ \t]*\]\][ \t]*(?:#[^\n]*)?$", re.MULTILINE)
+CHUNK = 5_000  # [[beam]] tables parsed at a time in a large file
+
+
+class _NotChunked(Exception):
+    """The file cannot be read in pieces exactly as a whole (a table after the beams, a
+    line ``[[beam]]`` inside a string, a syntax error): read it whole instead."""
+
+
+def _beam_chunks(text: str, source: str) -> tuple[dict[str, Any], Iterator[list[Any]]] | None:
+    """The tables before the first [[beam]], and the [[beam]] tables ``CHUNK`` at a time,
+    for a file of more than ``CHUNK`` beams: the parsed tree of a large schedule is many
+    times the size of its beams, so it is never held whole. None for a smaller file."""
+    starts = [m.start() for m in _BEAM_TABLE.finditer(text)]
+    if len(starts) <= CHUNK:
+        return None
+    try:
+        head = _toml_loads(text[:starts[0]], source)
+    except InputError:
+        return None
+    if "beam" in head:
+        return None
+    bounds = [*starts[::CHUNK], len(text)]
+
+    def chunks() -> Iterator[list[Any]]:
+        for start, end in zip(bounds, bounds[1:], strict=False):
+            try:
+                part = _toml_loads(text[start:end], source)
+            except InputError:
+                raise _NotChunked from None
+            if set(part) != {"beam"} or not isinstance(part["beam"], list):
+                raise _NotChunked
+            yield part["beam"]
+
+    return head, chunks()
+
+
 def parse_schedule(text: str, source: str = "<text>", *, design: bool = False) -> Schedule:
     """Read a schedule from TOML text; annex paths are taken relative to ``source``'s folder.
-    With ``design``, beams may leave out their tension bars (design chooses them)."""
+    With ``design``, beams may leave out their tension bars (design chooses them). A large
+    file is parsed a chunk of beams at a time, with the same result as parsed whole."""
+    base = Path(source).parent
     with _collector_paused():
-        return _schedule(_toml_loads(text, source), source, Path(source).parent, design)
+        pieces = _beam_chunks(text, source)
+        if pieces is not None:
+            head, chunks = pieces
+            try:
+                return _schedule(head, source, base, design,
+                                 (raw for chunk in chunks for raw in chunk))
+            except _NotChunked:
+                pass
+        return _schedule(_toml_loads(text, source), source, base, design)
 
 
 def load_schedule(path: str | Path, *, design: bool = False) -> Schedule:
@@ -235,4 +287,5 @@ def load_schedule(path: str | Path, *, design: bool = False) -> Schedule:
         text = raw.decode("utf-8")
     except UnicodeDecodeError as exc:
         raise InputError(f"{path}: not UTF-8 text (bad byte at position {exc.start})") from exc
+    del raw  # the text is enough: a large file is not held twice while it is read
     return parse_schedule(text, str(path), design=design)
