@@ -78,7 +78,7 @@ def _shown(values: np.ndarray, bad: np.ndarray, raw: Any = 0.0) -> str:
     return repr(float(values[bad][0])) if values.size else "no value"
 
 
-def _within(values: np.ndarray, ok: Callable[[np.ndarray], np.ndarray],
+def _within(values: np.ndarray, ok: Callable[[Any], Any],
             allow_nan: bool = False) -> np.ndarray:
     """The elements that are out of range (NaN counts as out unless allowed)."""
     if values.size == 1:  # one beam: the same test on a float, without numpy's per-call cost
