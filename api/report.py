@@ -675,9 +675,13 @@ def causes(before: Outcome, after: Outcome, threshold: float, limits: bool = Tru
     units = _units(before)
     b, a = _drivers(before), _drivers(after)
     moved: list[tuple[float, str]] = []
-    for role in b.keys() & a.keys():
+    seen: set[tuple[float, float, str]] = set()  # one line for one change (fcd and η fcd)
+    for role in (r for r in b if r in a):  # in the audit's order, so the choice is stable
         (nb, vb, unit, sets), (na, va, _, _) = b[role], a[role]
         change = _relative(vb, va)
+        if (vb, va, unit) in seen:
+            continue
+        seen.add((vb, va, unit))
         if (sets or limits) and (abs(change) > threshold or nb != na):
             name = nb if nb == na else f"{nb} → {na}"
             percent = f" ({change:+.0%})" if math.isfinite(change) and change else ""
