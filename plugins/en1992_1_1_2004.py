@@ -30,6 +30,7 @@ import numpy as np
 
 from clausewise.provisions import (
     Beam,
+    BeamDataError,
     Bending,
     BilinearHardening,
     Candidate,
@@ -75,6 +76,7 @@ EDITION = EditionInfo(
     "(recommended values)", 2004,
     summary="Eurocode 2; partial factors on the materials, no member factor",
     notation=Notation("fck", "fyk", "x", "εs", "M_Rd", "M_Rd", "M_Ed"),
+    situations=("persistent", "transient", "accidental"),
 )
 clause = EDITION.clause
 
@@ -397,10 +399,13 @@ def design_actions(beam: Beam, params: Parameters, context: Context) -> Envelope
         pair = params["combination_rule"].clause
         combinations = [Combination(g, psi * q, pair, f"{g:g}G + {psi:g}×{q:g}Q (6.10a)"),
                         Combination(xi * g, q, pair, f"{xi:g}×{g:g}G + {q:g}Q (6.10b)")]
-    if context.situation == "accidental":
-        note = (" (the accidental combination EN 1990 6.11 needs the accidental action: give "
-                "the design moment as factored)")
-        combinations = [replace(c, name=c.label(("G", "Q")) + note) for c in combinations]
+    if context.situation == "accidental" and beam.actions.factored is None \
+            and (beam.actions.dead is not None or beam.actions.live is not None):
+        raise BeamDataError(
+            f"beam {beam.id!r}, field moments.factored: the accidental design situation "
+            "needs the design moment of the accidental combination (EN 1990 6.11: G + Ad + "
+            "ψ Q, with the accidental action Ad), given as moments.factored in kN m; the "
+            "service moments dead and live cannot make it without the accidental action")
     return factored_moment(beam, combinations, input_clause("design moment as given"),
                            name="design moment", symbol="M_Ed", symbols=("G", "Q"))
 

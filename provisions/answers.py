@@ -31,7 +31,10 @@ class EditionInfo:
     """Who an edition is. ``extends`` names the edition it layers over; ``forms`` the
     published forms it implements (the first is the default). Left out, ``forms`` is
     the base's for an extending edition and ("SI",) for a base. ``notation`` likewise:
-    left out, an extending edition reads in its base's symbols."""
+    left out, an extending edition reads in its base's symbols. ``situations``: the
+    design situations whose rules differ in this edition (partial factors, combinations);
+    left out, the base's, or ("persistent",) for a base whose strength rules are the
+    same in every situation."""
 
     id: str
     title: str
@@ -40,6 +43,7 @@ class EditionInfo:
     forms: tuple[str, ...] | None = None
     summary: str = ""
     notation: Notation | None = None
+    situations: tuple[str, ...] | None = None
 
     def clause(self, ref: str, title: str) -> Clause:
         """A clause of this edition (so that every value names its supplier)."""

@@ -132,6 +132,22 @@ def resolve_form(edition: Edition, beam: Beam, form: str | None) -> tuple[str, s
     return forms[0], "the edition's only form"
 
 
+def check_situation(edition: Edition, situation: str) -> None:
+    """An edition is assessed only in a design situation it distinguishes: one whose
+    strength rules do not change with the situation says so rather than answer as if
+    they did."""
+    if situation in edition.situations:
+        return
+    known = ", ".join(edition.situations)
+    if edition.situations == ("persistent",):
+        raise EditionError(
+            f"edition {edition.id!r} has no {situation} design situation of its own: its "
+            "resistance rules are the same in every situation, so assess it as persistent, "
+            "with the factored moment of the situation given as moments.factored")
+    raise EditionError(f"edition {edition.id!r} has no {situation} design situation "
+                       f"(it distinguishes: {known})")
+
+
 def build_section(beam: Beam, width: Any, steel: MaterialModel) -> SectionArrays:
     """The core section of a beam with a given (effective) flange width."""
     layers = (*beam.tension, *beam.compression)
@@ -152,6 +168,7 @@ def evaluate(beam: Beam, edition: Edition, context: Context) -> Evaluation:
     if beam.flanged and beam.flange_thickness is None:
         raise SectionError(f"beam {beam.id!r}: a {beam.shape.value} beam needs its flange "
                            "(slab) thickness hf in mm")
+    check_situation(edition, context.situation)
     params = edition.parameters(context)
     applicability = tuple(edition.applicability(beam, params, context))
     in_scope = _all_passed(applicability)

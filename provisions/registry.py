@@ -321,6 +321,15 @@ class Edition:
     def base(self) -> EditionInfo:
         return self.layers[0].info  # type: ignore[return-value]
 
+    @property
+    def situations(self) -> tuple[str, ...]:
+        """The design situations this edition distinguishes (the nearest layer's that
+        declares them; ("persistent",) where none does)."""
+        for record in reversed(self.layers):
+            if record.info is not None and record.info.situations is not None:
+                return record.info.situations
+        return ("persistent",)
+
     # --- calling hooks through the layers ---------------------------------------------
     def ask(self, hook: str, **kwargs: Any) -> Any:
         """The stack's answer to ``hook``, checked against what the hook promises.

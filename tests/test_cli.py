@@ -201,7 +201,9 @@ def test_the_edition_option_overrides_the_file_and_repeats(tmp_path, capsys):
 
 
 def test_situation_option_reaches_the_partial_factors(tmp_path, capsys):
-    path = write(tmp_path, HEADER + RB1 % ("150 kN m", "100 kN m"))
+    given = (HEADER + RB1 % ("150 kN m", "100 kN m")).replace(
+        'moments = { dead = "150 kN m", live = "100 kN m" }', 'moments = { factored = "300 kN m" }')
+    path = write(tmp_path, given)
     resistance = {}
     for situation in ("persistent", "accidental"):
         _, doc = run_json(capsys, "check", str(path), "--edition", "en1992-1-1:2004",
@@ -217,6 +219,21 @@ def test_situation_option_reaches_the_partial_factors(tmp_path, capsys):
         a = 2000 * fyd / (fcd * 2000)
         assert resistance[situation] == pytest.approx(2000 * fyd * (540 - a / 2) / 1e6,
                                                       rel=1e-9)
+
+
+def test_the_accidental_situation_needs_its_own_design_moment(tmp_path, capsys):
+    """EN 1990 6.11 (from memory): the accidental combination holds the accidental action,
+    which service moments do not; an edition without accidental rules says so."""
+    path = write(tmp_path, HEADER + RB1 % ("150 kN m", "100 kN m"))
+    status, doc = run_json(capsys, "check", str(path), "--edition", "en1992-1-1:2004",
+                           "--edition", "aci318-19", "--situation", "accidental")
+    assert status == 2
+    by_edition = {r["edition"]: r for r in doc["results"]}
+    assert by_edition["en1992-1-1:2004"]["status"] == "error"
+    assert "moments.factored" in by_edition["en1992-1-1:2004"]["error"]
+    assert "6.11" in by_edition["en1992-1-1:2004"]["error"]
+    assert by_edition["aci318-19"]["status"] == "error"
+    assert "no accidental design situation" in by_edition["aci318-19"]["error"]
 
 
 def test_form_option_reaches_the_engine(tmp_path, capsys):

@@ -19,12 +19,12 @@ from clausewise.provisions import (
     Bending,
     Context,
     Continuity,
+    EditionError,
     EditionInfo,
     FloorLayout,
     Layer,
     Parameter,
     ParameterError,
-    PluginError,
     Registry,
     Shape,
     StrengthBasis,
@@ -313,7 +313,8 @@ def test_accidental_situation_uses_its_partial_factors(edition):
 
 
 def test_unknown_situation_is_refused(edition):
-    with pytest.raises(PluginError, match="design situation 'seismic'"):
+    with pytest.raises(EditionError, match="no seismic design situation .it distinguishes: "
+                       "persistent, transient, accidental"):
         assess(flange_tee(), edition, situation="seismic")
 
 
