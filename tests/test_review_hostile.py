@@ -92,3 +92,12 @@ def test_design_refuses_the_sheet_formats_in_words(tmp_path, capsys, asked):
     err = capsys.readouterr().err
     assert "design writes text, json, toml or csv" in err and "Traceback" not in err
     assert not (tmp_path / "design.html").exists()
+
+
+def test_schema_is_written_only_as_json(tmp_path, capsys):
+    """`schema --out schema.pdf` wrote JSON text into a .pdf file; the extension decides
+    the format everywhere else, so a schema goes only to .json."""
+    assert main(["schema", "--out", str(tmp_path / "schema.pdf")]) == 2
+    assert not (tmp_path / "schema.pdf").exists()
+    assert "written as .json" in capsys.readouterr().err
+    assert main(["schema", "--out", str(tmp_path / "schema.json")]) == 0
