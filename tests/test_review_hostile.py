@@ -101,3 +101,20 @@ def test_schema_is_written_only_as_json(tmp_path, capsys):
     assert not (tmp_path / "schema.pdf").exists()
     assert "written as .json" in capsys.readouterr().err
     assert main(["schema", "--out", str(tmp_path / "schema.json")]) == 0
+
+
+@pytest.mark.parametrize("command", [["editions"], ["editions", "aci318-19"],
+                                     ["editions", "--parameters", "csa-a23.3:19"]])
+def test_listing_csv_has_its_header_first_and_the_caution_in_every_row(command, capsys):
+    """The listings' CSV began with a "# caution" line, which a CSV reader takes for the
+    header; like check's CSV, the header comes first and the caution is the last column."""
+    import csv
+    import io
+
+    from clausewise.provisions import CAUTION
+
+    assert main([*command, "--format", "csv"]) == 0
+    rows = list(csv.DictReader(io.StringIO(capsys.readouterr().out)))
+    assert rows and list(rows[0])[-1] == "caution"
+    assert all(r["caution"] == CAUTION for r in rows)
+    assert not any(key.startswith("#") for key in rows[0])
