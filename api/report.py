@@ -249,10 +249,21 @@ def checks_table(checks: Sequence[Check], units: Units, edition: str, title: str
             _row(table, name, f"{symbol}{units.value(c.value, c.unit)}",
                  f"{_sign(c.sense)} {units.value(c.limit, c.unit)}",
                  utilisation, _status(PASS if c.passed else FAIL),
-                 Text(clause) if narrow else two_lines(clause, c.clause.title))
+                 _narrow_clause(c.clause, edition) if narrow
+                 else two_lines(clause, c.clause.title))
         return Group(table, footnotes) if footnotes else table
 
     return ByWidth(build)
+
+
+def _narrow_clause(clause: Clause, edition: str) -> Text:
+    """On a narrow screen a clause kept whole on its line: the reference, and under it the
+    supplier where that is not the edition reported (a local edition's base), since the
+    two on one line were cut ("en1992-1-1:2004 9." for 9.2.1.1(1))."""
+    text = Text(clause.ref)
+    if clause.edition not in ("", edition):
+        text.append(f"\n{clause.edition}", style="dim")
+    return text
 
 
 def _verdict(outcome: Outcome) -> Text:
