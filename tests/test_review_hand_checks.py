@@ -190,3 +190,11 @@ def test_csa_doubly_reinforced(results):
     mr = stress * 300 * a * (540 - a / 2) + top_force * (540 - 60)   # 491.0 kN m
     assert r["section"]["neutral_axis_depth"] == pytest.approx(c, rel=1e-4)
     assert _design_resistance(r) == pytest.approx(mr / 1e6, rel=1e-4)
+
+
+def test_a_beam_without_a_floor_says_its_determinacy_is_assumed(results):
+    """DR gives no floor: "no (from the continuity)" named a continuity nobody gave."""
+    shown = results["DR", "aci318-19"]["inputs"]
+    text = json.dumps(shown, ensure_ascii=False)
+    assert "from the continuity" not in text
+    assert "assumed" in text and "statically_determinate" in text
