@@ -41,7 +41,7 @@ if TYPE_CHECKING:
 
 PROGRAM = "clausewise"
 FORMATS = ("text", "html", "pdf", "json", "toml", "csv")
-REPORT_WIDTH = 110  # columns of a report that does not go to a terminal
+REPORT_WIDTH = 110  # columns of a report that does not go to a terminal (unless COLUMNS says)
 BATCH_FROM = 2_000  # beam-editions beyond which check takes the batch path (text or CSV)
 
 EXIT_STATUS = """exit status:
@@ -353,8 +353,8 @@ def _confirm(out: Path) -> None:
 
 
 def _emit_report(renderable: Any, width: int = REPORT_WIDTH, out: Path | None = None) -> None:
-    """Print a text report (``width`` columns unless on a terminal), or write it to a
-    file as plain text."""
+    """Print a text report (``width`` columns unless on a terminal or COLUMNS says), or
+    write it to a file as plain text."""
     from rich.console import Console
 
     from clausewise.results import write_atomic

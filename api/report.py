@@ -39,10 +39,10 @@ if TYPE_CHECKING:
     from clausewise.provisions.registry import Edition, PluginRecord, Registry
     from clausewise.stream import Summary as BatchSummary
 
-STATUS_STYLE = {PASS: "bold green", FAIL: "bold red", ERROR: "bold magenta",
+STATUS_STYLE: dict[str, str] = {PASS: "bold green", FAIL: "bold red", ERROR: "bold magenta",
                 CAPACITY_ONLY: "bold cyan"}
 # one character per status in the comparison's cells (the legend spells them out)
-STATUS_MARK = {PASS: "✓", FAIL: "✗", "outside scope": "⊘", "no equilibrium": "?",
+STATUS_MARK: dict[str, str] = {PASS: "✓", FAIL: "✗", "outside scope": "⊘", "no equilibrium": "?",
                ERROR: "!", CAPACITY_ONLY: "○"}
 # short codes of the governing check, by words of its name (first match wins)
 CHECK_CODES = (("flexural strength", "M"), ("minimum strength", "Mmin"),

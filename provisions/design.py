@@ -324,7 +324,7 @@ def _least_area(group: _Group, depth: NDArray[np.float64], top: NDArray[np.float
                               set_by[ok])
         clause[ok] = np.where(moved, np.asarray(table.governing_clause, dtype=object)[below],
                               clause[ok])
-    return _Bracket(np.where(found, hi, np.nan), lo, found, set_by, clause)
+    return _Bracket(np.where(found, hi, np.nan), lo, np.asarray(found, bool), set_by, clause)
 
 
 def _take(layers: tuple[Layer, ...], rows: NDArray[np.int_]) -> tuple[Layer, ...]:
@@ -349,7 +349,7 @@ def _design_group(group: _Group, audit: bool) -> list[Design]:
     bracket = _least_area(group, depth, top, everyone)
     found = bracket.found
     designs: dict[int, Design] = {}
-    for i in np.flatnonzero(found):
+    for i in map(int, np.flatnonzero(found)):
         designs[i] = Design(
             group.beams[i].id, group.edition.id, DESIGNED, float(bracket.least[i]),
             float(depth[i]), str(bracket.set_by[i]), str(bracket.set_by_clause[i]),
@@ -411,7 +411,7 @@ def _without_tension_only(group: _Group, missing: NDArray[np.int_], depth: NDArr
                               tension_shares)  # the same grid, so its pass is found again
         best_total[has] = np.where(refined.found, refined.least + best[has], np.inf)
     for j, i in enumerate(scoped):
-        grow = dict(least_depth=grow_depth[j], least_width=grow_width[j])
+        grow: dict[str, Any] = dict(least_depth=grow_depth[j], least_width=grow_width[j])
         if np.isfinite(best_total[j]):
             out[i] = Design(group.beams[i].id, group.edition.id, COMPRESSION,
                             float(best_total[j] - best[j]), float(depth[i]),
@@ -445,7 +445,7 @@ def _least_growth(group: _Group, beams: NDArray[np.int_], trial: float,
     steel = depth[rows]
     if dimension == "depth":  # the steel keeps its distance from the tension face
         steel = steel + grown - _array(group.batch.depth, group.size)[rows]
-    sub = replace(take_beam(group.batch, rows), **{dimension: grown})
+    sub = replace(take_beam(group.batch, rows), **{dimension: grown})  # type: ignore[arg-type]
     areas = _most_steel(sub, rows.size) * np.tile(shares, k * m)
     table = assess_columns(replace(sub, tension=(Layer(areas, steel),), compression=()),
                            [group.edition], ids=[""] * rows.size, form=group.form,

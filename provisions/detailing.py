@@ -170,7 +170,8 @@ def _between_layers(beam: Beam, limits_for: Any) -> list[Check]:
     layers = [layer for layer in beam.tension if layer.has_bars]
     for upper, lower in zip(layers, layers[1:], strict=False):
         same = upper.diameter is lower.diameter or (
-            np.ndim(upper.diameter) == 0 and upper.diameter == lower.diameter)
+            np.ndim(np.asarray(upper.diameter, float)) == 0
+            and upper.diameter == lower.diameter)
         larger = upper.diameter if same else per_beam(np.maximum(
             np.asarray(upper.diameter, float), np.asarray(lower.diameter, float)))
         limits = limits_for(larger)

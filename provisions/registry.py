@@ -428,23 +428,23 @@ class Edition:
 
     def effective_flange_width(self, beam: Beam, params: Parameters,
                                context: Context) -> Envelope:
-        return self.ask("effective_flange_width", beam=beam, params=params,  # type: ignore[no-any-return]
+        return self.ask("effective_flange_width", beam=beam, params=params,
                         context=context)
 
     def concrete_law(self, beam: Beam, params: Parameters, context: Context) -> MaterialModel:
-        return self.ask("concrete_law", beam=beam, params=params, context=context)  # type: ignore[no-any-return]
+        return self.ask("concrete_law", beam=beam, params=params, context=context)
 
     def steel_law(self, beam: Beam, params: Parameters, context: Context) -> MaterialModel:
-        return self.ask("steel_law", beam=beam, params=params, context=context)  # type: ignore[no-any-return]
+        return self.ask("steel_law", beam=beam, params=params, context=context)
 
     def resistance_factor(self, beam: Beam, response: hookspecs.SolvedSection,
                           params: Parameters, context: Context) -> Resistance:
-        return self.ask("resistance_factor", beam=beam, response=response,  # type: ignore[no-any-return]
+        return self.ask("resistance_factor", beam=beam, response=response,
                         params=params, context=context)
 
     def design_actions(self, beam: Beam, params: Parameters,
                        context: Context) -> Envelope | None:
-        return self.ask("design_actions", beam=beam, params=params, context=context)  # type: ignore[no-any-return]
+        return self.ask("design_actions", beam=beam, params=params, context=context)
 
     def minimum_reinforcement(self, beam: Beam, section: hookspecs.SectionView,
                               response: hookspecs.SolvedSection,
