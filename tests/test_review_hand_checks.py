@@ -198,3 +198,24 @@ def test_a_beam_without_a_floor_says_its_determinacy_is_assumed(results):
     text = json.dumps(shown, ensure_ascii=False)
     assert "from the continuity" not in text
     assert "assumed" in text and "statically_determinate" in text
+
+
+def test_as3600_doubly_reinforced_with_compression_steel_below_yield(results):
+    r = results["DR", "as3600:2018"]
+    # AS 3600-2018 8.1.3 (from memory): α2 = 0.85 - 0.0015 x 25 = 0.8125, γ = 0.9075,
+    # εcu = 0.003 (Es εcu = 600 MPa); the displaced concrete taken off (common practice):
+    # α2 f'c b γ dn + As'(600 (dn - 60)/dn - α2 f'c) = As fsy
+    block = 0.8125 * 25
+    qa = block * 300 * 0.9075
+    qb = -(3000 * 420 - 1000 * 600 + 1000 * block)
+    qc = -1000 * 600 * 60
+    dn = (-qb + math.sqrt(qb * qb - 4 * qa * qc)) / (2 * qa)         # 163.0 mm
+    fs_top = 600 * (dn - 60) / dn                                     # 379 MPa < 420
+    assert fs_top < 420
+    a = 0.9075 * dn
+    muo = block * 300 * a * (540 - a / 2) + 1000 * (fs_top - block) * (540 - 60)  # 592.2
+    # Table 2.2.2: φ = 1.24 - 13 kuo/12 = 0.913 for kuo = 0.302, capped at 0.85
+    phi = min(0.85, 1.24 - 13 * (dn / 540) / 12)
+    assert r["section"]["neutral_axis_depth"] == pytest.approx(dn, rel=1e-4)
+    assert r["section"]["nominal_moment"] == pytest.approx(muo / 1e6, rel=1e-4)
+    assert _design_resistance(r) == pytest.approx(phi * muo / 1e6, rel=1e-4)
