@@ -219,3 +219,16 @@ def test_as3600_doubly_reinforced_with_compression_steel_below_yield(results):
     assert r["section"]["neutral_axis_depth"] == pytest.approx(dn, rel=1e-4)
     assert r["section"]["nominal_moment"] == pytest.approx(muo / 1e6, rel=1e-4)
     assert _design_resistance(r) == pytest.approx(phi * muo / 1e6, rel=1e-4)
+
+
+def test_en_doubly_reinforced(results):
+    r = results["DR", "en1992-1-1:2004"]
+    # EN 1992-1-1 (from memory): fcd = 25/1.5, fyd = 420/1.15 = 365.2 MPa, λ = 0.8,
+    # εcu3 = 0.0035; both steels yield; the displaced concrete taken off (common practice)
+    fcd, fyd = 25 / 1.5, 420 / 1.15
+    top = 1000 * (fyd - fcd)                                   # 348 551 N
+    x = (3000 * fyd - top) / (fcd * 300 * 0.8)                 # 186.8 mm
+    assert 0.0035 * (x - 60) / x > fyd / 200_000               # the top steel yields
+    m_rd = fcd * 300 * 0.8 * x * (540 - 0.4 * x) + top * (540 - 60)   # 514.9 kN m
+    assert r["section"]["neutral_axis_depth"] == pytest.approx(x, rel=1e-4)
+    assert _design_resistance(r) == pytest.approx(m_rd / 1e6, rel=1e-4)
