@@ -232,3 +232,18 @@ def test_en_doubly_reinforced(results):
     m_rd = fcd * 300 * 0.8 * x * (540 - 0.4 * x) + top * (540 - 60)   # 514.9 kN m
     assert r["section"]["neutral_axis_depth"] == pytest.approx(x, rel=1e-4)
     assert _design_resistance(r) == pytest.approx(m_rd / 1e6, rel=1e-4)
+
+
+def test_is456_l_beam_by_the_printed_coefficients(results):
+    r = results["LE", "is456:2000"]
+    # IS 456:2000 38.1 and Annex G (from memory), printed coefficients 0.36 fck b xu at
+    # 0.42 xu; steel at fy/γm with γm = 1.15 (36.4.2.1; the code rounds it to 0.87 fy);
+    # fck is the cube strength: 37 MPa for a 30 MPa cylinder (EN 1992-1-1 Table 3.1
+    # class C30/37, from memory)
+    fck, bf = 37.0, 500 + 300 + 450
+    tension = 942.48 * 500 / 1.15
+    xu = tension / (0.36 * fck * bf)                          # 24.61 mm, in the flange
+    assert xu < 150
+    assert r["section"]["neutral_axis_depth"] == pytest.approx(xu, rel=1e-4)
+    assert _design_resistance(r) == pytest.approx(tension * (490 - 0.42 * xu) / 1e6,
+                                                  rel=1e-4)   # 196.6 kN m
