@@ -637,6 +637,9 @@ class Change:
     causes: tuple[str, ...]
 
 
+DESIGN_STRESSES = ("concrete design stress", "tension steel stress")
+
+
 def _drivers(outcome: Outcome) -> dict[str, tuple[str, float, str, bool]]:
     """What sets a beam's resistance and limits, by role: (how it is named, value, unit,
     whether it sets the resistance rather than a steel limit)."""
@@ -657,13 +660,12 @@ def _drivers(outcome: Outcome) -> dict[str, tuple[str, float, str, bool]]:
     law = a.concrete_law
     stress = getattr(law, "stress", getattr(law, "peak_stress", None))
     if stress is not None:
-        found["concrete design stress"] = ("concrete design stress", float(stress), "MPa",
-                                           True)
+        found[DESIGN_STRESSES[0]] = (DESIGN_STRESSES[0], float(stress), "MPa", True)
     r = a.response
     if r is not None and r.equilibrium and r.layers:
         deepest = max(r.layers, key=lambda layer: float(layer.depth))
-        found["tension steel stress"] = ("tension steel stress", abs(float(deepest.stress)),
-                                         "MPa", True)
+        found[DESIGN_STRESSES[1]] = (DESIGN_STRESSES[1], abs(float(deepest.stress)), "MPa",
+                                     True)
     for c in a.checks:
         if "minimum" in c.name or "maximum" in c.name:
             found[c.name] = (f"{c.name} {c.symbol}", float(c.limit), c.unit, False)
@@ -685,6 +687,10 @@ def causes(before: Outcome, after: Outcome, threshold: float, limits: bool = Tru
     and with ``limits`` the steel limits."""
     units = _units(before)
     b, a = _drivers(before), _drivers(after)
+    if {k for k in b if k not in DESIGN_STRESSES} == {k for k in a if k not in DESIGN_STRESSES}:
+        for role in DESIGN_STRESSES:  # the same factors on both sides already say it
+            b.pop(role, None)
+            a.pop(role, None)
     moved: list[tuple[float, str]] = []
     for role in b.keys() & a.keys():
         (nb, vb, unit, sets), (na, va, _, _) = b[role], a[role]
