@@ -650,6 +650,9 @@ def schema_command(args: argparse.Namespace) -> int:
 
     from clausewise import results
 
+    if args.out is not None and args.out.suffix.lower() != ".json":
+        raise UsageError(f"--out {args.out}: a JSON Schema is written as .json; give a "
+                         "name such as schema.json")
     if args.results:
         schema = results.results_schema()
     else:

@@ -22,6 +22,7 @@ if TYPE_CHECKING:
     from clausewise.provisions.registry import Edition
 
 MM2_PER_IN2 = 645.16
+MM_PER_IN = 25.4
 LB_PER_FT_PER_KG_PER_M = 0.3048 / 0.45359237
 
 
@@ -191,7 +192,7 @@ def design_report(schedule: Schedule, designs: Sequence[Design]) -> Group:
             required = _area(d.required_area, us)
             if d.compression_area > 0:
                 required += f"\n{_area(d.compression_area, us)} top"
-            bars = d.status if a is None else _bars_cell(a)
+            bars = d.status if a is None else _bars_cell(a, us)
             extra = "" if a is None else _mass(d.mass_per_metre - lightest[beam_id], us)
             provided = _area(d.provided_area, us)
             if a is not None and a.compression is not None:
@@ -226,14 +227,21 @@ def design_report(schedule: Schedule, designs: Sequence[Design]) -> Group:
     return Group(*parts)
 
 
-def _bars_cell(a: Any) -> str:
-    """Tension bars, with the layers and any compression bars on lines of their own."""
+def _depths(depths: Sequence[float], us: bool) -> str:
+    return ", ".join(f"{d / MM_PER_IN:.2f}" if us else f"{d:.0f}" for d in depths) + \
+        (" in" if us else " mm")
+
+
+def _bars_cell(a: Any, us: bool = False) -> str:
+    """Tension bars, with the layers, their depths (as a beam file gives them, to re-check
+    the bars) and any compression bars on lines of their own."""
     text = bars_text(a.count, a.size)
     if len(a.counts) > 1:
         text += f" ({' + '.join(str(n) for n in a.counts)})"
+    text += f"\nd = {_depths(a.depths, us)}"
     if a.compression is not None:
-        size, n, _ = a.compression
-        text += f"\ntop {bars_text(n, size)}"
+        size, n, depth = a.compression
+        text += f"\ntop {bars_text(n, size)}\nd' = {_depths([depth], us)}"
     return text
 
 

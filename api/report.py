@@ -249,10 +249,21 @@ def checks_table(checks: Sequence[Check], units: Units, edition: str, title: str
             _row(table, name, f"{symbol}{units.value(c.value, c.unit)}",
                  f"{_sign(c.sense)} {units.value(c.limit, c.unit)}",
                  utilisation, _status(PASS if c.passed else FAIL),
-                 Text(clause) if narrow else two_lines(clause, c.clause.title))
+                 _narrow_clause(c.clause, edition) if narrow
+                 else two_lines(clause, c.clause.title))
         return Group(table, footnotes) if footnotes else table
 
     return ByWidth(build)
+
+
+def _narrow_clause(clause: Clause, edition: str) -> Text:
+    """On a narrow screen a clause kept whole on its line: the reference, and under it the
+    supplier where that is not the edition reported (a local edition's base), since the
+    two on one line were cut ("en1992-1-1:2004 9." for 9.2.1.1(1))."""
+    text = Text(clause.ref)
+    if clause.edition not in ("", edition):
+        text.append(f"\n{clause.edition}", style="dim")
+    return text
 
 
 def _verdict(outcome: Outcome) -> Text:
@@ -626,6 +637,9 @@ class Change:
     causes: tuple[str, ...]
 
 
+DESIGN_STRESSES = ("concrete design stress", "tension steel stress")
+
+
 def _drivers(outcome: Outcome) -> dict[str, tuple[str, float, str, bool]]:
     """What sets a beam's resistance and limits, by role: (how it is named, value, unit,
     whether it sets the resistance rather than a steel limit)."""
@@ -646,13 +660,12 @@ def _drivers(outcome: Outcome) -> dict[str, tuple[str, float, str, bool]]:
     law = a.concrete_law
     stress = getattr(law, "stress", getattr(law, "peak_stress", None))
     if stress is not None:
-        found["concrete design stress"] = ("concrete design stress", float(stress), "MPa",
-                                           True)
+        found[DESIGN_STRESSES[0]] = (DESIGN_STRESSES[0], float(stress), "MPa", True)
     r = a.response
     if r is not None and r.equilibrium and r.layers:
         deepest = max(r.layers, key=lambda layer: float(layer.depth))
-        found["tension steel stress"] = ("tension steel stress", abs(float(deepest.stress)),
-                                         "MPa", True)
+        found[DESIGN_STRESSES[1]] = (DESIGN_STRESSES[1], abs(float(deepest.stress)), "MPa",
+                                     True)
     for c in a.checks:
         if "minimum" in c.name or "maximum" in c.name:
             found[c.name] = (f"{c.name} {c.symbol}", float(c.limit), c.unit, False)
@@ -674,6 +687,10 @@ def causes(before: Outcome, after: Outcome, threshold: float, limits: bool = Tru
     and with ``limits`` the steel limits."""
     units = _units(before)
     b, a = _drivers(before), _drivers(after)
+    if {k for k in b if k not in DESIGN_STRESSES} == {k for k in a if k not in DESIGN_STRESSES}:
+        for role in DESIGN_STRESSES:  # the same factors on both sides already say it
+            b.pop(role, None)
+            a.pop(role, None)
     moved: list[tuple[float, str]] = []
     seen: set[tuple[float, float, str]] = set()  # one line for one change (fcd and η fcd)
     for role in (r for r in b if r in a):  # in the audit's order, so the choice is stable

@@ -177,6 +177,11 @@ def _edition_part(outcome: Outcome, figures: bool) -> str:
                      ("form", f"{a.form} ({a.form_basis})"),
                      ("design situation", outcome.situation),
                      ("status", outcome.status)])]
+    if len(a.stack) > 1:  # a local edition: which layer answered or wrapped each topic
+        parts += ["<h4>who answered each topic</h4>", _table(
+            ("topic", "answered by", "wrapped by"),
+            [(_e(t.hook), _e(", ".join(t.answered_by) or "no layer"),
+              _e(", ".join(t.wrapped_by))) for t in a.topics])]
     renamed = [(input_label(k, n), v) for k, v in outcome.entry.shown.items()
                if input_label(k, n) != k]
     if renamed:

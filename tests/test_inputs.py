@@ -648,7 +648,7 @@ QUANTITY_FIELDS = ["web_width", "overall_depth", "slab_thickness", "effective_fl
 DEPENDENT = {
     "overall_depth": ("slab_thickness", "tension[1].depth", "compression[1].depth",
                       "compression[1]"),
-    "web_width": ("effective_flange_width",),
+    "web_width": ("effective_flange_width", "tension[1].bars"),  # bars wider than the web
     "tension.0.depth": ("compression[1]",),
     "tension.0.bars": ("compression[1]",),
     "floor.span": ("floor.clear_span",),

@@ -110,3 +110,25 @@ def test_the_listings_read_at_80_columns_without_cut_words(command, monkeypatch,
     cut = {t for t in tokens if len(t) >= 4 and t.isalpha() and t not in words
            and any(w.startswith(t) for w in words)}
     assert cut == set()
+
+
+def test_a_local_edition_s_clause_references_are_whole_at_80_columns(monkeypatch, capsys):
+    """Under a parameter-file annex every check cites its base ("en1992-1-1:2004
+    9.2.1.1(1)"); at 80 columns that was cut to "en1992-1-1:2004 9.". Each reference is
+    now a whole token of the checks table."""
+    import json
+
+    annex = DEMO.parent / "annexes" / "lornholm-na-2023.toml"
+    demo = str(DEMO / "quellmoor-library.toml")
+    args = ["check", demo, "--annex", str(annex), "--edition", "xl-na:2023"]
+    main([*args, "--format", "json"])
+    refs = {c["clause"]["ref"] for r in json.loads(capsys.readouterr().out)["results"]
+            for c in r["checks"]}
+    monkeypatch.setenv("COLUMNS", "80")
+    main(args)
+    out = capsys.readouterr().out
+    assert max(len(line) for line in out.splitlines()) <= 80
+    tokens = set(out.split())
+    whole = {ref for ref in refs if all(part in tokens for part in ref.split())}
+    assert whole == refs
+    assert "en1992-1-1:2004" in tokens

@@ -87,3 +87,25 @@ def test_the_practical_rule_by_hand():
     # 3 x 25 mm (11.56, 83 % heavier)
     four_x_16, three_x_25 = _bars(4, 0, 16.0), _bars(3, 0, 25.0)
     assert preferred([three_x_25, four_x_16]) is four_x_16
+
+
+def test_the_text_report_gives_what_a_beam_file_needs_to_re_check(tmp_path, monkeypatch,
+                                                                   capsys):
+    """An engineer copies bars and depth from the screen: M4 under EN 1992-1-1 reads
+    "4 x 20 mm" and "d = 605 mm" (650 - 25 cover - 10 stirrup - 10 half bar, the edition's
+    default cover, from memory of 4.4.1), and those re-check as passing."""
+    monkeypatch.setenv("COLUMNS", "80")
+    main(["design", str(DEMO), "--edition", "en1992-1-1:2004"])
+    lines = capsys.readouterr().out.splitlines()
+    start = next(i for i, line in enumerate(lines) if line.startswith("M4 ·"))
+    row = next(i for i in range(start, len(lines)) if lines[i].startswith("en1992-1-1:2004"))
+    bars = re.search(r"\d+ x \d+ mm", lines[row]).group(0)
+    depth = re.search(r"d = (\d+) mm", lines[row + 1]).group(1)
+    assert (bars, depth) == ("4 x 20 mm", "605")
+    document = tomllib.loads(DEMO.read_text(encoding="utf-8"))
+    m4 = next(b for b in document["beam"] if b["id"] == "M4")
+    m4["tension"] = [{"bars": bars, "depth": f"{depth} mm"}]
+    document["beam"] = [m4]
+    path = tmp_path / "m4.toml"
+    path.write_text(tomli_w.dumps(document), encoding="utf-8")
+    assert main(["check", str(path), "--edition", "en1992-1-1:2004"]) == 0

@@ -88,3 +88,19 @@ def test_the_check_names_the_guide_tells_wrappers_to_match_exist(registry):
     used = {c.name for edition in ("csa-a23.3:19", "en1992-1-1:2004")
             for c in assess(_beam(), registry.edition(edition)).checks}
     assert named <= used
+
+
+def test_the_calculation_sheet_names_who_answered_each_topic(tmp_path, capsys):
+    """Issue 14: the sheet, like explain and the JSON, says which layer of a local
+    edition's stack answered each topic and which wrapped it (Fennick & Lyle wrap the
+    base's effective flange width)."""
+    from clausewise.cli import main
+
+    demo = Path(__file__).resolve().parents[1] / "fixtures" / "demo" / "quellmoor-library.toml"
+    out = tmp_path / "calcs.html"
+    main(["check", str(demo), "--edition", "fennick-beams:2025", "--out", str(out)])
+    page = out.read_text(encoding="utf-8")
+    assert "who answered each topic" in page
+    row = re.search(r"<tr><td>effective_flange_width</td><td>([^<]*)</td><td>([^<]*)</td>",
+                    page)
+    assert row is not None and row.groups() == ("en1992-1-1:2004", "fennick-beams:2025")

@@ -190,3 +190,60 @@ def test_csa_doubly_reinforced(results):
     mr = stress * 300 * a * (540 - a / 2) + top_force * (540 - 60)   # 491.0 kN m
     assert r["section"]["neutral_axis_depth"] == pytest.approx(c, rel=1e-4)
     assert _design_resistance(r) == pytest.approx(mr / 1e6, rel=1e-4)
+
+
+def test_a_beam_without_a_floor_says_its_determinacy_is_assumed(results):
+    """DR gives no floor: "no (from the continuity)" named a continuity nobody gave."""
+    shown = results["DR", "aci318-19"]["inputs"]
+    text = json.dumps(shown, ensure_ascii=False)
+    assert "from the continuity" not in text
+    assert "assumed" in text and "statically_determinate" in text
+
+
+def test_as3600_doubly_reinforced_with_compression_steel_below_yield(results):
+    r = results["DR", "as3600:2018"]
+    # AS 3600-2018 8.1.3 (from memory): α2 = 0.85 - 0.0015 x 25 = 0.8125, γ = 0.9075,
+    # εcu = 0.003 (Es εcu = 600 MPa); the displaced concrete taken off (common practice):
+    # α2 f'c b γ dn + As'(600 (dn - 60)/dn - α2 f'c) = As fsy
+    block = 0.8125 * 25
+    qa = block * 300 * 0.9075
+    qb = -(3000 * 420 - 1000 * 600 + 1000 * block)
+    qc = -1000 * 600 * 60
+    dn = (-qb + math.sqrt(qb * qb - 4 * qa * qc)) / (2 * qa)         # 163.0 mm
+    fs_top = 600 * (dn - 60) / dn                                     # 379 MPa < 420
+    assert fs_top < 420
+    a = 0.9075 * dn
+    muo = block * 300 * a * (540 - a / 2) + 1000 * (fs_top - block) * (540 - 60)  # 592.2
+    # Table 2.2.2: φ = 1.24 - 13 kuo/12 = 0.913 for kuo = 0.302, capped at 0.85
+    phi = min(0.85, 1.24 - 13 * (dn / 540) / 12)
+    assert r["section"]["neutral_axis_depth"] == pytest.approx(dn, rel=1e-4)
+    assert r["section"]["nominal_moment"] == pytest.approx(muo / 1e6, rel=1e-4)
+    assert _design_resistance(r) == pytest.approx(phi * muo / 1e6, rel=1e-4)
+
+
+def test_en_doubly_reinforced(results):
+    r = results["DR", "en1992-1-1:2004"]
+    # EN 1992-1-1 (from memory): fcd = 25/1.5, fyd = 420/1.15 = 365.2 MPa, λ = 0.8,
+    # εcu3 = 0.0035; both steels yield; the displaced concrete taken off (common practice)
+    fcd, fyd = 25 / 1.5, 420 / 1.15
+    top = 1000 * (fyd - fcd)                                   # 348 551 N
+    x = (3000 * fyd - top) / (fcd * 300 * 0.8)                 # 186.8 mm
+    assert 0.0035 * (x - 60) / x > fyd / 200_000               # the top steel yields
+    m_rd = fcd * 300 * 0.8 * x * (540 - 0.4 * x) + top * (540 - 60)   # 514.9 kN m
+    assert r["section"]["neutral_axis_depth"] == pytest.approx(x, rel=1e-4)
+    assert _design_resistance(r) == pytest.approx(m_rd / 1e6, rel=1e-4)
+
+
+def test_is456_l_beam_by_the_printed_coefficients(results):
+    r = results["LE", "is456:2000"]
+    # IS 456:2000 38.1 and Annex G (from memory), printed coefficients 0.36 fck b xu at
+    # 0.42 xu; steel at fy/γm with γm = 1.15 (36.4.2.1; the code rounds it to 0.87 fy);
+    # fck is the cube strength: 37 MPa for a 30 MPa cylinder (EN 1992-1-1 Table 3.1
+    # class C30/37, from memory)
+    fck, bf = 37.0, 500 + 300 + 450
+    tension = 942.48 * 500 / 1.15
+    xu = tension / (0.36 * fck * bf)                          # 24.61 mm, in the flange
+    assert xu < 150
+    assert r["section"]["neutral_axis_depth"] == pytest.approx(xu, rel=1e-4)
+    assert _design_resistance(r) == pytest.approx(tension * (490 - 0.42 * xu) / 1e6,
+                                                  rel=1e-4)   # 196.6 kN m

@@ -92,3 +92,29 @@ def test_design_refuses_the_sheet_formats_in_words(tmp_path, capsys, asked):
     err = capsys.readouterr().err
     assert "design writes text, json, toml or csv" in err and "Traceback" not in err
     assert not (tmp_path / "design.html").exists()
+
+
+def test_schema_is_written_only_as_json(tmp_path, capsys):
+    """`schema --out schema.pdf` wrote JSON text into a .pdf file; the extension decides
+    the format everywhere else, so a schema goes only to .json."""
+    assert main(["schema", "--out", str(tmp_path / "schema.pdf")]) == 2
+    assert not (tmp_path / "schema.pdf").exists()
+    assert "written as .json" in capsys.readouterr().err
+    assert main(["schema", "--out", str(tmp_path / "schema.json")]) == 0
+
+
+@pytest.mark.parametrize("command", [["editions"], ["editions", "aci318-19"],
+                                     ["editions", "--parameters", "csa-a23.3:19"]])
+def test_listing_csv_has_its_header_first_and_the_caution_in_every_row(command, capsys):
+    """The listings' CSV began with a "# caution" line, which a CSV reader takes for the
+    header; like check's CSV, the header comes first and the caution is the last column."""
+    import csv
+    import io
+
+    from clausewise.provisions import CAUTION
+
+    assert main([*command, "--format", "csv"]) == 0
+    rows = list(csv.DictReader(io.StringIO(capsys.readouterr().out)))
+    assert rows and list(rows[0])[-1] == "caution"
+    assert all(r["caution"] == CAUTION for r in rows)
+    assert not any(key.startswith("#") for key in rows[0])

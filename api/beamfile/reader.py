@@ -324,8 +324,9 @@ class _BeamReader:
         determinate = m.statically_determinate
         if determinate is None:
             determinate = m.floor is not None and m.floor.continuity in ("simple", "cantilever")
-            self.shown["statically determinate"] = f"{'yes' if determinate else 'no'} " \
-                "(from the continuity)"
+            self.shown["statically determinate"] = (
+                f"{'yes' if determinate else 'no'} (from the continuity)" if m.floor is not None
+                else "no (assumed: no floor given; set statically_determinate to say)")
         else:
             self.shown["statically determinate"] = "yes" if determinate else "no"
         if m.isolated:

@@ -105,28 +105,29 @@ def to_csv(data: dict[str, Any]) -> str:
 def parameters_csv(data: dict[str, Any]) -> str:
     out = io.StringIO()
     writer = csv.writer(out, lineterminator="\n")
-    writer.writerow([f"# {data['caution']}"])
     writer.writerow(["edition", "form", "name", "value", "unit", "may be set to", "clause",
-                     "supplier", "description"])
+                     "supplier", "description", "caution"])
     for p in data["parameters"]:
         allowed = " | ".join(p["choices"]) if "choices" in p else \
             " to ".join(f"{b:g}" for b in p["bounds"]) if "bounds" in p else ""
         writer.writerow([data["edition"], data["form"], p["name"], p["value"], p["unit"],
-                         allowed, p["clause"], p["supplier"], p["description"]])
+                         allowed, p["clause"], p["supplier"], p["description"],
+                         data["caution"]])
     return out.getvalue()
 
 
 def editions_csv(data: dict[str, Any]) -> str:
     out = io.StringIO()
     writer = csv.writer(out, lineterminator="\n")
-    writer.writerow([f"# {data['caution']}"])
     writer.writerow(["id", "title", "year", "extends", "forms", "distribution", "version",
-                     "error"])
+                     "error", "caution"])
     for e in data["editions"]:
         writer.writerow([e["id"], e["title"], e["year"], e["extends"] or "",
-                         " ".join(e["forms"]), e["distribution"], e["version"], ""])
+                         " ".join(e["forms"]), e["distribution"], e["version"], "",
+                         data["caution"]])
     for b in data["broken"]:
-        writer.writerow([b["name"], "", "", "", "", b["distribution"], b["version"], b["error"]])
+        writer.writerow([b["name"], "", "", "", "", b["distribution"], b["version"], b["error"],
+                         data["caution"]])
     return out.getvalue()
 
 
@@ -135,8 +136,8 @@ def editions_csv(data: dict[str, Any]) -> str:
 def topics_csv(data: dict[str, Any]) -> str:
     out = io.StringIO()
     writer = csv.writer(out, lineterminator="\n")
-    writer.writerow([f"# {data['caution']}"])
-    writer.writerow(["hook", "answered_by", "wrapped_by"])
+    writer.writerow(["hook", "answered_by", "wrapped_by", "caution"])
     for t in data["topics"]:
-        writer.writerow([t["hook"], " ".join(t["answered_by"]), " ".join(t["wrapped_by"])])
+        writer.writerow([t["hook"], " ".join(t["answered_by"]), " ".join(t["wrapped_by"]),
+                         data["caution"]])
     return out.getvalue()
