@@ -18,7 +18,8 @@ Conventions a user must know (also in ``fixtures/demo/README.md``):
   is in tension: that is the geometry of a T in hogging, so it maps to
   ``Shape.TEE`` with ``Bending.HOGGING`` (flange on the tension side); an
   inverted T in hogging has its flange in compression and maps to a T in sagging.
-- ``statically_determinate`` defaults to true for a simple span or a cantilever.
+- ``statically_determinate`` defaults to true for a simple span, a cantilever, and a beam
+  given without a floor (the side on which minimum steel is larger).
 - Each quantity has a plausible range for a building beam (``models.PLAUSIBLE``, stated
   in the schema as ``x-plausible-range``); beyond it the value is refused as a slip of
   the unit. A beam that cannot be built is refused too: bars beyond the section's faces,

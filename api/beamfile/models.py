@@ -238,7 +238,7 @@ class BeamModel(_Model):
         default_factory=list, description="compression reinforcement, one table per layer")
     statically_determinate: StrictBool | None = Field(
         default=None, description="true for a statically determinate beam; by default true "
-        "for a simple span or a cantilever")
+        "for a simple span, a cantilever, or a beam given without a floor")
     isolated: StrictBool = Field(
         default=False, description="true for a T whose flange is not part of a slab (an "
         "isolated T, with the limits some editions set on it)")

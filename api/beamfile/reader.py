@@ -323,10 +323,13 @@ class _BeamReader:
         actions = self.actions()
         determinate = m.statically_determinate
         if determinate is None:
-            determinate = m.floor is not None and m.floor.continuity in ("simple", "cantilever")
+            # without a floor the continuity is unknown: take the side on which minimum
+            # steel is larger (ACI 9.6.1.2 widens bw for a determinate beam's tension flange)
+            determinate = m.floor is None or m.floor.continuity in ("simple", "cantilever")
             self.shown["statically determinate"] = (
                 f"{'yes' if determinate else 'no'} (from the continuity)" if m.floor is not None
-                else "no (assumed: no floor given; set statically_determinate to say)")
+                else "yes (assumed, the safe side for minimum steel: no floor given; set "
+                "statically_determinate to say)")
         else:
             self.shown["statically determinate"] = "yes" if determinate else "no"
         if m.isolated:
