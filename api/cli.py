@@ -162,6 +162,9 @@ def build_parser() -> argparse.ArgumentParser:
                          help="with --to: list only the beams that change from this edition")
     compare.add_argument("--to", dest="target", metavar="ID",
                          help="with --from: the edition they change to")
+    compare.add_argument("--steel", action="store_true",
+                         help="the tension steel each edition requires for every beam (the "
+                              "design search; bars given in the file are shown beside it)")
     compare.add_argument("--threshold", type=float, default=2.0, metavar="PERCENT",
                          help="with --from/--to: a change of design resistance larger than "
                               "this percentage counts (default 2)")
@@ -603,6 +606,11 @@ def compare_command(args: argparse.Namespace) -> int:
     if args.threshold < 0:
         raise UsageError(f"--threshold {args.threshold}: expected a percentage of 0 or more")
     migrating = args.source is not None
+    if args.steel:
+        if migrating:
+            raise UsageError("--steel compares required steel across editions; leave out "
+                             "--from/--to")
+        return _steel_comparison(args)
     if migrating:
         args.edition = [args.source, args.target]
     schedule, editions, outcomes = _assess(args, lambda s, r: r.ids())
@@ -684,16 +692,10 @@ def _design_parser(commands: Any) -> None:
     design.set_defaults(handler=design_command)
 
 
-def design_command(args: argparse.Namespace) -> int:
-    """Design every beam of a file (bars may be left out) under every edition."""
+def _designs(args: argparse.Namespace, audit: bool) -> tuple[Schedule, list[Any]]:
+    """Every beam of the file designed under the chosen editions (bars may be left out)."""
     from clausewise.beamfile import load_schedule
-    from clausewise.designs import (
-        design_csv,
-        design_document,
-        design_report,
-        design_schedule,
-        design_status,
-    )
+    from clausewise.designs import design_schedule
 
     _guard_inputs(args)
     if _chosen_format(args) in ("html", "pdf"):
@@ -709,16 +711,40 @@ def design_command(args: argparse.Namespace) -> int:
     situation = args.situation or schedule.project.situation or "persistent"
     editions = _editions(registry, args.edition or list(schedule.project.editions)
                          or registry.ids())
-    designs = design_schedule(schedule, editions, None if form == "auto" else form, situation,
-                              audit=bool(args.figures))
+    return schedule, design_schedule(schedule, editions, None if form == "auto" else form,
+                                     situation, audit=audit)
+
+
+def _publish_designs(args: argparse.Namespace, schedule: Schedule, designs: list[Any],
+                     report: Any) -> int:
+    from clausewise.designs import design_csv, design_document, design_status
+
     kind = _chosen_format(args)
     if kind == "text":
-        _emit_report(design_report(schedule, designs), width=80, out=args.out)
+        _emit_report(report, width=80, out=args.out)
     else:
         _emit_document(design_document(schedule, designs), kind, args.out, design_csv)
+    return design_status(designs, schedule)
+
+
+def design_command(args: argparse.Namespace) -> int:
+    """Design every beam of a file (bars may be left out) under every edition."""
+    from clausewise.designs import design_report
+
+    schedule, designs = _designs(args, audit=bool(args.figures))
+    status = _publish_designs(args, schedule, designs, design_report(schedule, designs))
     if args.figures:
         _design_figures(args.figures, schedule, designs, args.figure_format)
-    return design_status(designs, schedule)
+    return status
+
+
+def _steel_comparison(args: argparse.Namespace) -> int:
+    """compare --steel: the required tension steel of every beam under every edition."""
+    from clausewise.designs import steel_comparison_report
+
+    schedule, designs = _designs(args, audit=False)
+    return _publish_designs(args, schedule, designs,
+                            steel_comparison_report(schedule, designs))
 
 
 def _design_figures(folder: Path, schedule: Schedule, designs: Sequence[Any],

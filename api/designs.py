@@ -296,9 +296,39 @@ def design_figure(d: Design, beam: Any) -> Any:
     return figure
 
 
-def _steel_by_edition(designs: Sequence[Design], entries: dict[str, Any]) -> list[Any]:
+def steel_comparison_report(schedule: Schedule, designs: Sequence[Design]) -> Group:
+    """``compare --steel``: every beam against every edition, the tension steel each
+    requires beside the steel the file gives, and what set it where it is not strength."""
+    from rich.console import Group
+    from rich.text import Text
+
+    from clausewise.report import caution, header, problems_table
+
+    entries = {e.beam.id: e for e in schedule.entries}
+    parts: list[Any] = [header(schedule, "required steel compared")]
+    parts += _steel_by_edition(designs, entries, alone=True)
+    set_by = sorted({(d.edition_id, d.set_by) for d in designs
+                     if d.set_by and d.set_by != "flexural strength"})
+    for edition_id, what in set_by:
+        beams = [d.beam_id for d in designs if (d.edition_id, d.set_by) == (edition_id, what)]
+        parts.append(Text(f"{edition_id}: {what} sets the area of {', '.join(beams)}",
+                          style="dim"))
+    if schedule.problems:
+        parts.append(problems_table(schedule.problems))
+    parts.append(Text("required: the least tension steel that passes every check of the "
+                      "edition at the trial depth (top: compression steel needed too); "
+                      "given: the bars of the file; * the edition whose chosen bars are "
+                      "lightest. `clausewise design` shows the bars.", style="dim"))
+    parts.append(caution())
+    return Group(*parts)
+
+
+def _steel_by_edition(designs: Sequence[Design], entries: dict[str, Any],
+                      alone: bool = False) -> list[Any]:
     """Every beam against every edition at a glance: the required tension steel, with the
-    lightest edition's marked; editions in columns, four to a table so it fits 80 columns."""
+    lightest edition's marked; editions in columns, four to a table so it fits 80 columns.
+    ``alone``: the view stands by itself, so it is shown for one edition too and gives
+    the steel the file provides."""
     from rich import box
     from rich.rule import Rule
     from rich.table import Table
@@ -307,14 +337,17 @@ def _steel_by_edition(designs: Sequence[Design], entries: dict[str, Any]) -> lis
     editions = list(dict.fromkeys(d.edition_id for d in designs))
     by = {(d.beam_id, d.edition_id): d for d in designs}
     beams = list(dict.fromkeys(d.beam_id for d in designs))
-    if len(editions) < 2:
+    if len(editions) < 2 and not alone:
         return []
     parts: list[Any] = [Rule(Text("required tension steel by edition (* lightest bars)"),
                              align="left")]
-    for start in range(0, len(editions), 4):
-        chunk = editions[start:start + 4]
+    per_table = 3 if alone else 4
+    for start in range(0, len(editions), per_table):
+        chunk = editions[start:start + per_table]
         table = Table(box=box.SIMPLE_HEAD, pad_edge=False, show_edge=False)
         table.add_column("beam", no_wrap=True)
+        if alone:
+            table.add_column("given", justify="right", no_wrap=True)
         for e in chunk:
             table.add_column(e, justify="right", no_wrap=True)
         for beam_id in beams:
@@ -326,8 +359,18 @@ def _steel_by_edition(designs: Sequence[Design], entries: dict[str, Any]) -> lis
                 d = by[beam_id, e]
                 mark = "*" if d.arrangement is not None and math.isclose(
                     d.mass_per_metre, lightest, rel_tol=1e-9) else " "
-                cells.append(Text(f"{_area(d.required_area, us)} {'in²' if us else 'mm²'}"
-                                  f"{mark}"))
-            table.add_row(Text(beam_id), *cells)
+                top = f" +{_area(d.compression_area, us)}" if d.compression_area > 0 else ""
+                cells.append(Text(f"{_area(d.required_area, us)}{top} "
+                                  f"{'in²' if us else 'mm²'}{mark}"))
+            given = _given_steel(entries[beam_id].beam, us) if alone else None
+            table.add_row(Text(beam_id), *([Text(given)] if given is not None else []),
+                          *cells)
         parts.append(table)
     return parts
+
+
+def _given_steel(beam: Any, us: bool) -> str:
+    """The tension steel the file gives ("–" for a beam left to design)."""
+    if not beam.tension:
+        return "–"
+    return f"{_area(float(beam.tension_area), us)} {'in²' if us else 'mm²'}"
