@@ -28,7 +28,7 @@ import time
 from pathlib import Path
 
 import numpy as np
-from bench_batch import closed_form, design_columns, design_search
+from bench_batch import closed_form, design_columns, design_search, startup
 
 from clausewise.provisions import assess, default_registry
 from clausewise.provisions.batch import assess_columns, assess_many
@@ -91,20 +91,6 @@ def cli_batch(count: int) -> tuple[float, float]:
         wall = time.perf_counter() - start
         peak = resource.getrusage(resource.RUSAGE_CHILDREN).ru_maxrss
     return wall, max(peak, before) / 1024
-
-
-def startup() -> tuple[float, float]:
-    def fastest(cmd: list[str]) -> float:
-        times = []
-        for _ in range(5):
-            start = time.perf_counter()
-            subprocess.run(cmd, check=True, capture_output=True)
-            times.append(time.perf_counter() - start)
-        return min(times)
-
-    bare = fastest([sys.executable, "-c", "import pydantic, rich, pluggy, numpy"])
-    ours = fastest([sys.executable, "-m", "clausewise.cli", "--help"])
-    return ours, bare
 
 
 def main() -> None:
