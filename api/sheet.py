@@ -117,14 +117,14 @@ def _envelope(envelope: Envelope, units: Units) -> str:
                      _e(units.value(c.value, envelope.unit)),
                      "governs" if governs else _e("+" + units.value(envelope.excess(c),
                                                                     envelope.unit)),
-                     _clause(c.clause.ref, c.clause.title), _e(c.clause.edition)))
+                     _clause(c.clause.ref, c.clause.title), _edition(c.clause.edition)))
     return _table(("candidate", "value", "beyond the governing", "clause", "supplied by"),
                   rows, numeric=(1, 2))
 
 
 def _factors(factors: Sequence[Factor], units: Units) -> str:
     rows = [(_e(f.symbol), _e(units.value(f.value, f.unit)), _e(f.basis),
-             _clause(f.clause.ref, f.clause.title), _e(f.clause.edition)) for f in factors]
+             _clause(f.clause.ref, f.clause.title), _edition(f.clause.edition)) for f in factors]
     return _table(("symbol", "value", "basis", "clause", "supplied by"), rows, numeric=(1,))
 
 
@@ -339,3 +339,8 @@ def _unbroken_ids(text: str) -> str:
     """Keep a cited "(edition clause)" on one line, so a printed sheet never splits an
     edition id such as aci318-19 at its hyphen."""
     return _EDITION_REF.sub(r'<span class="id">(\1 \2)</span>', text)
+
+
+def _edition(edition_id: str) -> str:
+    """An edition id in a table cell, never split at its hyphens when the cell is narrow."""
+    return f'<span class="id">{_e(edition_id)}</span>'
