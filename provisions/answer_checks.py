@@ -37,6 +37,7 @@ from clausewise.core import (
     RectangularBlock,
 )
 from clausewise.provisions.answers import MaterialModel, Resistance
+from clausewise.provisions.detailing import DetailingLimits, senseless
 from clausewise.provisions.registry import PluginError
 from clausewise.provisions.vocabulary import Envelope, Factor
 
@@ -182,11 +183,17 @@ def _demand(answer: Envelope) -> list[str]:
     return []
 
 
+def _detailing(limits: DetailingLimits) -> list[str]:
+    problem = senseless(limits)
+    return [problem] if problem else []
+
+
 _CHECKS: dict[str, Callable[[Any], list[str]]] = {
     "concrete_law": _concrete,
     "steel_law": _steel,
     "effective_flange_width": _width,
     "design_actions": _demand,
+    "detailing_limits": _detailing,
 }
 
 
