@@ -28,6 +28,7 @@ from clausewise.provisions import hookspecs
 from clausewise.provisions.answers import (
     EditionInfo,
     MaterialModel,
+    Notation,
     ParameterError,
     Parameters,
     Resistance,
@@ -284,10 +285,10 @@ class Edition:
     _steps: dict[str, tuple[_Step, ...]] = field(init=False, repr=False, compare=False)
 
     def __post_init__(self) -> None:
-        declared = [r.info.forms for r in reversed(self.layers)  # type: ignore[union-attr]
-                    if r.info.forms is not None]  # type: ignore[union-attr]
-        object.__setattr__(self, "_info", replace(self.layers[-1].info,  # type: ignore[type-var]
-                                                  forms=declared[0] if declared else ("SI",)))
+        object.__setattr__(self, "_info", replace(  # type: ignore[type-var]
+            self.layers[-1].info, forms=self._inherited("forms", ("SI",)),
+            notation=self._inherited("notation", Notation()),
+            situations=self._inherited("situations", ("persistent",))))
         pm = pluggy.PluginManager(hookspecs.PROJECT)
         pm.add_hookspecs(hookspecs)
         for record in self.layers:  # later registrations are called first
@@ -303,9 +304,19 @@ class Edition:
                                      for impl in impls)
         object.__setattr__(self, "_steps", steps)
 
+    def _inherited(self, name: str, default: Any) -> Any:
+        """A field of the identity from the topmost layer that declares it, else
+        ``default``: what an extending edition leaves out, it takes from its base."""
+        for record in reversed(self.layers):
+            value = getattr(record.info, name)
+            if value is not None:
+                return value
+        return default
+
     @property
     def info(self) -> EditionInfo:
-        """The top layer's identity, with the published forms it inherits resolved."""
+        """The top layer's identity, with the forms, notation and design situations it
+        inherits resolved."""
         return self._info
 
     @property
@@ -323,12 +334,8 @@ class Edition:
 
     @property
     def situations(self) -> tuple[str, ...]:
-        """The design situations this edition distinguishes (the nearest layer's that
-        declares them; ("persistent",) where none does)."""
-        for record in reversed(self.layers):
-            if record.info is not None and record.info.situations is not None:
-                return record.info.situations
-        return ("persistent",)
+        """The design situations this edition distinguishes."""
+        return self._info.situations or ("persistent",)
 
     # --- calling hooks through the layers ---------------------------------------------
     def ask(self, hook: str, **kwargs: Any) -> Any:

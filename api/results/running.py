@@ -30,14 +30,6 @@ class Outcome:
         return self.assessment.status if self.assessment else ERROR
 
 
-def notation_of(edition: Edition) -> Notation:
-    """The edition's symbols: its own, else the nearest base's, else the default."""
-    for layer in reversed(edition.layers):
-        if layer.info is not None and layer.info.notation is not None:
-            return layer.info.notation
-    return Notation()
-
-
 def run(schedule: Schedule, editions: Sequence[Edition], form: str | None,
         situation: str) -> Iterator[Outcome]:
     """Every good beam of the schedule under every edition, one at a time.
@@ -45,7 +37,7 @@ def run(schedule: Schedule, editions: Sequence[Edition], form: str | None,
     A beam that an edition cannot assess (a broken plugin, a form the edition lacks,
     a degenerate section) becomes an outcome with the error, and the others go on.
     """
-    notations = {edition.id: notation_of(edition) for edition in editions}
+    notations = {edition.id: edition.info.notation or Notation() for edition in editions}
     for entry in schedule.entries:
         for edition in editions:
             notation = notations[edition.id]
