@@ -14,6 +14,7 @@ from clausewise.provisions.beam import UnitSystem
 from clausewise.provisions.design import PRACTICAL_MARGIN, Design, bars_text, design_many
 from clausewise.provisions.engine import PASS
 from clausewise.provisions.verdicts import CAUTION
+from clausewise.results.display import convert
 
 if TYPE_CHECKING:
     from rich.console import Group
@@ -21,9 +22,6 @@ if TYPE_CHECKING:
     from clausewise.beamfile import Schedule
     from clausewise.provisions.registry import Edition
 
-MM2_PER_IN2 = 645.16
-MM_PER_IN = 25.4
-LB_PER_FT_PER_KG_PER_M = 0.3048 / 0.45359237
 
 
 def design_schedule(schedule: Schedule, editions: Sequence[Edition], form: str | None,
@@ -138,13 +136,13 @@ def design_csv(data: dict[str, Any]) -> str:
 def _area(value: float, us: bool) -> str:
     if not math.isfinite(value):
         return "–"
-    return f"{value / MM2_PER_IN2:.2f}" if us else f"{value:.0f}"
+    return f"{convert(value, 'mm²', UnitSystem.US)[0]:.2f}" if us else f"{value:.0f}"
 
 
 def _mass(value: float, us: bool) -> str:
     if not math.isfinite(value):
         return "–"
-    return f"{value * LB_PER_FT_PER_KG_PER_M:.2f}" if us else f"{value:.2f}"
+    return f"{convert(value, 'kg/m', UnitSystem.US)[0]:.2f}" if us else f"{value:.2f}"
 
 
 def _ref(clause: str) -> str:
@@ -228,7 +226,8 @@ def design_report(schedule: Schedule, designs: Sequence[Design]) -> Group:
 
 
 def _depths(depths: Sequence[float], us: bool) -> str:
-    return ", ".join(f"{d / MM_PER_IN:.2f}" if us else f"{d:.0f}" for d in depths) + \
+    return ", ".join(f"{convert(d, 'mm', UnitSystem.US)[0]:.2f}" if us else f"{d:.0f}"
+                     for d in depths) + \
         (" in" if us else " mm")
 
 

@@ -12,11 +12,12 @@ from clausewise.provisions import UnitSystem
 # internal unit -> shown unit per unit system, as (pint spelling, shown spelling)
 _SHOWN: dict[UnitSystem, dict[str, tuple[str, str]]] = {
     UnitSystem.SI: {"N·mm": ("kN*m", "kN·m"), "N": ("kN", "kN"), "mm": ("mm", "mm"),
-                    "mm²": ("mm**2", "mm²"), "MPa": ("MPa", "MPa")},
+                    "mm²": ("mm**2", "mm²"), "MPa": ("MPa", "MPa"), "kg/m": ("kg/m", "kg/m")},
     UnitSystem.US: {"N·mm": ("kip*ft", "kip·ft"), "N": ("kip", "kip"), "mm": ("inch", "in"),
-                    "mm²": ("inch**2", "in²"), "MPa": ("psi", "psi")},
+                    "mm²": ("inch**2", "in²"), "MPa": ("psi", "psi"), "kg/m": ("lb/ft", "lb/ft")},
 }
-_INTERNAL = {"N·mm": "N*mm", "N": "N", "mm": "mm", "mm²": "mm**2", "MPa": "MPa"}
+_INTERNAL = {"N·mm": "N*mm", "N": "N", "mm": "mm", "mm²": "mm**2", "MPa": "MPa",
+             "kg/m": "kg/m"}
 UNITS = {"moment": "kN·m", "force": "kN", "length": "mm", "area": "mm²", "stress": "MPa"}
 
 
