@@ -40,10 +40,10 @@ if TYPE_CHECKING:
     from clausewise.stream import Summary as BatchSummary
 
 STATUS_STYLE: dict[str, str] = {PASS: "bold green", FAIL: "bold red", ERROR: "bold magenta",
-                CAPACITY_ONLY: "bold cyan"}
+                                 CAPACITY_ONLY: "bold cyan"}
 # one character per status in the comparison's cells (the legend spells them out)
-STATUS_MARK: dict[str, str] = {PASS: "✓", FAIL: "✗", "outside scope": "⊘", "no equilibrium": "?",
-               ERROR: "!", CAPACITY_ONLY: "○"}
+STATUS_MARK: dict[str, str] = {PASS: "✓", FAIL: "✗", Status.OUT_OF_SCOPE: "⊘",
+                               Status.NO_EQUILIBRIUM: "?", ERROR: "!", CAPACITY_ONLY: "○"}
 # short codes of the governing check, by words of its name (first match wins)
 CHECK_CODES = (("flexural strength", "M"), ("minimum strength", "Mmin"),
                ("minimum", "min"), ("maximum", "max"), ("steel ratio", "ρ"),
