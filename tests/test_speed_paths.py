@@ -8,6 +8,7 @@ result is compared with the same result reached another way.
 from __future__ import annotations
 
 import math
+from collections import Counter
 
 import pytest
 from hypothesis import given, settings
@@ -27,7 +28,13 @@ from clausewise.provisions import (
     default_registry,
     hookimpl,
 )
-from clausewise.provisions.batch import assess_many
+from clausewise.provisions.batch import (
+    RowNames,
+    assess_columns,
+    assess_many,
+    kind_of,
+    stack_beams,
+)
 from clausewise.provisions.engine import NO_EQUILIBRIUM, OUT_OF_SCOPE
 from clausewise.provisions.registry import Edition
 from clausewise.synthetic import synthetic_beams
@@ -176,3 +183,50 @@ def test_single_beam_equals_batch_to_1e_12(edition_id, seed):
         for what, (single, batch) in pairs.items():
             assert _close(float(single), float(batch)), (beam.id, what, single, batch)
         assert table.governing_check[i] == one.governing.name, beam.id
+
+
+# --- chunks, stacking and row names change nothing ----------------------------------------
+
+def _columns_of(table) -> dict[str, list]:
+    return {"status": [str(s) for s in table.status], "mrd": table.design_resistance.tolist(),
+            "c": table.neutral_axis.tolist(), "check": table.governing_check.tolist(),
+            "u": table.governing_utilisation.tolist(), "names": list(table.beam_ids)}
+
+
+@pytest.mark.parametrize("edition_id", ["aci318-19", "en1992-1-1:2004"])
+def test_assess_columns_in_chunks_equals_one_call(edition_id):
+    """A design search run 7 rows at a time gives exactly the rows of one call."""
+    schedule = synthetic_beams(400, seed=11)
+    common = Counter(map(kind_of, schedule)).most_common(1)[0][0]
+    beams = [b for b in schedule if kind_of(b) == common]
+    batch = stack_beams(beams)
+    whole = assess_columns(batch, [edition_id], chunk=10_000)[edition_id]
+    pieces = assess_columns(batch, [edition_id], chunk=7)[edition_id]
+    assert len(beams) > 14
+    assert _columns_of(pieces) == _columns_of(whole)
+
+
+def test_stacked_beam_holds_each_beams_numbers_in_its_row():
+    """Stacking reads every number of every beam into its own row (checked against the
+    beams themselves, field by field)."""
+    beams = synthetic_beams(300, seed=5)
+    group = [b for b in beams if kind_of(b) == kind_of(beams[1])]
+    batch = stack_beams(group)
+    for i, beam in enumerate(group):
+        assert batch.web_width[i] == beam.web_width
+        assert batch.concrete_strength[i] == beam.concrete_strength
+        for stacked, layer in zip(batch.tension, beam.tension, strict=True):
+            assert (stacked.area[i], stacked.depth[i]) == (layer.area, layer.depth)
+        assert batch.layout.span[i] == beam.layout.span
+        assert batch.actions.dead[i] == beam.actions.dead
+    assert batch.shape is group[0].shape and batch.layout.continuity is \
+        group[0].layout.continuity
+
+
+def test_row_names_are_made_when_read():
+    names = RowNames("cand", 5)
+    assert list(names) == [f"cand[{i}]" for i in range(5)]
+    assert names[-1] == "cand[4]" and list(names[2:4]) == ["cand[2]", "cand[3]"]
+    assert names[1:][0] == "cand[1]" and len(names[3:]) == 2
+    with pytest.raises(IndexError):
+        names[5]
