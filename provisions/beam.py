@@ -255,18 +255,29 @@ def _numbers(obj: Any) -> list[Any]:
 
 
 _KIND_TERMS = {"word": "obj.{0}", "optional": "obj.{0} is None",
-               "part": "None if obj.{0} is None else kind_of(obj.{0})",
-               "group": "tuple(map(kind_of, obj.{0}))"}
+               "part": "None if obj.{0} is None else _{0}(obj.{0})",
+               "group": "tuple(map(_{0}, obj.{0}))"}
 
 
 @cache
 def _kind_reader(cls: type) -> Callable[[Any], tuple[Any, ...]]:
     """One generated expression per class, as ``dataclasses`` generates ``__eq__``: the
-    kind of a beam is read once per beam of a large schedule, so it must be quick."""
+    kind of a beam is read once per beam of a large schedule, so it must be quick. The
+    readers of its parts and layers (their classes from the type hints) are called
+    directly."""
+    hints = get_type_hints(cls)
+    parts = {f"_{name}": _kind_reader(_dataclass_of(hints[name]))
+             for name, role in field_roles(cls) if role in ("part", "group")}
     terms = [_KIND_TERMS[role].format(name) for name, role in field_roles(cls) if role != "number"]
     reader: Callable[[Any], tuple[Any, ...]] = eval(  # noqa: S307 (our own field names)
-        f"lambda obj: ({''.join(t + ', ' for t in terms)})", {"kind_of": kind_of})
+        f"lambda obj: ({''.join(t + ', ' for t in terms)})", parts)
     return reader
+
+
+def _dataclass_of(hint: Any) -> type:
+    """The dataclass a part or group field holds: ``FloorLayout | None``, ``tuple[Layer,
+    ...]``."""
+    return next(a for a in (hint, *get_args(hint)) if is_dataclass(a))
 
 
 def kind_of(obj: Any) -> tuple[Any, ...]:
