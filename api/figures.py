@@ -11,6 +11,7 @@ extension. This module is imported only when figures are asked for.
 from __future__ import annotations
 
 import io
+import math
 from collections.abc import Sequence
 from dataclasses import dataclass
 from pathlib import Path
@@ -173,6 +174,21 @@ def bar_positions(count: int, diameter: float, web: float, edge: float) -> np.nd
     return np.linspace(-reach, reach, count)
 
 
+def _side_edges(layers: Sequence[Any], bar_groups: Sequence[tuple[int, float] | None],
+                overall: float) -> dict[bool, float]:
+    """Distance of the bar centres from the side faces, for the layers near the top
+    (True) and near the bottom (False): that of the outermost layer on that side, so
+    that inner layers stand in the same vertical lines as the outer one (the stirrup
+    holds them all at one cover)."""
+    near: dict[bool, float] = {True: math.inf, False: math.inf}
+    for i, layer in enumerate(layers):
+        if i < len(bar_groups) and bar_groups[i] is not None:
+            depth = float(layer.depth)
+            top = depth < overall / 2
+            near[top] = min(near[top], depth if top else overall - depth)
+    return near
+
+
 def spread_labels(figure: Figure, passes: int = 60) -> None:
     """Nudge the figure's offset labels apart vertically until no two overlap."""
     from matplotlib.backends.backend_agg import FigureCanvasAgg
@@ -233,6 +249,7 @@ def _draw_section(ax: Any, a: Assessment, arrays: Any, frame: _Frame, to_scale: 
                         xytext=(0, 3), textcoords="offset points", ha="center", va="bottom",
                         fontsize=SMALL)
     overall = float(edges[-1])
+    side_edge = _side_edges(r.layers, bar_groups, overall)
     for i, layer in enumerate(r.layers):
         group = bar_groups[i] if i < len(bar_groups) else None
         y = frame.y(layer.depth)
@@ -242,8 +259,8 @@ def _draw_section(ax: Any, a: Assessment, arrays: Any, frame: _Frame, to_scale: 
             label = units.value(layer.area, "mm²")
         else:
             count, diameter = group
-            face = min(float(layer.depth), overall - float(layer.depth))
-            xs = bar_positions(count, diameter, web, max(face, diameter)) * s
+            edge = side_edge[float(layer.depth) < overall / 2]
+            xs = bar_positions(count, diameter, web, max(edge, diameter)) * s
             for x in xs:
                 ax.add_patch(Circle((x, y), diameter / 2 * s, facecolor=STEEL,
                                     edgecolor="none", gid="bar"))

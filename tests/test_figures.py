@@ -205,6 +205,19 @@ def test_every_bar_is_drawn_at_its_depth_inside_the_web(bar_outcomes):
     assert radii == {10.0, 8.0, 6.0}  # to scale: half of 20, 16 and 12 mm
 
 
+def test_inner_layers_stand_in_the_outer_layer_s_vertical_lines(bar_outcomes):
+    """Stirrups hold every layer at one side cover, so the corner bars of the inner
+    layer stand over those of the outer one: centres 150 - 60 = 90 mm from the web's
+    centre line, 60 mm being the outer layer's distance from the soffit (600 - 540)."""
+    from matplotlib.patches import Circle
+
+    section = bar_figure(bar_outcomes["E-1"]).axes[0]
+    bars = [p for p in section.patches if isinstance(p, Circle)]
+    for height in (600 - 540, 600 - 525):  # the 5 x 20 mm and the 2 x 16 mm layers
+        xs = [b.center[0] for b in bars if round(b.center[1]) == height]
+        assert min(xs) == pytest.approx(-90) and max(xs) == pytest.approx(90), height
+
+
 def test_an_l_beam_s_flange_is_drawn_on_its_slab_s_side(bar_outcomes):
     for beam, left in (("E-1", True), ("E-2", False)):
         section = bar_figure(bar_outcomes[beam]).axes[0]
