@@ -113,10 +113,10 @@ def beam_figure(assessment: Assessment, notation: Notation | None = None,
     frame = _Frame(float(arrays.edges[0, -1]), a.beam.bending is Bending.SAGGING,
                    convert(1.0, "mm", units.system)[0], units)
 
-    x_range = _section_extent(a, arrays)
+    labels = [_layer_label(layer, group, units) for layer, group in
+              zip(r.layers, _padded(bar_groups, len(r.layers)), strict=True)]
     y_range = frame.limits()
-    wanted = PANEL_HEIGHT * (x_range[1] - x_range[0]) / (y_range[1] - y_range[0])
-    section_width = float(np.clip(wanted, *SECTION_WIDTH))
+    x_range, section_width, wanted = _section_extent(a, arrays, labels, y_range)
     width = LEFT + section_width + 2 * (GAP + PANEL_WIDTH) + RIGHT
     figure = Figure(figsize=(width, HEIGHT))
     axes = []
@@ -128,7 +128,7 @@ def beam_figure(assessment: Assessment, notation: Notation | None = None,
     section_ax, strain_ax, stress_ax = axes
 
     _draw_section(section_ax, a, arrays, frame, to_scale=abs(wanted - section_width) < 1e-9,
-                  bar_groups=bar_groups)
+                  bar_groups=bar_groups, labels=labels)
     section_ax.set_xlim(*x_range)
     _draw_strains(strain_ax, a, float(law.ultimate_strain), frame, n)
     _draw_stresses(stress_ax, a, law, frame, n)
@@ -216,18 +216,48 @@ def spread_labels(figure: Figure, passes: int = 60) -> None:
             return
 
 
-def _section_extent(a: Assessment, arrays: Any) -> tuple[float, float]:
+LABEL_POINTS_PER_CHARACTER = 0.62 * SMALL  # a generous average width of the label font
+LABEL_OFFSET = 7  # points from the outermost bar to its label
+
+
+def _section_extent(a: Assessment, arrays: Any, labels: Sequence[str],
+                    y_range: tuple[float, float]) -> tuple[tuple[float, float], float, float]:
+    """The section panel's x limits (in the beam's units), its width in inches and the
+    width it would need to be to scale. The limits leave room right of the web for the
+    longest bar label, whatever the panel's scale turns out to be (it depends on the
+    limits, so they are found together)."""
     widths = arrays.widths[0]
     web, widest = float(widths.min()), float(widths.max())
     scale = convert(1.0, "mm", a.beam.unit_system)[0]
-    left = min(_left_edge(a, w, web) for w in widths)
-    right = max(_left_edge(a, w, web) + w for w in widths)
     margin = 0.06 * widest
-    return ((left - margin) * scale, (right + margin + 0.35 * web) * scale)
+    left = min(_left_edge(a, w, web) for w in widths) - margin
+    right = max(_left_edge(a, w, web) + w for w in widths) + margin
+    room = LABEL_OFFSET + LABEL_POINTS_PER_CHARACTER * max(map(len, labels), default=0)
+    height = y_range[1] - y_range[0]
+    extent = right
+    for _ in range(6):  # converges in two or three: the room is a small share of the panel
+        wanted = PANEL_HEIGHT * (extent - left) * scale / height
+        section_width = float(np.clip(wanted, *SECTION_WIDTH))
+        mm_per_point = (extent - left) / (section_width * 72)
+        extent = max(right, web / 2 + room * mm_per_point * 1.05)
+    return (left * scale, extent * scale), section_width, wanted
+
+
+def _padded(groups: Sequence[tuple[int, float] | None], count: int
+            ) -> list[tuple[int, float] | None]:
+    return [groups[i] if i < len(groups) else None for i in range(count)]
+
+
+def _layer_label(layer: Any, group: tuple[int, float] | None, units: Units) -> str:
+    if group is None:
+        return units.value(layer.area, "mm²")
+    count, diameter = group
+    return f"{count} × {units.length(diameter)} ({units.value(layer.area, 'mm²')})"
 
 
 def _draw_section(ax: Any, a: Assessment, arrays: Any, frame: _Frame, to_scale: bool,
-                  bar_groups: Sequence[tuple[int, float] | None] = ()) -> None:
+                  bar_groups: Sequence[tuple[int, float] | None] = (),
+                  labels: Sequence[str] = ()) -> None:
     r = a.response
     assert r is not None
     units, s = frame.units, frame.scale
@@ -256,7 +286,6 @@ def _draw_section(ax: Any, a: Assessment, arrays: Any, frame: _Frame, to_scale: 
         if group is None:  # an area without bars: one marker for the layer
             xs = np.zeros(1)
             ax.plot(xs, [y], "s", color=STEEL, ms=6, gid="steel-layer")
-            label = units.value(layer.area, "mm²")
         else:
             count, diameter = group
             edge = side_edge[float(layer.depth) < overall / 2]
@@ -264,8 +293,9 @@ def _draw_section(ax: Any, a: Assessment, arrays: Any, frame: _Frame, to_scale: 
             for x in xs:
                 ax.add_patch(Circle((x, y), diameter / 2 * s, facecolor=STEEL,
                                     edgecolor="none", gid="bar"))
-            label = f"{count} × {units.length(diameter)} ({units.value(layer.area, 'mm²')})"
-        ax.annotate(label, (float(xs.max()), y), xytext=(7, 0), textcoords="offset points",
+        label = labels[i] if i < len(labels) else _layer_label(layer, group, units)
+        ax.annotate(label, (float(xs.max()), y), xytext=(LABEL_OFFSET, 0),
+                    textcoords="offset points",
                     va="center", fontsize=SMALL)
     ax.set_title(f"section: {r.block_case}" + ("" if to_scale else " (not to scale)"),
                  fontsize=9)

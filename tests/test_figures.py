@@ -218,6 +218,24 @@ def test_inner_layers_stand_in_the_outer_layer_s_vertical_lines(bar_outcomes):
         assert min(xs) == pytest.approx(-90) and max(xs) == pytest.approx(90), height
 
 
+def test_bar_labels_stay_inside_the_section_panel(bar_outcomes, outcomes):
+    """A label that ran past the panel would be hidden under the strain panel."""
+    from matplotlib.backends.backend_agg import FigureCanvasAgg
+
+    drawn = [bar_figure(o) for o in bar_outcomes.values()] + [
+        figs.beam_figure(o.assessment, o.notation, o.entry.bar_groups)
+        for o in outcomes.values() if o.assessment is not None and o.assessment.response is not None
+        and o.assessment.response.equilibrium]
+    assert len(drawn) > 2
+    for figure in drawn:
+        renderer = FigureCanvasAgg(figure).get_renderer()
+        section = figure.axes[0]
+        panel = section.get_window_extent(renderer)
+        for text in section.texts:
+            box = text.get_window_extent(renderer)
+            assert panel.x0 <= box.x0 and box.x1 <= panel.x1, text.get_text()
+
+
 def test_an_l_beam_s_flange_is_drawn_on_its_slab_s_side(bar_outcomes):
     for beam, left in (("E-1", True), ("E-2", False)):
         section = bar_figure(bar_outcomes[beam]).axes[0]
