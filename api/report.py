@@ -808,12 +808,9 @@ class WordTable(Table):
                                        self.columns for c in column.cells):
             yield from super().__rich_console__(console, options)
             return
-        while sum(widths) > room:  # too narrow for every word: the longest give way first
-            flexible = [(w, i) for i, w in enumerate(widths) if not fixed[i] and w > 8]
-            if not flexible:
-                yield from self._stacked(console, options)
-                return
-            widths[max(flexible)[1]] -= 1
+        if sum(widths) > room:  # too narrow for every word: a block per row instead
+            yield from self._stacked(console, options)
+            return
         while sum(widths) < room:  # the rest to the columns furthest from their natural width
             short = [(natural[i] - w, i) for i, w in enumerate(widths) if w < natural[i]]
             if not short:

@@ -215,6 +215,19 @@ def test_explain_shows_every_parameter_candidate_and_factor_with_its_supplier(sc
     assert CAUTION in text
 
 
+@pytest.mark.parametrize("edition", ["aci318-19", "en1992-1-1:2004"])
+def test_explain_at_80_columns_keeps_every_word_of_the_parameters_whole(schedule, outcomes,
+                                                                      edition):
+    """Where the parameter table cannot give every column its longest word, each
+    parameter becomes a block: no "compressiv / e strength" at 80 columns."""
+    o = only(outcomes, "G-1", edition)
+    text = words(render(explain_report(schedule, o), 80))
+    for p in o.assessment.parameters:
+        for word in f"{p.description} {p.clause.title}".split():
+            if len(word) <= 20:
+                assert word in text, (p.name, word)
+
+
 def test_explain_numbers_the_notes_of_the_checks(schedule, outcomes):
     o = only(outcomes, "G-1", "en1992-1-1:2004")
     text = words(render(explain_report(schedule, o), 240))
