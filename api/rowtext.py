@@ -32,7 +32,9 @@ class Numbers:
 
 
 Column = str | Sequence[Any] | Numbers
-"""One text for every row, a text per row (written as ``str()`` of it), or numbers."""
+"""One text for every row, a text per row, or numbers. A text is a ``str`` whose
+``str()`` is itself (a ``StrEnum`` member is its value); anything else is written as
+``str()`` of it."""
 
 
 class LineFormat:
@@ -69,6 +71,8 @@ class LineFormat:
         varying = []
         for i, (label, column) in enumerate(zip(self.labels, columns, strict=True)):
             field, values = self._field(column, size)
+            if len(self.labels) == 1:
+                field, values = self.alone(field, values)
             parts.append((("" if i == 0 else self.separator) + label, False))
             parts.append((field, values is not None))
             if values is not None:
@@ -83,6 +87,10 @@ class LineFormat:
         tail = "".join(text for text, _ in parts[last + 1:])
         return tail.join(map(head.__mod__, zip(*varying, strict=True))) + tail
 
+    def alone(self, field: str, values: list[Any] | None) -> tuple[str, list[Any] | None]:
+        """A field that is the only one of its row."""
+        return field, values
+
     def _field(self, column: Column, size: int) -> tuple[str, list[Any] | None]:
         """The column's field: its text when it holds one for every row, else its
         placeholder in the line template and the values it takes per row."""
@@ -95,8 +103,13 @@ class LineFormat:
             raise ValueError(f"a column of {len(values)} rows in a table of {size}")
         if values.count(values[0]) == size:
             return self.encoded(str(values[0])), None
-        texts = list(map(str, values))
-        if self.is_plain("".join(texts)):
+        try:
+            joined = "".join(values)
+            texts = values
+        except TypeError:  # not all texts: written as str() of each
+            texts = list(map(str, values))
+            joined = "".join(texts)
+        if self.is_plain(joined):
             return self.plain_field, texts
         code = {text: self.encoded(text) for text in dict.fromkeys(texts)}
         return "%s", list(map(code.__getitem__, texts))
@@ -139,6 +152,14 @@ class CsvLines(LineFormat):
         # a second, empty field: csv.writer quotes an empty field only when it is alone
         self._writer.writerow((text, ""))
         return self._buffer.getvalue()[:-2]  # drop the "," of the empty field and "\n"
+
+    def alone(self, field: str, values: list[Any] | None) -> tuple[str, list[Any] | None]:
+        """csv.writer writes a row of one empty field as '""', not as a blank line."""
+        if values is None:
+            return field or '""', None
+        if field == "%s":
+            return field, ['""' if value == "" else value for value in values]
+        return field, values  # numbers: never empty
 
 
 _JSON_SPECIAL = '"\\\x7f' + "".join(map(chr, range(0x20)))  # and all beyond ASCII
