@@ -1,13 +1,13 @@
-"""Rows of results as CSV or JSON Lines text, encoded a column at a time.
+"""Rows of results as CSV or JSON Lines text, written a column at a time.
 
 A batch writes hundreds of thousands of rows whose texts repeat (the edition, the
-status, the check, the caution) and whose numbers are all formatted alike. Encoding
-each distinct text once, folding a column that holds one value into a line template,
-and letting that template format the numbers gives one C-level ``%`` per row instead
-of a Python call per field. The text is byte for byte what ``csv.writer`` (minimal
-quoting, ``"\\n"`` lines) and ``json.dumps`` write for the same rows of strings: a text
-that needs quoting or escaping is encoded by those very functions, and only a text
-without any character they act on is written as it is.
+stack, the caution) and whose numbers are all formatted alike. A column that holds one
+value for every row goes into a line template as text, the numbers are formatted by
+that template, and the constant end of a line is joined on, so a row costs one C-level
+``%`` instead of a Python call per field. The text is byte for byte what
+``csv.writer`` (minimal quoting, ``"\\n"`` lines) and ``json.dumps`` write for the same
+rows of strings: a text that needs quoting or escaping is encoded by those very
+functions, and only a text without any character they act on is written as it is.
 """
 
 from __future__ import annotations
