@@ -101,14 +101,14 @@ class LineFormat:
         values = column if isinstance(column, list) else list(column)
         if len(values) != size:
             raise ValueError(f"a column of {len(values)} rows in a table of {size}")
-        if values.count(values[0]) == size:
-            return self.encoded(str(values[0])), None
         try:
             joined = "".join(values)
             texts = values
         except TypeError:  # not all texts: written as str() of each
             texts = list(map(str, values))
             joined = "".join(texts)
+        if texts.count(texts[0]) == size:  # equal texts are the same text
+            return self.encoded(str(texts[0])), None
         if self.is_plain(joined):
             return self.plain_field, texts
         code = {text: self.encoded(text) for text in dict.fromkeys(texts)}

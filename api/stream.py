@@ -119,7 +119,7 @@ class RowWriter:
         else:
             out.write(json.dumps({"caution": CAUTION, "columns": self.columns}) + "\n")
         out.flush()
-        self.lines = (CsvLines if kind == "csv" else JsonLines)(self.columns)
+        self.line_format = (CsvLines if kind == "csv" else JsonLines)(self.columns)
 
     def write(self, rows: Sequence[Sequence[str]]) -> None:
         if self.kind == "csv":
@@ -131,7 +131,7 @@ class RowWriter:
 
     def write_columns(self, columns: Sequence[Column], size: int) -> None:
         """``size`` rows given column by column: the same text as ``write`` of them."""
-        self.out.write(self.lines.lines(columns, size))
+        self.out.write(self.line_format.lines(columns, size))
         self.out.flush()
 
 

@@ -110,8 +110,8 @@ def test_every_column_constant_and_an_empty_table():
 
 
 def test_texts_that_are_not_str_are_written_as_their_str():
-    columns = [[1, None, 2.5, "a,b"], [True, False, None, 3]]
-    assert_both_formats(["x", "y"], columns, 4)
+    columns = [[1, None, 2.5, "a,b"], [True, False, None, 3], [1, 1.0, True, 1]]
+    assert_both_formats(["x", "y", "equal, not the same text"], columns, 4)
 
 
 def test_a_column_of_the_wrong_length_is_refused_not_written_short():
