@@ -26,6 +26,7 @@ from clausewise.provisions.registry import Edition
 from clausewise.results.display import scale
 from clausewise.results.records import units_table
 from clausewise.results.writers import result_columns
+from clausewise.rowtext import Column, CsvLines, JsonLines, Numbers
 
 if TYPE_CHECKING:
     from clausewise.beamfile import Schedule
@@ -50,12 +51,15 @@ class Summary:
 
     def add(self, table: BatchTable) -> None:
         counts = self.counts.setdefault(table.edition_id, Counter())
-        values, tally = np.unique(table.status.astype(str), return_counts=True)
-        counts.update(dict(zip(values.tolist(), tally.tolist(), strict=True)))
+        tally = Counter(map(str, table.status.tolist()))
+        counts.update({status: tally[status] for status in sorted(tally)})
         self.rows += table.size
         util = np.where(np.isfinite(table.governing_utilisation),
                         table.governing_utilisation, np.inf)
-        for i in np.argsort(-util, kind="stable")[: self.keep]:
+        # a beam below the least kept one cannot enter the heap: sort only the others
+        rows = (np.flatnonzero(util >= self.worst[0][0]) if 0 < self.keep == len(self.worst)
+                else np.arange(table.size))
+        for i in rows[np.argsort(-util[rows], kind="stable")][: self.keep].tolist():
             item = (float(util[i]), table.beam_ids[i], table.edition_id,
                     str(table.governing_check[i]))
             if len(self.worst) < self.keep:
@@ -71,43 +75,35 @@ class Summary:
         return sorted(self.worst, reverse=True)
 
 
-def _numbers(values: Any, factor: float = 1.0, digits: int = 6) -> list[str]:
-    """A column of numbers as text (``digits`` significant figures), blank where there
-    is none."""
-    spec = f".{digits}g"
-    return ["" if v != v else format(v, spec)  # v != v: NaN
-            for v in (np.asarray(values, float) * factor).tolist()]
+def _numbers(values: Any, factor: float = 1.0, digits: int = 6) -> Numbers:
+    """A column of numbers in the shown unit, ``digits`` significant figures, blank
+    where there is none."""
+    return Numbers(np.asarray(values, float) * factor, digits)
 
 
-def _words(values: Any) -> list[str]:
-    return [str(v) for v in values]
-
-
-def table_rows(table: BatchTable, system: UnitSystem = UnitSystem.SI,
-               situation: str = "persistent", stack: str = "") -> list[tuple[str, ...]]:
-    """One row per beam of a batch table in the columns of ``result_columns`` (the same
-    as check's CSV), in ``system``'s units, built column-wise."""
+def table_columns(table: BatchTable, system: UnitSystem = UnitSystem.SI,
+                  situation: str = "persistent", stack: str = "") -> list[Column]:
+    """The columns of ``result_columns`` (the same as check's CSV) for every beam of a
+    batch table, in ``system``'s units; a text where the column holds one for all."""
     width_key = next((k for k in table.governing_candidate if "width" in k), "")
     demand_key = next((k for k in table.governing_candidate if k != width_key), "")
-    blank = [""] * table.size
 
-    def candidates(key: str) -> list[str]:
+    def candidates(key: str) -> Column:
         column = table.governing_candidate.get(key)
-        return blank if column is None else _words(column)
+        return "" if column is None else column.tolist()
 
     moment, length = scale("N·mm", system)[0], scale("mm", system)[0]
-    columns = [
-        table.beam_ids, [table.edition_id] * table.size, _words(table.form),
-        [situation] * table.size, _words(table.status),
-        _numbers(table.governing_utilisation), _words(table.governing_check),
-        _words(table.governing_clause), _numbers(table.demand, moment),
-        _numbers(table.design_resistance, moment), _numbers(table.nominal_moment, moment),
-        _numbers(table.resistance_factor), _numbers(table.effective_width, length),
-        candidates(width_key), candidates(demand_key), _numbers(table.neutral_axis, length),
-        _numbers(table.net_tensile_strain), _words(table.regime), _words(table.block_case),
-        [stack] * table.size, _words(table.message), [CAUTION] * table.size,
+    return [
+        table.beam_ids, table.edition_id, table.form.tolist(), situation,
+        table.status.tolist(), _numbers(table.governing_utilisation),
+        table.governing_check.tolist(), table.governing_clause.tolist(),
+        _numbers(table.demand, moment), _numbers(table.design_resistance, moment),
+        _numbers(table.nominal_moment, moment), _numbers(table.resistance_factor),
+        _numbers(table.effective_width, length), candidates(width_key),
+        candidates(demand_key), _numbers(table.neutral_axis, length),
+        _numbers(table.net_tensile_strain), table.regime.tolist(),
+        table.block_case.tolist(), stack, table.message.tolist(), CAUTION,
     ]
-    return list(zip(*columns, strict=True))
 
 
 class RowWriter:
@@ -123,6 +119,7 @@ class RowWriter:
         else:
             out.write(json.dumps({"caution": CAUTION, "columns": self.columns}) + "\n")
         out.flush()
+        self.line_format = (CsvLines if kind == "csv" else JsonLines)(self.columns)
 
     def write(self, rows: Sequence[Sequence[str]]) -> None:
         if self.kind == "csv":
@@ -130,6 +127,11 @@ class RowWriter:
         else:
             self.out.write("".join(json.dumps(dict(zip(self.columns, r, strict=True))) + "\n"
                                    for r in rows))
+        self.out.flush()
+
+    def write_columns(self, columns: Sequence[Column], size: int) -> None:
+        """``size`` rows given column by column: the same text as ``write`` of them."""
+        self.out.write(self.line_format.lines(columns, size))
         self.out.flush()
 
 
@@ -148,7 +150,8 @@ def stream_schedule(schedule: Schedule, editions: Sequence[Edition], form: str |
     for _, table in iter_assess_many(beams, editions, form=form, situation=situation,
                                      chunk=chunk):
         if writer is not None:
-            writer.write(table_rows(table, system, situation, stacks[table.edition_id]))
+            writer.write_columns(table_columns(table, system, situation,
+                                               stacks[table.edition_id]), table.size)
         summary.add(table)
         done += table.size
         if progress is not None:
