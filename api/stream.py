@@ -19,7 +19,7 @@ from typing import IO, TYPE_CHECKING, Any
 
 import numpy as np
 
-from clausewise.provisions.batch import BatchTable, iter_assess_many
+from clausewise.provisions.batch import CHUNK, BatchTable, iter_assess_many
 from clausewise.provisions.beam import UnitSystem
 from clausewise.provisions.engine import CAUTION
 from clausewise.provisions.registry import Edition
@@ -138,7 +138,7 @@ class RowWriter:
 def stream_schedule(schedule: Schedule, editions: Sequence[Edition], form: str | None,
                     situation: str, writer: RowWriter | None,
                     progress: Callable[[int, int], None] | None = None,
-                    chunk: int = 5_000) -> Summary:
+                    chunk: int = CHUNK) -> Summary:
     """Assess every beam under every edition through the batch path; write and count."""
     beams = [entry.beam for entry in schedule.entries]
     summary = Summary()
