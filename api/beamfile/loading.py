@@ -138,34 +138,34 @@ def _schedule(data: dict[str, Any], source: str, base: Path, design: bool = Fals
     first_seen: dict[str, int] = {}
     declared = isinstance(data.get("project"), dict) and "units" in data["project"]
     defaulted: dict[str, list[str]] = {}
+    file_system = project.unit_system if project else UnitSystem.SI
+
+    def report(raw: Any, index: int, found: list[tuple[str, str, str]]) -> None:
+        beam_id = _beam_id(raw)  # only for a beam with problems: the happy path skips it
+        problems.extend(InputProblem(source, beam_id, f, v, e, index) for f, v, e in found)
+
     for index, raw in enumerate(beams, 1):
-
-        def report(found: list[tuple[str, str, str]], raw: Any = raw, index: int = index
-                   ) -> None:
-            beam_id = _beam_id(raw)
-            problems.extend(InputProblem(source, beam_id, f, v, e, index) for f, v, e in found)
-
         if not isinstance(raw, dict):
-            report([("beam", _text(raw), "a table of beam fields ([[beam]])")])
+            report(raw, index, [("beam", _text(raw), "a table of beam fields ([[beam]])")])
             continue
         try:
             model = _validate_beam(raw)
         except ValidationError as exc:
-            report(_from_pydantic(exc, _BEAM_FIELDS) + _beyond_the_shape(raw, exc, project))
+            report(raw, index, _from_pydantic(exc, _BEAM_FIELDS)
+                   + _beyond_the_shape(raw, exc, project))
             continue
         if model.id in first_seen:
-            report([("id", model.id, f"an id not used by another beam (beam number "
-                     f"{first_seen[model.id]} has it)")])
+            report(raw, index, [("id", model.id, f"an id not used by another beam (beam "
+                                 f"number {first_seen[model.id]} has it)")])
             continue
         first_seen[model.id] = index
-        system = _SYSTEMS[model.units] if model.units else (
-            project.unit_system if project else UnitSystem.SI)
+        system = _SYSTEMS[model.units] if model.units else file_system
         reader = _BeamReader(model, system, design)
         beam = reader.read()
         if not declared and model.units is None and reader.defaulted:
             defaulted[model.id] = reader.defaulted
         if beam is None:
-            report(reader.problems)
+            report(raw, index, reader.problems)
         else:
             entries.append(BeamEntry(beam, reader.shown, tuple(reader.bar_groups)))
     if project is None:  # every problem of the file at once: the header's and the beams'

@@ -44,6 +44,7 @@ _BENDINGS = {b.value: b for b in Bending}
 _BASES = {b.value: b for b in StrengthBasis}
 _CONTINUITIES = {c.value: c for c in Continuity}
 _SYSTEMS = {u.value: u for u in UnitSystem}
+_US = UnitSystem.US  # looking a member up on its enum class is slow in a hot loop
 _SHAPE_TEXT = {(shape, bending): f"{shape}, {bending}" for shape in _SHAPES
                for bending in ("sagging", "hogging")} | {
     ("inverted T", "sagging"): "inverted T, sagging (flange in tension, at the soffit)",
@@ -70,13 +71,9 @@ _BOUNDS: dict[str, Plausible | None] = {}
 
 def _bounds(key: str) -> Plausible | None:
     """The plausible range of a PLAUSIBLE key or of a field named by its last part
-    ("floor.span"), looked up once per key: a file names the same few fields again and
-    again."""
-    try:
-        return _BOUNDS[key]
-    except KeyError:
-        bounds = _BOUNDS[key] = PLAUSIBLE.get(key.rpartition(".")[2])
-        return bounds
+    ("floor.span"), kept in _BOUNDS: a file names the same few fields again and again."""
+    bounds = _BOUNDS[key] = PLAUSIBLE.get(key.rpartition(".")[2])
+    return bounds
 
 
 class _BeamReader:
@@ -112,7 +109,8 @@ class _BeamReader:
             self.defaulted.append(field)
         if label:
             self.shown[label] = reading[1]
-        bounds = _bounds(plausible or field)
+        key = plausible or field
+        bounds = _BOUNDS[key] if key in _BOUNDS else _bounds(key)
         if bounds is not None and not bounds.low <= reading[0] <= bounds.high:
             self.within(reading, field, bounds)
             return None
@@ -318,7 +316,7 @@ class _BeamReader:
         m = self.model
         q = self.quantity
         flanged = m.shape != "rectangular"
-        self.shown["units"] = "US customary" if self.system is UnitSystem.US else "SI"
+        self.shown["units"] = "US customary" if self.system is _US else "SI"
         self.shown["shape"] = _SHAPE_TEXT[m.shape, m.bending]
         bw = q(m.web_width, "web_width", LENGTH, "web width bw")
         h = q(m.overall_depth, "overall_depth", LENGTH, "overall depth h")
