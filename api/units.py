@@ -161,8 +161,15 @@ def read_quantity(value: Any, kind: Kind, system: UnitSystem = UnitSystem.SI,
     ``value`` is a string ("650 mm") or a plain number (taking ``system``'s default
     unit). ``sign`` is "positive", "non-negative" or "any"; a value must be finite.
     """
+    us = system is _US  # a bool keys the caches: hashing an enum member is slow
+    if type(value) is float:  # the usual plain number of a file, first: the hot path
+        factor, suffix = _PLAIN_UNITS.get((kind, us)) or _default_unit(kind, us)
+        internal = value * factor
+        if sign == "positive" and 0.0 < internal < _INF:
+            return internal, f"{value:.12g}{suffix}"
+        return _signed(internal, f"{value:.12g}{suffix}", kind, sign)
     if isinstance(value, str):
-        return _read_text(str(value), kind, system, sign)
+        return _read_text(str(value), kind, us, sign)
     if not isinstance(value, int | float) or isinstance(value, bool):
         raise QuantityError(str(value)[:80], kind.expected)
     try:
@@ -170,19 +177,29 @@ def read_quantity(value: Any, kind: Kind, system: UnitSystem = UnitSystem.SI,
     except OverflowError:  # an integer beyond any float
         raise QuantityError(str(value)[:80], f"a finite {kind.name} (e.g. {kind.examples})"
                             ) from None
-    factor, label = _default_unit(kind, system)
-    return _signed(number * factor, f"{_number_text(value)} {label}".rstrip(), kind, sign)
+    factor, suffix = _default_unit(kind, us)
+    return _signed(number * factor, f"{_number_text(value)}{suffix}", kind, sign)
 
 
-@lru_cache(maxsize=64)
-def _default_unit(kind: Kind, system: UnitSystem) -> tuple[float, str]:
-    """Factor to the internal unit and label of the unit a plain number takes."""
-    spelling, label = kind.default(system)
-    return (unit_info(spelling).factor if spelling else 1.0), label
+_US = UnitSystem.US  # looking a member up on its enum class is slow in a hot loop
+_INF = math.inf
+# (kind, US units?) -> the default unit of a plain number, filled by _default_unit
+_PLAIN_UNITS: dict[tuple[Kind, bool], tuple[float, str]] = {}
+
+
+def _default_unit(kind: Kind, us: bool) -> tuple[float, str]:
+    """Factor to the internal unit of the unit a plain number takes (in US units when
+    ``us``), and its label as shown after the number (" mm"; "" for a plain number)."""
+    found = _PLAIN_UNITS.get((kind, us))
+    if found is None:
+        spelling, label = kind.defaults[us]
+        factor = unit_info(spelling).factor if spelling else 1.0
+        found = _PLAIN_UNITS[kind, us] = (factor, f" {label}".rstrip())
+    return found
 
 
 @lru_cache(maxsize=8192)
-def _read_text(value: str, kind: Kind, system: UnitSystem, sign: str) -> tuple[float, str]:
+def _read_text(value: str, kind: Kind, us: bool, sign: str) -> tuple[float, str]:
     """Schedules repeat the same few spellings ("650 mm", "30 MPa"): cache whole readings."""
     match = _SPLIT.match(value)
     if match is None:
@@ -193,8 +210,8 @@ def _read_text(value: str, kind: Kind, system: UnitSystem, sign: str) -> tuple[f
     except ValueError:  # digits grouped by spaces: "200 000"
         number = float(number_text.translate(_SEPARATORS))
     if not unit_text:
-        factor, label = _default_unit(kind, system)
-        return _signed(number * factor, f"{number_text} {label}".rstrip(), kind, sign)
+        factor, suffix = _default_unit(kind, us)
+        return _signed(number * factor, f"{number_text}{suffix}", kind, sign)
     shown = " ".join(value.split())
     info = unit_info(unit_text)
     if info.kind != kind.name:

@@ -3,6 +3,7 @@ value rather than the first."""
 
 from __future__ import annotations
 
+from functools import lru_cache
 from typing import Any
 
 from clausewise.beamfile.errors import _text
@@ -27,7 +28,7 @@ from clausewise.units import (
     Bars,
     Kind,
     QuantityError,
-    has_unit,
+    _names_unit,
     read_bars,
     read_quantity,
     unit_info,
@@ -43,6 +44,7 @@ _BENDINGS = {b.value: b for b in Bending}
 _BASES = {b.value: b for b in StrengthBasis}
 _CONTINUITIES = {c.value: c for c in Continuity}
 _SYSTEMS = {u.value: u for u in UnitSystem}
+_US = UnitSystem.US  # looking a member up on its enum class is slow in a hot loop
 _SHAPE_TEXT = {(shape, bending): f"{shape}, {bending}" for shape in _SHAPES
                for bending in ("sagging", "hogging")} | {
     ("inverted T", "sagging"): "inverted T, sagging (flange in tension, at the soffit)",
@@ -50,6 +52,28 @@ _SHAPE_TEXT = {(shape, bending): f"{shape}, {bending}" for shape in _SHAPES
     ("T", "hogging"): "T, hogging (slab in tension)",
     ("L", "hogging"): "L, hogging (slab in tension)",
 }
+
+
+@lru_cache(maxsize=256)
+def _layer_field(group: str, number: int) -> str:
+    """"tension[1]": a layer's field, made once however many beams have the layer."""
+    return f"{group}[{number}]"
+
+
+@lru_cache(maxsize=1024)
+def _part(field: str, name: str) -> str:
+    """"tension[1].depth": a part of a layer's field, made once."""
+    return f"{field}.{name}"
+
+
+_BOUNDS: dict[str, Plausible | None] = {}
+
+
+def _bounds(key: str) -> Plausible | None:
+    """The plausible range of a PLAUSIBLE key or of a field named by its last part
+    ("floor.span"), kept in _BOUNDS: a file names the same few fields again and again."""
+    bounds = _BOUNDS[key] = PLAUSIBLE.get(key.rpartition(".")[2])
+    return bounds
 
 
 class _BeamReader:
@@ -77,18 +101,20 @@ class _BeamReader:
         if value is None:
             return None
         try:
-            number, text = read_quantity(value, kind, self.system, sign)
+            reading = read_quantity(value, kind, self.system, sign)
         except QuantityError as exc:
             self.problem(field, exc.value, exc.expected)
             return None
-        if not (isinstance(value, str) and has_unit(value)):  # a plain number, or "300"
+        if not (isinstance(value, str) and _names_unit(value)):  # a plain number, or "300"
             self.defaulted.append(field)
         if label:
-            self.shown[label] = text
-        bounds = PLAUSIBLE.get(plausible or field.rpartition(".")[2])
-        if bounds is not None and not self.within((number, text), field, bounds):
+            self.shown[label] = reading[1]
+        key = plausible or field
+        bounds = _BOUNDS[key] if key in _BOUNDS else _bounds(key)
+        if bounds is not None and not bounds.low <= reading[0] <= bounds.high:
+            self.within(reading, field, bounds)
             return None
-        return number, text
+        return reading
 
     def in_user_units(self, value: float, kind: Kind) -> str:
         spelling, label = kind.default(self.system)
@@ -121,7 +147,7 @@ class _BeamReader:
         symbol = "d" if tension else "d'"
         face = "tension" if tension else "compression"
         for i, layer in enumerate(models, 1):
-            field = f"{name}[{i}]"
+            field = _layer_field(name, i)
             area = self._layer_area(layer, field)
             depth = self._layer_depth(layer, field, h, tension, symbol, face)
             if area is not None and depth is not None and h is not None and self._placed(
@@ -143,10 +169,10 @@ class _BeamReader:
         side by side within the width at their depth, tension steel beyond mid-depth."""
         d, text = depth
         which = "depth" if layer.depth is not None else "centroid_from_face"
-        given = _text(getattr(layer, which))
-        bars = _bars_of(layer, self.system)
+        bars = self._bars.get(field)  # read by _layer_area when given by notation
         ok = True
         if tension and d < h[0] / 2:
+            given = _text(getattr(layer, which))
             face = "soffit" if self.model.bending == "hogging" else "top"
             self.problem(f"{field}.{which}", given, f"tension steel beyond mid-depth "
                          f"(h/2 = {self.in_user_units(h[0] / 2, LENGTH)}) from the compression "
@@ -158,6 +184,7 @@ class _BeamReader:
             return ok
         radius = bars.largest_diameter / 2
         if d + radius > h[0] or d - radius < 0:
+            given = _text(getattr(layer, which))
             edge = d + radius if d + radius > h[0] else d - radius
             self.problem(f"{field}.{which}", given, f"a depth that keeps the bars inside the "
                          f"section: {bars.text} {text} reach "
@@ -205,7 +232,7 @@ class _BeamReader:
                 return None
             self._bars[field] = bars
             return bars.area, bars.text
-        return self.quantity(layer.area, f"{field}.area", AREA, plausible="steel area")
+        return self.quantity(layer.area, _part(field, "area"), AREA, plausible="steel area")
 
     def _layer_depth(self, layer: LayerModel, field: str, h: tuple[float, str] | None,
                      tension: bool, symbol: str, face: str) -> tuple[float, str] | None:
@@ -219,12 +246,12 @@ class _BeamReader:
             return None
         given = layer.depth if layer.depth is not None else layer.centroid_from_face
         which = "depth" if layer.depth is not None else "centroid_from_face"
-        reading = self.quantity(given, f"{field}.{which}", LENGTH, plausible="steel depth")
+        reading = self.quantity(given, _part(field, which), LENGTH, plausible="steel depth")
         if reading is None or h is None:
             return None
         value, text = reading
         if value >= h[0]:
-            self.problem(f"{field}.{which}", text, f"a distance less than the overall depth "
+            self.problem(_part(field, which), text, f"a distance less than the overall depth "
                          f"({h[1]}), so that the layer lies inside the section")
             return None
         if which == "depth":
@@ -278,9 +305,9 @@ class _BeamReader:
             self.problem(f"moments.{field}", _text(moments.factored) if field == "factored"
                          else "", why if field == "factored" else f"{MOMENT.expected}: {why}")
             return Actions()
-        given = (moments.dead, moments.live, moments.factored)
-        if any(r is None and g is not None for r, g in zip((dead, live, factored), given,
-                                                           strict=True)):
+        if (dead is None and moments.dead is not None) or (
+                live is None and moments.live is not None) or (
+                factored is None and moments.factored is not None):
             return Actions()  # a moment that could not be read is reported already
         return Actions(_v(dead), _v(live), _v(factored))
 
@@ -289,7 +316,7 @@ class _BeamReader:
         m = self.model
         q = self.quantity
         flanged = m.shape != "rectangular"
-        self.shown["units"] = "US customary" if self.system is UnitSystem.US else "SI"
+        self.shown["units"] = "US customary" if self.system is _US else "SI"
         self.shown["shape"] = _SHAPE_TEXT[m.shape, m.bending]
         bw = q(m.web_width, "web_width", LENGTH, "web width bw")
         h = q(m.overall_depth, "overall_depth", LENGTH, "overall depth h")
@@ -382,16 +409,6 @@ class _BeamReader:
                              "compression steel nearer the "
                              "compression face than the tension steel (effective depth d = "
                              f"{self.in_user_units(d, LENGTH)})")
-
-
-def _bars_of(layer: LayerModel, system: UnitSystem) -> Bars | None:
-    """The layer's bars when given by notation (already read without error), else None."""
-    if layer.bars is None or layer.area is not None:
-        return None
-    try:
-        return read_bars(layer.bars, system)
-    except QuantityError:
-        return None
 
 
 def _short(value: float) -> str:
