@@ -317,15 +317,13 @@ def solve_arrays(sec: SectionArrays, concrete: ConcreteLaw, *, rtol: float = 1e-
     status = np.where((status == OK) & ~np.all(within, axis=1), STRAIN_LIMIT, status)
 
     layer_force = sec.areas * (f.stress - f.displaced)
-    web_width = sec.widths.min(axis=1, keepdims=True)
-    per_width_force = f.strip_force / sec.widths
-    per_width_moment = f.strip_moment / sec.widths
-    web_force = np.add.reduce(web_width * per_width_force, axis=1)
-    web_moment = np.add.reduce(web_width * per_width_moment, axis=1)
-    overhang_force = np.add.reduce((sec.widths - web_width) * per_width_force, axis=1)
-    overhang_moment = np.add.reduce((sec.widths - web_width) * per_width_moment, axis=1)
+    web_share = sec.widths.min(axis=1, keepdims=True) / sec.widths  # 1 in the web's strip
+    web_force = np.add.reduce(web_share * f.strip_force, axis=1)
+    web_moment = np.add.reduce(web_share * f.strip_moment, axis=1)
     concrete_force = np.add.reduce(f.strip_force, axis=1)
     concrete_moment = np.add.reduce(f.strip_moment, axis=1)
+    overhang_force = concrete_force - web_force  # exactly 0 where the web carries it all
+    overhang_moment = concrete_moment - web_moment
 
     nominal_moment = -(concrete_moment + np.add.reduce(layer_force * sec.depths, axis=1))
     deepest = np.argmax(sec.depths, axis=1)
@@ -342,9 +340,10 @@ def solve_arrays(sec: SectionArrays, concrete: ConcreteLaw, *, rtol: float = 1e-
         len(sec.labels) - 1)
 
     invalid = status == NOT_BRACKETED
+    any_invalid = bool(invalid.any())
 
     def valid(values: Array) -> Array:
-        return np.where(invalid, np.nan, values)
+        return np.where(invalid, np.nan, values) if any_invalid else values
 
     return ResponseArrays(
         c=valid(c_eval), zone_depth=valid(zone), zone_strip=zone_strip, labels=sec.labels,
