@@ -201,11 +201,18 @@ def _num(value: Any) -> float | None:
 # --- one group under one edition ------------------------------------------------------
 
 def _texts(value: Any, n: int) -> NDArray[np.str_]:
-    return np.asarray(np.broadcast_to(np.asarray(value, dtype=object), (n,)), dtype=object)
+    """A column of ``n`` texts from one text or one per beam (assignment broadcasts, and
+    refuses a column of another length)."""
+    column = np.empty(n, dtype=object)
+    column[:] = value
+    return column
 
 
 def _floats(value: Any, n: int) -> NDArray[np.float64]:
-    return np.array(np.broadcast_to(np.asarray(value, dtype=float), (n,)), dtype=float)
+    """A column of ``n`` numbers from one number or one per beam."""
+    column = np.empty(n)
+    column[:] = value
+    return column
 
 
 def _scope_table(edition: Edition, ids: list[str], form: str, checks: Sequence[Any],

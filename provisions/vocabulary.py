@@ -167,14 +167,17 @@ class Check:
             return _utilisation(float(self.value), float(self.limit), self.sense)
         value = np.asarray(self.value, float)
         limit = np.asarray(self.limit, float)
+        # the ratio, then the rare cases of _utilisation fixed where they occur
+        numerator, denominator = (value, limit) if self.sense is Sense.AT_MOST else (limit,
+                                                                                     value)
         with np.errstate(divide="ignore", invalid="ignore"):
-            if self.sense is Sense.AT_MOST:
-                u = np.where(limit > 0, value / np.where(limit > 0, limit, 1.0),
-                             np.where(value > 0, np.inf, 0.0))
-            else:
-                u = np.where(value > 0, limit / np.where(value > 0, value, 1.0),
-                             np.where(limit > 0, np.inf, 0.0))
-        u = np.where(np.isnan(value) | np.isnan(limit), np.inf, u)
+            u = np.asarray(numerator / denominator, float)
+        bad_denominator = ~(denominator > 0)
+        if bad_denominator.any():
+            u = np.where(bad_denominator, np.where(numerator > 0, np.inf, 0.0), u)
+        undefined = np.isnan(value) | np.isnan(limit)
+        if undefined.any():
+            u = np.where(undefined, np.inf, u)
         return u if u.ndim else float(u)
 
     @property

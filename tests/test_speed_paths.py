@@ -10,6 +10,7 @@ from __future__ import annotations
 import math
 from collections import Counter
 
+import numpy as np
 import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
@@ -18,11 +19,14 @@ from clausewise.provisions import (
     Actions,
     Beam,
     Bending,
+    Check,
+    Clause,
     EditionInfo,
     FloorLayout,
     Layer,
     Parameter,
     Registry,
+    Sense,
     Shape,
     assess,
     default_registry,
@@ -230,3 +234,16 @@ def test_row_names_are_made_when_read():
     assert names[1:][0] == "cand[1]" and len(names[3:]) == 2
     with pytest.raises(IndexError):
         names[5]
+
+
+@pytest.mark.parametrize("sense", list(Sense))
+def test_utilisation_of_an_array_equals_that_of_each_beam(sense):
+    """Every pair of awkward values (zero, negative, NaN, infinite limits and values):
+    the array rule gives, element by element, what the one-beam rule gives."""
+    awkward = [-1.0, 0.0, 0.5, 1.0, 2.0, math.nan, math.inf, -math.inf]
+    pairs = [(v, lim) for v in awkward for lim in awkward]
+    check = Check("x", np.array([p[0] for p in pairs]), np.array([p[1] for p in pairs]), sense,
+                  Clause("test", "1"))
+    for (value, limit), batch in zip(pairs, check.utilisation, strict=True):
+        one = Check("x", value, limit, sense, Clause("test", "1")).utilisation
+        assert one == batch or (math.isnan(one) and math.isnan(batch)), (value, limit)
