@@ -118,3 +118,41 @@ def test_listing_csv_has_its_header_first_and_the_caution_in_every_row(command, 
     assert rows and list(rows[0])[-1] == "caution"
     assert all(r["caution"] == CAUTION for r in rows)
     assert not any(key.startswith("#") for key in rows[0])
+
+
+BEAM_WITH_ID = """[project]
+units = "SI"
+
+[[beam]]
+id = "{id}"
+shape = "rectangular"
+web_width = 300
+overall_depth = 600
+concrete_strength = 30
+yield_strength = 420
+tension = [{{ area = 1500, depth = 540 }}]
+moments = {{ factored = "100 kN m" }}
+"""
+
+
+@pytest.mark.parametrize(("written", "shown"), [("B\\r1", "B\\r1"), ("B\\t1", "B\\t1"),
+                                                ("B\\u00001", "B\\x001")])
+def test_an_id_with_a_control_character_is_refused_and_shown_escaped(tmp_path, capsys,
+                                                                     written, shown):
+    """A carriage return in an id shows in a terminal as another id ("B1") and breaks the
+    CSV rows, so it is refused, and the refusal shows it as an escape."""
+    path = tmp_path / "ids.toml"
+    path.write_text(BEAM_WITH_ID.format(id=written), encoding="utf-8")
+    rows = tmp_path / "rows.csv"
+    assert main(["batch", str(path), "--edition", "aci318-19", "--out", str(rows)]) == 2
+    text = rows.read_text(encoding="utf-8")
+    assert "without control characters" in text
+    assert text.count("\n") == 2 and f"{shown},aci318-19" in text  # header and one row
+    assert "refused" in text and "\r" not in text and "\t" not in text
+
+
+def test_an_id_in_any_script_is_kept(tmp_path, capsys):
+    path = tmp_path / "ids.toml"
+    path.write_text(BEAM_WITH_ID.format(id="Träger 7/Ø–2"), encoding="utf-8")
+    assert main(["check", str(path), "--edition", "aci318-19"]) == 0
+    assert "Träger 7/Ø–2" in capsys.readouterr().out

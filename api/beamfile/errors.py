@@ -119,10 +119,14 @@ def _did_you_mean(word: str, choices: tuple[str, ...] | list[str]) -> str:
     return f" (did you mean {lowered[close[0]]!r}?)" if close else ""
 
 
+_CONTROL = re.compile(r"[\x00-\x1f\x7f]")
+
+
 def _text(value: Any) -> str:
-    """A value as the user wrote it, for messages."""
+    """A value as the user wrote it, for messages; a control character as its escape
+    ("B\\r1"), so that it cannot hide in a terminal."""
     if isinstance(value, str):
-        return value
+        return _CONTROL.sub(lambda m: m.group().encode("unicode_escape").decode("ascii"), value)
     if isinstance(value, bool):
         return "true" if value else "false"
     if isinstance(value, datetime | date | time):

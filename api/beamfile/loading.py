@@ -117,7 +117,7 @@ def _header(data: dict[str, Any], source: str, base: Path
 
 def _beam_id(raw: Any) -> str | None:
     if isinstance(raw, dict) and isinstance(raw.get("id"), str) and raw["id"].strip():
-        return str(raw["id"].strip())
+        return _text(raw["id"].strip())
     return None
 
 

@@ -106,9 +106,10 @@ LongText = Annotated[str, StringConstraints(max_length=LONG_TEXT),
 PathText = Annotated[str, StringConstraints(max_length=PATH_TEXT),
                      _Expect(f"a file path in quotes, at most {PATH_TEXT} characters")]
 Id = Annotated[str, StringConstraints(strip_whitespace=True, min_length=1, max_length=SHORT_TEXT,
-                                      strict=True),
+                                      strict=True, pattern=r"^[^\x00-\x1f\x7f]+$"),
                _Expect(f"a text id such as 'B1', unique in the file, at most {SHORT_TEXT} "
-                       "characters")]
+                       "characters, without control characters (a carriage return or tab "
+                       "would show as another id and break the rows of a CSV file)")]
 _OPERATOR = r"(~=|===|==|!=|<=|>=|<|>)"
 _VERSION = r"[^\s,<>=!~]+"
 EditionId = Annotated[str, StringConstraints(strip_whitespace=True, strict=True,
