@@ -38,7 +38,8 @@ def _number_paths(template: Any, prefix: str = "obj") -> list[str]:
     """The expression of every number in ``template`` (its parts and layers too), in the
     order of the dataclass fields: beams of one kind have numbers at the same places."""
     paths: list[str] = []
-    for name, role in field_roles(type(template)):
+    cls: type = type(template)
+    for name, role in field_roles(cls):
         value = getattr(template, name)
         if value is None or role == "word":
             continue
@@ -56,7 +57,8 @@ def _rebuilt(template: Any, columns: Iterator[Any]) -> Any:
     """``template`` with its numbers replaced, in :func:`_number_paths` order, by the
     next of ``columns``."""
     changes: dict[str, Any] = {}
-    for name, role in field_roles(type(template)):
+    cls: type = type(template)
+    for name, role in field_roles(cls):
         value = getattr(template, name)
         if value is None or role == "word":
             continue
@@ -215,7 +217,7 @@ def _floats(value: Any, n: int) -> NDArray[np.float64]:
     return column
 
 
-def _scope_table(edition: Edition, ids: list[str], form: str, checks: Sequence[Any],
+def _scope_table(edition: Edition, ids: Sequence[str], form: str, checks: Sequence[Any],
                  in_scope: NDArray[np.bool_]) -> BatchTable:
     table = BatchTable.empty(edition.id, ids)
     table.form[:] = form
@@ -259,7 +261,7 @@ def _group_table(edition: Edition, batch: Beam, ids: Sequence[str],
     ev = evaluate(sub, edition, context)
     m = rows.size
     resp = ev.response
-    part = BatchTable.empty(edition.id, [ids[i] for i in rows] if table else ids)
+    part = BatchTable.empty(edition.id, [ids[i] for i in rows.tolist()] if table else ids)
     part.form[:] = context.form
     part.nominal_moment[:] = resp.nominal_moment
     part.design_resistance[:] = _floats(ev.design_resistance.value, m)  # type: ignore[union-attr]

@@ -277,7 +277,7 @@ def _kind_reader(cls: type) -> Callable[[Any], tuple[Any, ...]]:
 def _dataclass_of(hint: Any) -> type:
     """The dataclass a part or group field holds: ``FloorLayout | None``, ``tuple[Layer,
     ...]``."""
-    return next(a for a in (hint, *get_args(hint)) if is_dataclass(a))
+    return next(a for a in (hint, *get_args(hint)) if isinstance(a, type) and is_dataclass(a))
 
 
 def kind_of(obj: Any) -> tuple[Any, ...]:
