@@ -187,9 +187,12 @@ class SectionArrays:
 
     def take(self, rows: NDArray[np.int_]) -> SectionArrays:
         """The sections at the given row indices, as a smaller batch."""
+        taken: dict[int, SteelLaw] = {}  # a law shared by layers stays shared
+        for law in self.steel:
+            if id(law) not in taken:
+                taken[id(law)] = take_rows(law, rows, self.size)
         return SectionArrays(self.edges[rows], self.widths[rows], self.areas[rows],
-                             self.depths[rows],
-                             tuple(take_rows(law, rows, self.size) for law in self.steel),
+                             self.depths[rows], tuple(taken[id(law)] for law in self.steel),
                              self.labels, validate=False)
 
     @classmethod

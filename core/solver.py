@@ -23,7 +23,15 @@ import numpy as np
 from numpy.typing import NDArray
 
 from clausewise.core.errors import SectionError
-from clausewise.core.laws import ConcreteLaw, _col, law_size, take_rows
+from clausewise.core.laws import (
+    BilinearHardening,
+    ConcreteLaw,
+    ElasticPlastic,
+    PiecewiseLinear,
+    _col,
+    law_size,
+    take_rows,
+)
 from clausewise.core.section import Section, SectionArrays
 
 Array = NDArray[np.float64]
@@ -53,9 +61,24 @@ class _Forces:
     strip_moment: Array
 
 
+_ELEMENTWISE = (ElasticPlastic, BilinearHardening, PiecewiseLinear)
+ONE_CALL_BELOW = 256  # sections: below this the cost of a call outweighs that of its work
+
+
+def _steel_stress(sec: SectionArrays, strain: Array) -> Array:
+    """Stress of every layer. A small batch whose layers share one of the core's
+    elementwise laws (the usual case: one steel for the whole section) takes it in one
+    call; otherwise layer by layer, on contiguous columns. The arithmetic is the same."""
+    first = sec.steel[0]
+    if sec.size <= ONE_CALL_BELOW and type(first) in _ELEMENTWISE and all(
+            law is first for law in sec.steel):
+        return first.stress(strain.T).T  # parameters of shape (N,) broadcast over layers
+    return np.column_stack([law.stress(strain[:, j]) for j, law in enumerate(sec.steel)])
+
+
 def _forces(sec: SectionArrays, concrete: ConcreteLaw, c: Array) -> _Forces:
     strain = _col(concrete.ultimate_strain) * (c[:, None] - sec.depths) / c[:, None]
-    stress = np.column_stack([law.stress(strain[:, j]) for j, law in enumerate(sec.steel)])
+    stress = _steel_stress(sec, strain)
     displaced = concrete.stress_at(c, sec.depths)
     force_per_width, moment_per_width = concrete.strip_resultants(
         c, sec.edges[:, :-1], sec.edges[:, 1:])

@@ -57,8 +57,8 @@ def factored_moment(beam: Beam, combinations: Sequence[Combination], given: Clau
                                 "N·mm")
     if not actions.given:
         return None
-    dead = np.asarray(actions.dead, float)
-    live = np.asarray(actions.live if actions.live is not None else 0.0, float)
+    dead, live = (v if type(v) is float else np.asarray(v, float)  # one beam: plain floats
+                  for v in (actions.dead, 0.0 if actions.live is None else actions.live))
     candidates = [Candidate(c.label(symbols), per_beam(c.dead * dead + c.live * live),
                             c.clause) for c in combinations]
     return Envelope.largest(name, symbol, candidates, "N·mm")

@@ -138,3 +138,29 @@ def test_stacking_sagging_with_hogging_keeps_each_rows_strip_labels():
     result = solve_arrays(batch, law)
     for i, section in enumerate([hogging, sagging]):
         assert_same(solve(section, law), result.row(i))
+
+
+@pytest.mark.parametrize("law", [ElasticPlastic(200_000.0, 420.0),
+                                 BilinearHardening(200_000.0, 500.0, 1_000.0, 0.045)])
+def test_a_shared_steel_law_in_one_call_equals_one_law_per_layer(law):
+    """Layers sharing one law are taken in one call in a small batch and layer by layer in
+    a large one (or when each layer has its own law object): the same numbers, bit for
+    bit, since the arithmetic is elementwise either way."""
+    rng = np.random.default_rng(3)
+    n = 600  # larger than the one-call threshold; its first rows are solved apart too
+    d = rng.uniform(400.0, 700.0, n)
+    profile = dict(thicknesses=[np.full(n, 120.0), d + 60.0 - 120.0],
+                   widths=[rng.uniform(800.0, 2000.0, n), np.full(n, 300.0)],
+                   labels=("flange", "web"),
+                   areas=[rng.uniform(800.0, 4000.0, n), np.full(n, 600.0), np.full(n, 400.0)],
+                   depths=[d, d - 50.0, np.full(n, 50.0)])
+    block = RectangularBlock(0.85 * 30.0, 0.85, 0.003)
+    shared = solve_arrays(SectionArrays.from_profile(**profile, steel=[law] * 3), block)
+    separate = solve_arrays(SectionArrays.from_profile(
+        **profile, steel=[law, stack_laws([law]), stack_laws([law])]), block)
+    small = solve_arrays(SectionArrays.from_profile(
+        **{k: [v[:8] for v in vs] if k != "labels" else vs for k, vs in profile.items()},
+        steel=[law] * 3), block)
+    for name in ("c", "nominal_moment", "layer_stress", "layer_strain"):
+        assert np.array_equal(getattr(shared, name), getattr(separate, name)), name
+        assert np.array_equal(getattr(small, name), getattr(shared, name)[:8]), name
