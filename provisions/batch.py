@@ -258,7 +258,7 @@ def _group_table(edition: Edition, batch: Beam, ids: Sequence[str],
         if rows.size == 0:
             return table
     sub = take_beam(batch, rows) if rows.size < n else batch
-    ev = evaluate(sub, edition, context)
+    ev = evaluate(sub, edition, context, tuple(scope_checks) if rows.size == n else None)
     m = rows.size
     resp = ev.response
     part = BatchTable.empty(edition.id, [ids[i] for i in rows.tolist()] if table else ids)

@@ -162,15 +162,19 @@ def build_section(beam: Beam, width: Any, steel: MaterialModel) -> SectionArrays
         [layer.depth for layer in layers], [steel.law] * len(layers))
 
 
-def evaluate(beam: Beam, edition: Edition, context: Context) -> Evaluation:
+def evaluate(beam: Beam, edition: Edition, context: Context,
+             applicability: tuple[Check, ...] | None = None) -> Evaluation:
     """Run every topic of ``edition`` on ``beam``; stop after applicability when a single
-    beam is outside the edition's scope."""
+    beam is outside the edition's scope. ``applicability``: the edition's scope checks
+    of these very beams, where the caller has them already (the batch path asks first,
+    to cut out the beams outside scope)."""
     if beam.flanged and beam.flange_thickness is None:
         raise SectionError(f"beam {beam.id!r}: a {beam.shape.value} beam needs its flange "
                            "(slab) thickness hf in mm")
     check_situation(edition, context.situation)
     params = edition.parameters(context)
-    applicability = tuple(edition.applicability(beam, params, context))
+    if applicability is None:
+        applicability = tuple(edition.applicability(beam, params, context))
     in_scope = _all_passed(applicability)
     result = Evaluation(beam, edition, context, params, applicability, in_scope)
     if not beam.is_batch and not in_scope:
