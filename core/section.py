@@ -167,6 +167,8 @@ class SectionArrays:
         if not validate:  # rows taken from a checked batch (``take``)
             return
         for j, law in enumerate(self.steel):
+            if any(law is other for other in self.steel[:j]):  # a shared law: checked once
+                continue
             if law_size(law) not in (1, n):
                 raise SectionError(f"steel law of layer {j} has parameters for {law_size(law)} "
                                    f"sections but the batch has {n}")
@@ -201,7 +203,8 @@ class SectionArrays:
                      depths: Sequence[ArrayLike], steel: Sequence[SteelLaw]) -> SectionArrays:
         """Build from per-strip and per-layer columns (floats or arrays of shape (N,))."""
         columns = [np.asarray(v, dtype=float) for v in (*thicknesses, *widths, *areas, *depths)]
-        n = max([c.size for c in columns] + [law_size(law) for law in steel])
+        n = max([c.size for c in columns] + [law_size(law) for law in {id(law): law for law
+                                                                        in steel}.values()])
         t = np.column_stack([np.broadcast_to(np.asarray(v, float), n) for v in thicknesses])
         edges = np.concatenate([np.zeros((n, 1)), np.cumsum(t, axis=1)], axis=1)
         return cls(
