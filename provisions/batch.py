@@ -26,6 +26,7 @@ from clausewise.provisions.beam import NAMES, Beam, Context, field_roles, kind_o
 from clausewise.provisions.engine import evaluate, resolve_form
 from clausewise.provisions.registry import Edition, Registry, default_registry
 from clausewise.provisions.verdicts import ERROR, governing, status
+from clausewise.provisions.vocabulary import choose
 
 CHUNK = 20_000
 """Beams run at a time through one edition. The arrays of a chunk this size stay in the
@@ -224,7 +225,7 @@ def _scope_table(edition: Edition, ids: Sequence[str], form: str, checks: Sequen
     table.status[:] = status(in_scope=in_scope, equilibrium=True, checks=(),
                              has_demand=True)  # the rows in scope are filled in later
     _record_checks(table, checks)
-    table.message[:] = np.where(in_scope, "", "outside the edition's scope")
+    table.message[:] = choose(in_scope, "", "outside the edition's scope")
     return table
 
 
@@ -282,7 +283,7 @@ def _group_table(edition: Edition, batch: Beam, ids: Sequence[str],
     equilibrium = resp.equilibrium
     part.status[:] = status(in_scope=True, equilibrium=equilibrium, checks=ev.checks,
                             has_demand=ev.demand is not None)
-    part.message[:] = np.where(equilibrium, "", "no equilibrium within the laws' limits")
+    part.message[:] = choose(equilibrium, "", "no equilibrium within the laws' limits")
     if table is None:
         return part
     table.fill(rows, part)

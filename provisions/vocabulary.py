@@ -248,8 +248,15 @@ def largest_of(*values: ArrayLike) -> Value:
 
 
 def choose(condition: ArrayLike, if_true: ArrayLike, if_false: ArrayLike) -> Value:
-    """``if_true`` where ``condition`` holds, else ``if_false``: an ``if`` for rules."""
+    """``if_true`` where ``condition`` holds, else ``if_false``: an ``if`` for rules. Texts
+    are chosen as Python objects (a batch's column of names, not fixed-width text)."""
+    if _is_text(if_true) or _is_text(if_false):
+        if_true, if_false = (np.asarray(v, dtype=object) for v in (if_true, if_false))
     return _out(np.where(condition, if_true, if_false))
+
+
+def _is_text(value: Any) -> bool:
+    return isinstance(value, str) or (isinstance(value, np.ndarray) and value.dtype.kind in "OU")
 
 
 def sqrt(value: ArrayLike) -> Value:
