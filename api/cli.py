@@ -555,9 +555,14 @@ def _run_batch(schedule: Schedule, editions: Sequence[Edition], form: str | None
                situation: str, out: Path | None) -> int:
     """The batch path: rows streamed to ``out`` (CSV, or JSON Lines for .jsonl), progress
     on a terminal for runs longer than a second, and a summary at the end."""
+    import gc
+
     from clausewise.outputs import FORMATS, format_for, rows_file
     from clausewise.stream import LazyProgress, RowWriter, schedule_system, stream_schedule
 
+    # the loaded beams live to the end of the command: kept out of the cycle collector's
+    # rescans (a third of the computing time of a 100 000-beam file)
+    gc.freeze()
     progress = LazyProgress(sys.stderr.isatty())
     try:
         if out is None:

@@ -2,10 +2,8 @@
 
 from __future__ import annotations
 
-import gc
 import re
 from collections.abc import Iterable, Iterator
-from contextlib import contextmanager
 from dataclasses import dataclass
 from pathlib import Path
 from typing import Any
@@ -23,6 +21,7 @@ from clausewise.beamfile.errors import (
 from clausewise.beamfile.models import BeamModel, HeaderModel
 from clausewise.beamfile.reader import _SYSTEMS, _BeamReader
 from clausewise.provisions import Beam, UnitSystem
+from clausewise.provisions.batch import cycle_collector_paused
 
 
 @dataclass(frozen=True)
@@ -206,19 +205,6 @@ def _beyond_the_shape(raw: dict[str, Any], exc: ValidationError,
     return [p for p in reader.problems if p[0].split(".")[0].split("[")[0] not in refused]
 
 
-@contextmanager
-def _collector_paused() -> Iterator[None]:
-    """Loading makes millions of small objects and no reference cycles; left on, the cycle
-    collector rescans them again and again (it halves the time of a 100 000-beam file)."""
-    enabled = gc.isenabled()
-    gc.disable()
-    try:
-        yield
-    finally:
-        if enabled:
-            gc.enable()
-
-
 _BEAM_HEADER = r"\[\[[ \t]*beam[ \t]*\]\][ \t]*(?:#[^\n]*)?$"  # a line [[beam]]
 _BEAM_TABLE = re.compile(_BEAM_HEADER, re.MULTILINE)
 # the same line after a line break: a literal start, which the regex engine finds several
@@ -266,7 +252,7 @@ def parse_schedule(text: str, source: str = "<text>", *, design: bool = False) -
     With ``design``, beams may leave out their tension bars (design chooses them). A large
     file is parsed a chunk of beams at a time, with the same result as parsed whole."""
     base = Path(source).parent
-    with _collector_paused():
+    with cycle_collector_paused():
         pieces = _beam_chunks(text, source)
         if pieces is not None:
             head, chunks = pieces
