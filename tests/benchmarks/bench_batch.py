@@ -18,6 +18,7 @@ import argparse
 import subprocess
 import sys
 import time
+from collections import Counter
 from dataclasses import replace
 
 import numpy as np
@@ -103,8 +104,7 @@ def main() -> None:
         sample = beams[:: max(1, len(beams) // args.audited)][: args.audited]
         audited, _ = cpu(lambda s=sample: [assess(b, e) for b in s for e in EDITIONS])
         reference = closed_form(beams)
-        statuses = {e: dict(zip(*np.unique(t.status.astype(str), return_counts=True),
-                                strict=True)) for e, t in tables.items()}
+        statuses = {e: dict(Counter(map(str, t.status))) for e, t in tables.items()}
         rows.append((name, len(beams), audited / (len(sample) * len(EDITIONS)) * 1e6,
                      seconds / pairs * 1e6, reference / len(beams) * 1e6, statuses))
     print(f"{'schedule':16s} {'beams':>7s} {'assess µs':>10s} {'assess_many µs':>15s} "
