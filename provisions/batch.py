@@ -35,6 +35,7 @@ CHUNK = 20_000
 processor's cache between the many passes of the rules and the solver; 50 000 measured
 about 15 % slower per beam, 2 000 slower again from the fixed cost of each call."""
 
+
 @contextmanager
 def cycle_collector_paused() -> Iterator[None]:
     """Python's cycle collector paused for a while. Reading and assessing many beams make
