@@ -560,8 +560,8 @@ def _run_batch(schedule: Schedule, editions: Sequence[Edition], form: str | None
     from clausewise.outputs import FORMATS, format_for, rows_file
     from clausewise.stream import LazyProgress, RowWriter, schedule_system, stream_schedule
 
-    # the loaded beams live to the end of the command: kept out of the cycle collector's
-    # rescans (a third of the computing time of a 100 000-beam file)
+    # the loaded beams live to the end of the run: kept out of the cycle collector's
+    # rescans (a third of the computing time of a 100 000-beam file), then given back
     gc.freeze()
     progress = LazyProgress(sys.stderr.isatty())
     try:
@@ -575,6 +575,7 @@ def _run_batch(schedule: Schedule, editions: Sequence[Edition], form: str | None
                                           progress)
     finally:
         progress.close()
+        gc.unfreeze()
     from clausewise.report import batch_summary
 
     _emit_report(batch_summary(schedule, summary, out, situation))
