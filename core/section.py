@@ -202,19 +202,20 @@ class SectionArrays:
                      labels: tuple[str, ...], areas: Sequence[ArrayLike],
                      depths: Sequence[ArrayLike], steel: Sequence[SteelLaw]) -> SectionArrays:
         """Build from per-strip and per-layer columns (floats or arrays of shape (N,))."""
-        columns = [np.asarray(v, dtype=float) for v in (*thicknesses, *widths, *areas, *depths)]
-        n = max([c.size for c in columns] + [law_size(law) for law in {id(law): law for law
-                                                                        in steel}.values()])
-        t = np.column_stack([np.broadcast_to(np.asarray(v, float), n) for v in thicknesses])
-        edges = np.concatenate([np.zeros((n, 1)), np.cumsum(t, axis=1)], axis=1)
-        return cls(
-            edges=edges,
-            widths=np.column_stack([np.broadcast_to(np.asarray(v, float), n) for v in widths]),
-            areas=np.column_stack([np.broadcast_to(np.asarray(v, float), n) for v in areas]),
-            depths=np.column_stack([np.broadcast_to(np.asarray(v, float), n) for v in depths]),
-            steel=tuple(steel),
-            labels=labels,
-        )
+        n = max([np.size(v) for v in (*thicknesses, *widths, *areas, *depths)]
+                + [law_size(law) for law in {id(law): law for law in steel}.values()])
+
+        def table(values: Sequence[ArrayLike]) -> Array:
+            """Columns from floats or arrays of shape (N,) (assignment broadcasts)."""
+            out = np.empty((n, len(values)))
+            for j, v in enumerate(values):
+                out[:, j] = v
+            return out
+
+        edges = np.zeros((n, len(thicknesses) + 1))
+        np.cumsum(table(thicknesses), axis=1, out=edges[:, 1:])
+        return cls(edges=edges, widths=table(widths), areas=table(areas), depths=table(depths),
+                   steel=tuple(steel), labels=labels)
 
     @classmethod
     def stack(cls, sections: Sequence[Section]) -> SectionArrays:

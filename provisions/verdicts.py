@@ -52,8 +52,9 @@ def governing(checks: Sequence[Check], size: int | None = None) -> tuple[Any, An
         utilisations = [c.utilisation for c in checks]
         worst = max(range(len(checks)), key=utilisations.__getitem__)
         return worst, utilisations[worst]
-    table = np.array([np.broadcast_to(np.asarray(c.utilisation, float), (size,))
-                      for c in checks])
+    table = np.empty((len(checks), size))
+    for i, c in enumerate(checks):
+        table[i] = c.utilisation  # one value for all beams, or one per beam
     worst_rows = np.argmax(table, axis=0)
     return worst_rows, table[worst_rows, np.arange(size)]
 

@@ -100,11 +100,11 @@ class Envelope:
             object.__setattr__(self, "governing", index)
             object.__setattr__(self, "value", float(values[index]))
             return
-        stack = np.array(np.broadcast_arrays(*[np.asarray(c.value, float)
-                                               for c in self.candidates]))
-        pick = np.argmin if self.bound is Bound.SMALLEST else np.argmax
-        index = pick(stack, axis=0)
-        value = np.take_along_axis(stack, index[None, ...], axis=0)[0]
+        stack = np.empty((len(values), *np.broadcast_shapes(*map(np.shape, values))))
+        for i, v in enumerate(values):
+            stack[i] = v  # one value for all beams, or one per beam
+        index = (np.argmin if self.bound is Bound.SMALLEST else np.argmax)(stack, axis=0)
+        value = (np.min if self.bound is Bound.SMALLEST else np.max)(stack, axis=0)
         object.__setattr__(self, "governing", index if index.ndim else int(index))
         object.__setattr__(self, "value", value if value.ndim else float(value))
 
