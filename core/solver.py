@@ -332,10 +332,9 @@ def solve_arrays(sec: SectionArrays, concrete: ConcreteLaw, *, rtol: float = 1e-
     c_eval = np.where(np.isfinite(c), c, sec.depths.max(axis=1))
     f = _forces(sec, concrete, c_eval)
 
-    strain_limit = np.column_stack([np.broadcast_to(np.asarray(law.strain_limit, float),
-                                                    sec.size) for law in sec.steel])
-    yield_strain = np.column_stack([np.broadcast_to(np.asarray(law.yield_strain, float),
-                                                    sec.size) for law in sec.steel])
+    strain_limit, yield_strain = np.empty(sec.areas.shape), np.empty(sec.areas.shape)
+    for j, law in enumerate(sec.steel):  # a float or one value per section (assignment broadcasts)
+        strain_limit[:, j], yield_strain[:, j] = law.strain_limit, law.yield_strain
     within = np.abs(f.strain) <= strain_limit
     status = np.where((status == OK) & ~np.all(within, axis=1), STRAIN_LIMIT, status)
 

@@ -269,7 +269,7 @@ def _group_table(edition: Edition, batch: Beam, ids: Sequence[str],
     scope_checks = edition.applicability(batch, params, context)
     in_scope = np.ones(n, dtype=bool)
     for c in scope_checks:
-        in_scope &= np.asarray(np.broadcast_to(c.passed, (n,)), dtype=bool)
+        in_scope &= np.asarray(c.passed, dtype=bool)  # one verdict for all, or one each
     rows = np.flatnonzero(in_scope)
     table = None
     if rows.size < n:
@@ -310,7 +310,9 @@ def _group_table(edition: Edition, batch: Beam, ids: Sequence[str],
 
 def _labels(envelope: Any, n: int) -> NDArray[np.str_]:
     labels = np.array([c.label for c in envelope.candidates], dtype=object)
-    return labels[np.asarray(np.broadcast_to(envelope.governing, (n,)), dtype=int)]
+    governing = np.empty(n, dtype=int)
+    governing[:] = envelope.governing  # one candidate for all beams, or one per beam
+    return labels[governing]
 
 
 def _single_table(edition: Edition, beam: Beam, form: str | None,

@@ -241,7 +241,9 @@ class _Group:
 
 
 def _array(value: Any, n: int) -> NDArray[np.float64]:
-    return np.array(np.broadcast_to(np.asarray(value, float), (n,)), dtype=float)
+    column = np.empty(n)
+    column[:] = value  # one value for all, or one per row
+    return column
 
 
 def _steel_depth(group: _Group, diameter: float) -> tuple[NDArray[np.float64], Any]:

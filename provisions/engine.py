@@ -8,6 +8,7 @@ returns an audited, immutable :class:`Assessment`.
 from __future__ import annotations
 
 from dataclasses import dataclass, replace
+from functools import reduce
 from typing import Any
 
 import numpy as np
@@ -222,7 +223,7 @@ def _all_passed(checks: tuple[Check, ...]) -> Any:
         return True
     if all(type(c.passed) is bool for c in checks):  # one beam
         return all(c.passed for c in checks)
-    passed = np.logical_and.reduce(np.broadcast_arrays(*[np.asarray(c.passed) for c in checks]))
+    passed = reduce(np.logical_and, (c.passed for c in checks))
     return passed if np.ndim(passed) else bool(passed)
 
 

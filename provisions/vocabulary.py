@@ -10,7 +10,7 @@ import math
 from collections.abc import Sequence
 from dataclasses import dataclass, field
 from enum import StrEnum
-from functools import cached_property
+from functools import cached_property, reduce
 from typing import Any
 
 import numpy as np
@@ -240,11 +240,11 @@ def interpolate(x: ArrayLike, xs: Sequence[float], ys: Sequence[float]) -> Value
 
 
 def smallest_of(*values: ArrayLike) -> Value:
-    return _out(np.minimum.reduce(np.broadcast_arrays(*[np.asarray(v, float) for v in values])))
+    return _out(np.asarray(reduce(np.minimum, values), float))
 
 
 def largest_of(*values: ArrayLike) -> Value:
-    return _out(np.maximum.reduce(np.broadcast_arrays(*[np.asarray(v, float) for v in values])))
+    return _out(np.asarray(reduce(np.maximum, values), float))
 
 
 def choose(condition: ArrayLike, if_true: ArrayLike, if_false: ArrayLike) -> Value:

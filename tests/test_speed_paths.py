@@ -247,3 +247,17 @@ def test_utilisation_of_an_array_equals_that_of_each_beam(sense):
     for (value, limit), batch in zip(pairs, check.utilisation, strict=True):
         one = Check("x", value, limit, sense, Clause("test", "1")).utilisation
         assert one == batch or (math.isnan(one) and math.isnan(batch)), (value, limit)
+
+
+def test_the_synthetic_schedule_runs_in_groups_without_falling_back(monkeypatch):
+    """A group that raises is retried beam by beam (right, but slow): every group of the
+    mixed schedule must go through whole under every built-in edition."""
+    import clausewise.provisions.batch as batch
+
+    def fallback(*args, **kwargs):
+        raise AssertionError("a group fell back to single beams")
+
+    monkeypatch.setattr(batch, "_single_table", fallback)
+    tables = assess_many(synthetic_beams(600, seed=13), BUILT_IN)
+    assert len(tables) == len(BUILT_IN)
+    assert all(t.size == 600 for t in tables.values())
