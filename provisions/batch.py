@@ -171,7 +171,7 @@ class BatchTable:
             return column
 
         nan = np.full(n, np.nan)
-        return cls(edition_id, beam_ids if isinstance(beam_ids, RowNames) else list(beam_ids),
+        return cls(edition_id, _names(beam_ids),
                    text(), text(ERROR), nan.copy(), nan.copy(),
                    nan.copy(), nan.copy(), nan.copy(), nan.copy(), nan.copy(), text(),
                    text(), text(), text(), nan.copy(), {}, {}, text())
@@ -212,6 +212,11 @@ class BatchTable:
                                     if v[i]},
             "message": str(self.message[i]),
         }
+
+
+def _names(ids: Sequence[str]) -> Sequence[str]:
+    """The beams' ids kept by a table: lazy row names as they are, else a list."""
+    return ids if isinstance(ids, RowNames) else list(ids)
 
 
 def _num(value: Any) -> float | None:
@@ -280,28 +285,27 @@ def _group_table(edition: Edition, batch: Beam, ids: Sequence[str],
     ev = evaluate(sub, edition, context, tuple(scope_checks) if rows.size == n else None)
     m = rows.size
     resp = ev.response
-    part = BatchTable.empty(edition.id, [ids[i] for i in rows.tolist()] if table else ids)
-    part.form[:] = context.form
-    part.nominal_moment[:] = resp.nominal_moment
-    part.design_resistance[:] = _floats(ev.design_resistance.value, m)  # type: ignore[union-attr]
-    part.demand[:] = _floats(ev.demand.value, m) if ev.demand is not None else np.nan
-    part.resistance_factor[:] = _floats(ev.resistance.factor.value, m)  # type: ignore[union-attr]
-    part.neutral_axis[:] = resp.c
-    part.net_tensile_strain[:] = resp.net_tensile_strain
-    if ev.effective_width is not None:
-        part.effective_width[:] = _floats(ev.effective_width.value, m)
-        part.governing_candidate[ev.effective_width.name] = _labels(ev.effective_width, m)
-    if ev.demand is not None:
-        part.governing_candidate[ev.demand.name] = _labels(ev.demand, m)
-    part.regime[:] = _texts(ev.resistance.regime.name, m)  # type: ignore[union-attr]
-    part.block_case[:] = resp.block_cases
-    for c in scope_checks:
-        part.utilisation[c.name] = _floats(c.utilisation, n)[rows]
-    _record_checks(part, ev.checks)
     equilibrium = resp.equilibrium
-    part.status[:] = status(in_scope=True, equilibrium=equilibrium, checks=ev.checks,
-                            has_demand=ev.demand is not None)
-    part.message[:] = choose(equilibrium, "", "no equilibrium within the laws' limits")
+    width, demand = ev.effective_width, ev.demand
+    part = BatchTable(  # the computed columns as they are: no empty table filled in
+        edition.id, [ids[i] for i in rows.tolist()] if table else _names(ids),
+        form=_texts(context.form, m),
+        status=_texts(status(in_scope=True, equilibrium=equilibrium, checks=ev.checks,
+                             has_demand=demand is not None), m),
+        nominal_moment=resp.nominal_moment,
+        design_resistance=_floats(ev.design_resistance.value, m),  # type: ignore[union-attr]
+        demand=_floats(np.nan if demand is None else demand.value, m),
+        resistance_factor=_floats(ev.resistance.factor.value, m),  # type: ignore[union-attr]
+        neutral_axis=resp.c, net_tensile_strain=resp.net_tensile_strain,
+        effective_width=_floats(np.nan if width is None else width.value, m),
+        regime=_texts(ev.resistance.regime.name, m),  # type: ignore[union-attr]
+        block_case=resp.block_cases,
+        governing_check=_texts("", m), governing_clause=_texts("", m),
+        governing_utilisation=_floats(np.nan, m),
+        utilisation={c.name: _floats(c.utilisation, n)[rows] for c in scope_checks},
+        governing_candidate={e.name: _labels(e, m) for e in (width, demand) if e is not None},
+        message=_texts(choose(equilibrium, "", "no equilibrium within the laws' limits"), m))
+    _record_checks(part, ev.checks)
     if table is None:
         return part
     table.fill(rows, part)
