@@ -18,6 +18,7 @@ One implementation serves a single section and a batch: ``solve`` wraps
 from __future__ import annotations
 
 from dataclasses import dataclass
+from typing import NamedTuple
 
 import numpy as np
 from numpy.typing import NDArray
@@ -50,8 +51,7 @@ STATUS_TEXT = {
 }
 
 
-@dataclass(frozen=True)
-class _Forces:
+class _Forces(NamedTuple):  # made at every trial depth: a tuple is quick to make
     net: Array
     scale: Array
     strain: Array
