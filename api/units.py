@@ -14,7 +14,7 @@ from __future__ import annotations
 import math
 import re
 from dataclasses import dataclass
-from functools import lru_cache
+from functools import cache, lru_cache
 from typing import Any
 
 from clausewise.provisions import ClausewiseError
@@ -163,7 +163,7 @@ def read_quantity(value: Any, kind: Kind, system: UnitSystem = UnitSystem.SI,
     """
     us = system is _US  # a bool keys the caches: hashing an enum member is slow
     if type(value) is float:  # the usual plain number of a file, first: the hot path
-        factor, suffix = _PLAIN_UNITS.get((kind, us)) or _default_unit(kind, us)
+        factor, suffix = _default_unit(kind, us)
         internal = value * factor
         if sign == "positive" and 0.0 < internal < _INF:
             return internal, f"{value:.12g}{suffix}"
@@ -183,19 +183,12 @@ def read_quantity(value: Any, kind: Kind, system: UnitSystem = UnitSystem.SI,
 
 _US = UnitSystem.US  # looking a member up on its enum class is slow in a hot loop
 _INF = math.inf
-# (kind, US units?) -> the default unit of a plain number, filled by _default_unit
-_PLAIN_UNITS: dict[tuple[Kind, bool], tuple[float, str]] = {}
-
-
+@cache
 def _default_unit(kind: Kind, us: bool) -> tuple[float, str]:
     """Factor to the internal unit of the unit a plain number takes (in US units when
     ``us``), and its label as shown after the number (" mm"; "" for a plain number)."""
-    found = _PLAIN_UNITS.get((kind, us))
-    if found is None:
-        spelling, label = kind.defaults[us]
-        factor = unit_info(spelling).factor if spelling else 1.0
-        found = _PLAIN_UNITS[kind, us] = (factor, f" {label}".rstrip())
-    return found
+    spelling, label = kind.defaults[us]
+    return (unit_info(spelling).factor if spelling else 1.0), f" {label}".rstrip()
 
 
 @lru_cache(maxsize=8192)

@@ -24,7 +24,7 @@ import numpy as np
 from numpy.typing import NDArray
 
 from clausewise.core.errors import ClausewiseError
-from clausewise.provisions.beam import NAMES, Beam, Context, field_roles, kind_of
+from clausewise.provisions.beam import NAMES, Beam, Context, field_roles, kind_of, number_fields
 from clausewise.provisions.engine import evaluate, resolve_form
 from clausewise.provisions.registry import Edition, Registry, default_registry
 from clausewise.provisions.verdicts import ERROR, governing, status
@@ -53,27 +53,8 @@ def cycle_collector_paused() -> Iterator[None]:
 
 # --- grouping and stacking -------------------------------------------------------------
 
-def _number_paths(template: Any, prefix: str = "obj") -> list[str]:
-    """The expression of every number in ``template`` (its parts and layers too), in the
-    order of the dataclass fields: beams of one kind have numbers at the same places."""
-    paths: list[str] = []
-    cls: type = type(template)
-    for name, role in field_roles(cls):
-        value = getattr(template, name)
-        if value is None or role == "word":
-            continue
-        if role == "part":
-            paths += _number_paths(value, f"{prefix}.{name}")
-        elif role == "group":
-            for j, part in enumerate(value):
-                paths += _number_paths(part, f"{prefix}.{name}[{j}]")
-        else:
-            paths.append(f"{prefix}.{name}")
-    return paths
-
-
 def _rebuilt(template: Any, columns: Iterator[Any]) -> Any:
-    """``template`` with its numbers replaced, in :func:`_number_paths` order, by the
+    """``template`` with its numbers replaced, in :func:`number_fields` order, by the
     next of ``columns``."""
     changes: dict[str, Any] = {}
     cls: type = type(template)
@@ -100,7 +81,7 @@ def _numbers_reader(template: Any) -> Callable[[Any], tuple[Any, ...]]:
     reader = _READERS.get(key)
     if reader is None:
         reader = eval(  # noqa: S307 (our own field names)
-            f"lambda obj: ({''.join(p + ', ' for p in _number_paths(template))})")
+            f"lambda obj: ({''.join(p + ', ' for p, _ in number_fields(template))})")
         _READERS[key] = reader
     return reader
 

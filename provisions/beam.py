@@ -7,7 +7,7 @@ one beam or numpy arrays of shape (N,) for a batch of beams of the same kind
 
 from __future__ import annotations
 
-from collections.abc import Callable
+from collections.abc import Callable, Iterator
 from dataclasses import dataclass, field, fields, is_dataclass
 from enum import StrEnum
 from functools import cache, cached_property
@@ -175,7 +175,7 @@ class Beam:
     @cached_property
     def size(self) -> int:
         """1 for a single beam, N for a batch (the length of any field given as an array)."""
-        sizes = {np.shape(v)[0] for v in _numbers(self) if np.ndim(v)}
+        sizes = {np.shape(v)[0] for _, v in number_fields(self) if np.ndim(v)}
         if len(sizes) > 1:
             raise ValueError(f"beam {self.id!r}: array fields of different lengths "
                              f"{sorted(sizes)}")
@@ -183,7 +183,7 @@ class Beam:
 
     @cached_property
     def is_batch(self) -> bool:
-        return any(np.ndim(v) for v in _numbers(self))
+        return any(np.ndim(v) for _, v in number_fields(self))
 
     @property
     def tension_area(self) -> Value:
@@ -235,23 +235,22 @@ def field_roles(cls: type) -> tuple[tuple[str, str], ...]:
     return tuple(roles)
 
 
-def _numbers(obj: Any) -> list[Any]:
-    """Every numeric field of a beam, its layers, layout and actions (found from the
-    dataclass fields, so a new field is never forgotten)."""
-    found: list[Any] = []
+def number_fields(obj: Any, prefix: str = "obj") -> Iterator[tuple[str, Any]]:
+    """Every numeric field of a beam, its layers, layout and actions, as (the expression
+    that reads it from ``prefix``, its value): found from the dataclass fields, so a new
+    field is never forgotten, and in the same order for every beam of one kind."""
     cls: type = type(obj)
     for name, role in field_roles(cls):
         value = getattr(obj, name)
         if value is None or role == "word":
             continue
         if role == "part":
-            found += _numbers(value)
+            yield from number_fields(value, f"{prefix}.{name}")
         elif role == "group":
-            for part in value:
-                found += _numbers(part)
+            for j, part in enumerate(value):
+                yield from number_fields(part, f"{prefix}.{name}[{j}]")
         else:
-            found.append(value)
-    return found
+            yield f"{prefix}.{name}", value
 
 
 _KIND_TERMS = {"word": "obj.{0}", "optional": "obj.{0} is None",

@@ -46,7 +46,14 @@ from numpy.typing import NDArray
 
 from clausewise.core.errors import ClausewiseError
 from clausewise.provisions.bars import CATALOGUES, BarSize, restrict
-from clausewise.provisions.batch import BatchTable, assess_columns, kind_of, stack_beams, take_beam
+from clausewise.provisions.batch import (
+    BatchTable,
+    _floats,
+    assess_columns,
+    kind_of,
+    stack_beams,
+    take_beam,
+)
 from clausewise.provisions.beam import Beam, Context, Layer, UnitSystem
 from clausewise.provisions.detailing import bars_that_fit, cover, stirrup_diameter
 from clausewise.provisions.engine import (
@@ -240,10 +247,6 @@ class _Group:
         return self.limits_by_size[diameter]
 
 
-def _array(value: Any, n: int) -> NDArray[np.float64]:
-    column = np.empty(n)
-    column[:] = value  # one value for all, or one per row
-    return column
 
 
 def _steel_depth(group: _Group, diameter: float) -> tuple[NDArray[np.float64], Any]:
@@ -254,20 +257,20 @@ def _steel_depth(group: _Group, diameter: float) -> tuple[NDArray[np.float64], A
         raise DesignError(f"edition {group.edition.id!r} gives no detailing limits, so the "
                           "depth of the bars cannot be placed; give the tension layers")
     n = group.size
-    edge = _array(cover(group.batch, limits), n) + _array(stirrup_diameter(group.batch), n)
-    return _array(group.batch.depth, n) - edge - diameter / 2, limits
+    edge = _floats(cover(group.batch, limits), n) + _floats(stirrup_diameter(group.batch), n)
+    return _floats(group.batch.depth, n) - edge - diameter / 2, limits
 
 
 def _most_steel(b: Beam, n: int) -> NDArray[np.float64]:
     """More tension steel than the concrete could ever balance: fc × gross area / fy
     (the flange taken as given, else as wide as 24 hf + bw); the top of the scan."""
-    bw, h = _array(b.web_width, n), _array(b.depth, n)
+    bw, h = _floats(b.web_width, n), _floats(b.depth, n)
     area = bw * h
     if b.flanged:
-        hf = _array(b.flange_thickness, n)
-        bf = _array(b.flange_width, n) if b.flange_width is not None else bw + 24 * hf
+        hf = _floats(b.flange_thickness, n)
+        bf = _floats(b.flange_width, n) if b.flange_width is not None else bw + 24 * hf
         area = area + (bf - bw) * hf
-    return _array(b.concrete_strength, n) * area / _array(b.yield_strength, n)
+    return _floats(b.concrete_strength, n) * area / _floats(b.yield_strength, n)
 
 
 def _passed(table: BatchTable) -> NDArray[np.bool_]:
@@ -330,8 +333,8 @@ def _least_area(group: _Group, depth: NDArray[np.float64], top: NDArray[np.float
 
 
 def _take(layers: tuple[Layer, ...], rows: NDArray[np.int_]) -> tuple[Layer, ...]:
-    return tuple(Layer(_array(layer.area, int(rows.max()) + 1)[rows],
-                       _array(layer.depth, int(rows.max()) + 1)[rows]) for layer in layers)
+    return tuple(Layer(_floats(layer.area, int(rows.max()) + 1)[rows],
+                       _floats(layer.depth, int(rows.max()) + 1)[rows]) for layer in layers)
 
 
 def _scope_message(table: BatchTable, index: int) -> str:
@@ -389,8 +392,8 @@ def _without_tension_only(group: _Group, missing: NDArray[np.int_], depth: NDArr
     # compression steel at the cover depth: the least total steel on a grid of pairs, then
     # the tension area refined at that compression area
     _, limits = _steel_depth(group, trial)
-    edge = _array(cover(group.batch, limits), group.size) + \
-        _array(stirrup_diameter(group.batch), group.size)
+    edge = _floats(cover(group.batch, limits), group.size) + \
+        _floats(stirrup_diameter(group.batch), group.size)
     shares = np.geomspace(0.01, 0.5, COMPRESSION_GRID)
     k = scoped.size
     tension_shares = np.geomspace(1e-2, 1.5, GRID)
@@ -431,12 +434,12 @@ def _least_growth(group: _Group, beams: NDArray[np.int_], trial: float,
                   dimension: str) -> list[float | None]:
     """The least overall depth (or web width) in 10 mm steps at which some tension-only
     area passes, up to three times the given size; None beyond."""
-    given = _array(getattr(group.batch, dimension), group.size)[beams]
+    given = _floats(getattr(group.batch, dimension), group.size)[beams]
     steps = np.arange(1, int(math.ceil((GROW_LIMIT - 1) * given.max() / GROW_STEP)) + 1)
     sizes = given[:, None] + GROW_STEP * steps[None, :]
     valid = sizes <= GROW_LIMIT * given[:, None]
     if dimension == "web_width" and group.batch.flanged and group.batch.flange_width is not None:
-        widest = _array(group.batch.flange_width, group.size)[beams][:, None]
+        widest = _floats(group.batch.flange_width, group.size)[beams][:, None]
         valid &= sizes <= widest  # a web no wider than the flange given outright
         sizes = np.minimum(sizes, widest)
     shares = np.geomspace(1e-3, 1.0, 24)
@@ -446,7 +449,7 @@ def _least_growth(group: _Group, beams: NDArray[np.int_], trial: float,
     depth, _ = _steel_depth(group, trial)
     steel = depth[rows]
     if dimension == "depth":  # the steel keeps its distance from the tension face
-        steel = steel + grown - _array(group.batch.depth, group.size)[rows]
+        steel = steel + grown - _floats(group.batch.depth, group.size)[rows]
     sub = replace(take_beam(group.batch, rows), **{dimension: grown})  # type: ignore[arg-type]
     areas = _most_steel(sub, rows.size) * np.tile(shares, k * m)
     table = assess_columns(replace(sub, tension=(Layer(areas, steel),), compression=()),
@@ -474,11 +477,11 @@ def _arrange(group: _Group, designs: dict[int, Design],
     options = {i: _compression_bars(group, i, designs[i], sizes_by_beam[i]) for i in todo}
     for size in sorted({s for i in todo for s in sizes_by_beam[i]}, key=lambda s: s.diameter):
         depth, limits = _steel_depth(group, size.diameter)
-        s_min = _array(limits.clear_in_layer.value, group.size)
-        s_v = _array(limits.clear_between_layers.value, group.size)
-        edge = _array(cover(group.batch, limits), group.size)
-        stirrup = _array(stirrup_diameter(group.batch), group.size)
-        fit = _array(bars_that_fit(group.batch.web_width, size.diameter, s_min, edge, stirrup),
+        s_min = _floats(limits.clear_in_layer.value, group.size)
+        s_v = _floats(limits.clear_between_layers.value, group.size)
+        edge = _floats(cover(group.batch, limits), group.size)
+        stirrup = _floats(stirrup_diameter(group.batch), group.size)
+        fit = _floats(bars_that_fit(group.batch.web_width, size.diameter, s_min, edge, stirrup),
                      group.size)
         for i in todo:
             if size not in sizes_by_beam[i] or fit[i] < 2:
@@ -530,11 +533,11 @@ def _compression_bars(group: _Group, i: int, design: Design, sizes: tuple[BarSiz
     if design.compression_area <= 0:
         return [None]
     options: list[tuple[float, BarSize, int, float]] = []
-    stirrup = float(_array(stirrup_diameter(group.batch), group.size)[i])
+    stirrup = float(_floats(stirrup_diameter(group.batch), group.size)[i])
     for size in sizes:
         limits = group.limits(size.diameter)
-        c = float(_array(cover(group.batch, limits), group.size)[i])
-        s_min = float(_array(limits.clear_in_layer.value, group.size)[i])
+        c = float(_floats(cover(group.batch, limits), group.size)[i])
+        s_min = float(_floats(limits.clear_in_layer.value, group.size)[i])
         fit = int(bars_that_fit(group.beams[i].web_width, size.diameter, s_min, c, stirrup))
         least = max(2, math.ceil(design.compression_area / size.area))
         options += [(n * size.area, size, n, c + stirrup + size.diameter / 2)

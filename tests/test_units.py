@@ -221,7 +221,7 @@ def test_pint_is_asked_once_per_distinct_unit_spelling(monkeypatch: pytest.Monke
     monkeypatch.setattr(units, "_pint_unit", counting)
     units.unit_info.cache_clear()
     units._read_text.cache_clear()
-    units._PLAIN_UNITS.clear()
+    units._default_unit.cache_clear()
     spellings = [("mm", LENGTH), ("in", LENGTH), ("MPa", STRESS), ("kip-ft", MOMENT),
                  ("mm2", AREA)]
     total = 0.0

@@ -14,10 +14,14 @@ import pytest
 
 from clausewise.provisions import Actions, Check, Clause, FloorLayout, Layer, Sense, Status
 from clausewise.provisions.batch import kind_of, stack_beams
-from clausewise.provisions.beam import _numbers
+from clausewise.provisions.beam import number_fields
 from clausewise.provisions.verdicts import governing, status
 
 HERE = Clause("T.1", "a check for the test", "test")
+
+
+def _numbers(beam):
+    return [value for _, value in number_fields(beam)]
 
 
 def checks(values, limits):

@@ -3,7 +3,7 @@ value rather than the first."""
 
 from __future__ import annotations
 
-from functools import lru_cache
+from functools import cache, lru_cache
 from typing import Any
 
 from clausewise.beamfile.errors import _text
@@ -66,14 +66,11 @@ def _part(field: str, name: str) -> str:
     return f"{field}.{name}"
 
 
-_BOUNDS: dict[str, Plausible | None] = {}
-
-
+@cache
 def _bounds(key: str) -> Plausible | None:
     """The plausible range of a PLAUSIBLE key or of a field named by its last part
-    ("floor.span"), kept in _BOUNDS: a file names the same few fields again and again."""
-    bounds = _BOUNDS[key] = PLAUSIBLE.get(key.rpartition(".")[2])
-    return bounds
+    ("floor.span"), kept: a file names the same few fields again and again."""
+    return PLAUSIBLE.get(key.rpartition(".")[2])
 
 
 class _BeamReader:
@@ -110,7 +107,7 @@ class _BeamReader:
         if label:
             self.shown[label] = reading[1]
         key = plausible or field
-        bounds = _BOUNDS[key] if key in _BOUNDS else _bounds(key)
+        bounds = _bounds(key)
         if bounds is not None and not bounds.low <= reading[0] <= bounds.high:
             self.within(reading, field, bounds)
             return None
