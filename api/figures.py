@@ -216,7 +216,7 @@ def spread_labels(figure: Figure, passes: int = 60) -> None:
             return
 
 
-LABEL_POINTS_PER_CHARACTER = 0.62 * SMALL  # a generous average width of the label font
+LABEL_POINTS_PER_CHARACTER = 0.56 * SMALL  # the label font's average width, and a margin
 LABEL_OFFSET = 7  # points from the outermost bar to its label
 
 
