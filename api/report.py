@@ -18,6 +18,7 @@ from dataclasses import dataclass
 from typing import TYPE_CHECKING, Any
 
 from rich import box
+from rich.cells import cell_len
 from rich.console import Console, ConsoleOptions, Group, RenderableType, RenderResult
 from rich.rule import Rule
 from rich.table import Table
@@ -471,11 +472,39 @@ def _keys(editions: Sequence[str]) -> list[str]:
     return [chr(ord("A") + i) if i < 26 else f"E{i + 1}" for i in range(len(editions))]
 
 
-def _legend(outcomes: Sequence[Outcome], keys: dict[str, str], percent: bool = False) -> Text:
+class EntryLines:
+    """``label`` and its entries ("A aci318-11") joined by "; ", wrapped between entries
+    and never inside one, so that a key stays on the line of what it stands for; an entry
+    wider than the line is wrapped by rich as any text."""
+
+    def __init__(self, label: str, entries: Sequence[str], style: str = "dim") -> None:
+        self.label, self.entries, self.style = label, list(entries), style
+
+    def lines(self, width: int) -> list[str]:
+        lines: list[str] = []
+        line, fresh = self.label, True  # fresh: no entry on this line yet
+        last = len(self.entries) - 1
+        for k, entry in enumerate(self.entries):
+            piece = entry + (";" if k < last else "")
+            if fresh or cell_len(f"{line} {piece}") <= width:
+                line, fresh = f"{line} {piece}", False
+            else:
+                lines.append(line)
+                line = f"  {piece}"  # a hanging indent marks the continuation
+        lines.append(line)
+        return lines
+
+    def __rich_console__(self, console: Console, options: ConsoleOptions) -> RenderResult:
+        for line in self.lines(options.max_width):
+            yield Text(line, style=self.style)
+
+
+def _legend(outcomes: Sequence[Outcome], keys: dict[str, str], percent: bool = False
+            ) -> Group:
     """What the marks, codes and column keys of the comparison mean."""
-    text = Text(style="dim")
     statuses = dict.fromkeys(o.status for o in outcomes)
-    text.append("marks: " + ", ".join(f"{STATUS_MARK.get(s, '?')} {s}" for s in statuses))
+    parts: list[RenderableType] = [EntryLines(
+        "marks:", [f"{STATUS_MARK.get(s, '?')} {s}" for s in statuses])]
     codes: dict[str, str] = {}
     for o in outcomes:
         check, proper = _governing(o)
@@ -483,12 +512,13 @@ def _legend(outcomes: Sequence[Outcome], keys: dict[str, str], percent: bool = F
             codes.setdefault(check_code(check, proper),
                              check.name if proper else "a scope check (outside scope)")
     if codes:
-        text.append("\ngoverning check: " + "; ".join(f"{c} {n}" for c, n in codes.items()))
+        parts.append(EntryLines("governing check:", [f"{c} {n}" for c, n in codes.items()]))
     if keys:
-        text.append("\neditions: " + "; ".join(f"{k} {e}" for e, k in keys.items()))
-    text.append(f"\ncells: governing utilisation{' in per cent' if percent else ''}, "
-                "status mark, governing check; counts of beams at the foot")
-    return text
+        parts.append(EntryLines("editions:", [f"{k} {e}" for e, k in keys.items()]))
+    parts.append(Text(f"cells: governing utilisation{' in per cent' if percent else ''}, "
+                      "status mark, governing check; counts of beams at the foot",
+                      style="dim"))
+    return Group(*parts)
 
 
 def same_cylinder(outcomes: Sequence[Outcome]) -> str:

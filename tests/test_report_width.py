@@ -20,3 +20,24 @@ def test_piped_reports_take_the_asked_width(columns, widest, monkeypatch, capsys
     assert max(len(line) for line in lines) <= widest
     assert max(len(line) for line in lines) > widest - 10  # the width is used, not ignored
     assert any("B9" in line and "✗" in line for line in lines)  # the failing beam shown
+
+
+@pytest.mark.parametrize("columns", ["80", "120"])
+def test_the_legend_keeps_each_key_with_its_edition(columns, monkeypatch, capsys):
+    """Every installed edition compared: the key list wraps between entries, so a reader
+    finds "J xb-na:2024" on one line, never "J" at a line's end and its id below."""
+    monkeypatch.setenv("COLUMNS", columns)
+    main(["compare", str(DEMO)])
+    out = capsys.readouterr().out
+    lines = out.splitlines()
+    start = next(i for i, line in enumerate(lines) if line.startswith("editions: A "))
+    legend = [lines[start]]
+    legend += [line for line in lines[start + 1:] if line.startswith("  ")][:5]
+    entries = " ".join(line.strip() for line in legend).removeprefix("editions: ").split("; ")
+    ids = [entry.split(" ", 1) for entry in entries]
+    assert [key for key, _ in ids][:3] == ["A", "B", "C"]
+    assert all(len(pair) == 2 and pair[1] for pair in ids)  # a key never stands alone
+    for line in legend:
+        assert len(line) <= int(columns)
+        assert not line.rstrip().endswith((" A", " B", " C", " D", " E", " F", " G", " H",
+                                           " I", " J"))
