@@ -36,8 +36,10 @@ from clausewise.provisions.verdicts import CAUTION, ERROR, FAILURES
 
 if TYPE_CHECKING:
     from clausewise.beamfile import Schedule
+    from clausewise.beamfile.loading import BeamTables
     from clausewise.provisions.registry import Edition, Registry
     from clausewise.results import Outcome
+    from clausewise.stream import Summary
 
 PROGRAM = "clausewise"
 FORMATS = ("text", "html", "pdf", "json", "toml", "csv")
@@ -199,6 +201,11 @@ def build_parser() -> argparse.ArgumentParser:
     batch.add_argument("--out", type=Path, metavar="PATH",
                        help="the rows: .csv or .jsonl, written as NAME.partial.csv until the "
                             "run completes; without it only the summary is shown")
+    batch.add_argument("--workers", type=_process_count, metavar="N",
+                       help="processes to share a large file (more than 10 000 beams) "
+                            "among, each reading, checking and writing its own part "
+                            "(default: one per processor; 1: one process; on Linux, "
+                            "elsewhere always one)")
     batch.set_defaults(handler=batch_command)
 
     _design_parser(commands)
@@ -209,6 +216,18 @@ def build_parser() -> argparse.ArgumentParser:
     schema.add_argument("--out", type=Path, metavar="PATH", help="write to this file")
     schema.set_defaults(handler=schema_command)
     return parser
+
+
+def _process_count(text: str) -> int:
+    """--workers: a whole number of processes, 1 or more."""
+    try:
+        count = int(text)
+    except ValueError:
+        count = 0
+    if count < 1:
+        raise argparse.ArgumentTypeError(f"expected a whole number of processes, 1 or more "
+                                         f"(1: one process), got {text!r}")
+    return count
 
 
 # --- shared steps -----------------------------------------------------------------------------
@@ -292,19 +311,33 @@ def _require(registry: Registry, requirements: Sequence[str]) -> None:
                                f"{version} is installed")
 
 
-def _load(args: argparse.Namespace) -> tuple[Schedule, Registry, str | None, str]:
-    from clausewise.beamfile import load_schedule
+def _load(args: argparse.Namespace, text: str | None = None
+          ) -> tuple[Schedule, Registry, str | None, str]:
+    """The file (``text``: its text, already read) and what it and the command line choose."""
+    from clausewise.beamfile import load_schedule, parse_schedule
 
     _guard_inputs(args)
-    schedule = load_schedule(args.file)
+    schedule = load_schedule(args.file) if text is None else parse_schedule(text,
+                                                                            str(args.file))
     for warning in schedule.warnings:
-        print(f"{PROGRAM}: warning: {warning}", file=sys.stderr)
+        _warn(warning)
+    return schedule, *_settings(args, schedule)
+
+
+def _settings(args: argparse.Namespace, schedule: Schedule
+              ) -> tuple[Registry, str | None, str]:
+    """What the file's head and the command line choose before any beam is assessed: the
+    registry (annexes guarded, required editions checked), the form and the situation."""
     _guard_inputs(args, *schedule.project.annexes)
     registry = _registry([*args.annex, *schedule.project.annexes], _named(args, schedule))
     _require(registry, schedule.project.required)
     form = args.form or schedule.project.form or "auto"
     situation = args.situation or schedule.project.situation or "persistent"
-    return schedule, registry, None if form == "auto" else form, situation
+    return registry, None if form == "auto" else form, situation
+
+
+def _warn(warning: str) -> None:
+    print(f"{PROGRAM}: warning: {warning}", file=sys.stderr)
 
 
 def _editions(registry: Registry, ids: Sequence[str]) -> list[Edition]:
@@ -542,13 +575,48 @@ def _publish(args: argparse.Namespace, schedule: Schedule, outcomes: Sequence[Ou
 
 def batch_command(args: argparse.Namespace) -> int:
     from clausewise.outputs import format_for
+    from clausewise.shards import processes
 
     _guard_inputs(args)
     format_for(args.out, None, holds=("rows",))
-    schedule, registry, form, situation = _load(args)
+    text = None
+    count = processes(args.workers)
+    if count > 1:
+        from clausewise.beamfile.loading import beam_tables, read_text
+        from clausewise.shards import plan
+
+        text = read_text(args.file)
+        tables = beam_tables(text, str(args.file))
+        parts = None if tables is None else plan(len(tables.starts), count)
+        if tables is not None and parts is not None:
+            return _sharded_batch(args, tables, parts)
+    return _one_process_batch(args, text)
+
+
+def _one_process_batch(args: argparse.Namespace, text: str | None) -> int:
+    schedule, registry, form, situation = _load(args, text)
     editions = _editions(registry, args.edition or list(schedule.project.editions)
                          or registry.ids())
     return _run_batch(schedule, editions, form, situation, args.out)
+
+
+def _sharded_batch(args: argparse.Namespace, tables: BeamTables, parts: list[range]) -> int:
+    """The batch path over shards of a large file, one process each (clausewise.shards).
+    The file-level checks are made here, before any beam is read (again only when the run
+    is redone in one process); the editions and plugins are loaded before the workers
+    are forked, so they share them."""
+    from clausewise import shards
+
+    registry, form, situation = _settings(args, tables.schedule())
+    editions = _editions(registry, args.edition or list(tables.project.editions)
+                         or registry.ids())
+    done = shards.run(tables, parts, editions, form, situation, args.out, warn=_warn,
+                      progress=sys.stderr.isatty())
+    if done is None:
+        # the shards cannot stand for the file (an id in two of them, a table between the
+        # beams): the whole run again in one process, from the file's text
+        return _one_process_batch(args, tables.text)
+    return _finish_batch(done.schedule, done.summary, args.out, situation)
 
 
 def _run_batch(schedule: Schedule, editions: Sequence[Edition], form: str | None,
@@ -557,7 +625,7 @@ def _run_batch(schedule: Schedule, editions: Sequence[Edition], form: str | None
     on a terminal for runs longer than a second, and a summary at the end."""
     import gc
 
-    from clausewise.outputs import FORMATS, format_for, rows_file
+    from clausewise.outputs import rows_file, rows_kind
     from clausewise.stream import LazyProgress, RowWriter, schedule_system, stream_schedule
 
     # the loaded beams live to the end of the run: kept out of the cycle collector's
@@ -568,14 +636,20 @@ def _run_batch(schedule: Schedule, editions: Sequence[Edition], form: str | None
         if out is None:
             summary = stream_schedule(schedule, editions, form, situation, None, progress)
         else:
-            kind = FORMATS[format_for(out, None, holds=("rows",))].asked_as
             with rows_file(out) as handle:
                 summary = stream_schedule(schedule, editions, form, situation,
-                                          RowWriter(handle, kind, schedule_system(schedule)),
+                                          RowWriter(handle, rows_kind(out),
+                                                    schedule_system(schedule)),
                                           progress)
     finally:
         progress.close()
         gc.unfreeze()
+    return _finish_batch(schedule, summary, out, situation)
+
+
+def _finish_batch(schedule: Schedule, summary: Summary, out: Path | None,
+                  situation: str) -> int:
+    """The summary of a batch run, and its exit status."""
     from clausewise.report import batch_summary
 
     _emit_report(batch_summary(schedule, summary, out, situation))

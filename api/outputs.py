@@ -18,7 +18,7 @@ from collections.abc import Iterable, Iterator
 from contextlib import contextmanager
 from dataclasses import dataclass
 from pathlib import Path
-from typing import IO
+from typing import TextIO
 
 from clausewise.provisions import ClausewiseError
 
@@ -94,6 +94,11 @@ def format_for(out: Path | None, asked: str | None,
     return name
 
 
+def rows_kind(out: Path) -> str:
+    """``csv`` or ``jsonl``: how the batch rows named by ``out`` are written."""
+    return FORMATS[format_for(out, None, holds=("rows",))].asked_as
+
+
 def _same_file(a: Path, b: Path) -> bool:
     try:
         if a.resolve() == b.resolve():
@@ -143,7 +148,7 @@ def partial_name(target: Path) -> Path:
 
 
 @contextmanager
-def rows_file(target: Path) -> Iterator[IO[str]]:
+def rows_file(target: Path) -> Iterator[TextIO]:
     """A handle for batch rows: written beside ``target`` under the partial name, and
     renamed over ``target`` only when the block completes. When it does not, the old
     ``target`` is untouched, the partial rows stay, and stderr says where."""

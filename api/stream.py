@@ -29,7 +29,8 @@ from clausewise.results.writers import result_columns
 from clausewise.rowtext import Column, CsvLines, JsonLines, Numbers
 
 if TYPE_CHECKING:
-    from clausewise.beamfile import Schedule
+    from clausewise.beamfile import InputProblem, Schedule
+    from clausewise.provisions import Beam
 
 REFUSED = "refused"
 
@@ -42,7 +43,12 @@ def schedule_system(schedule: Schedule) -> UnitSystem:
 
 @dataclass
 class Summary:
-    """Counts by status per edition, and the beams with the highest utilisation."""
+    """Counts by status per edition, and the beams with the highest utilisation.
+
+    The worst kept are the ``keep`` highest by (utilisation, beam, edition, check), a
+    total order (ids are unique in a run), so they do not depend on how the beams were
+    cut into tables or processes: summaries of the parts of a run merge into the
+    summary of the whole."""
 
     counts: dict[str, Counter[str]] = field(default_factory=dict)
     worst: list[tuple[float, str, str, str]] = field(default_factory=list)
@@ -54,18 +60,34 @@ class Summary:
         tally = Counter(map(str, table.status.tolist()))
         counts.update({status: tally[status] for status in sorted(tally)})
         self.rows += table.size
+        if self.keep <= 0:
+            return
         util = np.where(np.isfinite(table.governing_utilisation),
                         table.governing_utilisation, np.inf)
-        # a beam below the least kept one cannot enter the heap: sort only the others
-        rows = (np.flatnonzero(util >= self.worst[0][0]) if 0 < self.keep == len(self.worst)
+        # a beam below the least kept one cannot enter the heap: look only at the others,
+        # and of those only at the highest ``keep`` utilisations, ties included
+        rows = (np.flatnonzero(util >= self.worst[0][0]) if len(self.worst) == self.keep
                 else np.arange(table.size))
-        for i in rows[np.argsort(-util[rows], kind="stable")][: self.keep].tolist():
-            item = (float(util[i]), table.beam_ids[i], table.edition_id,
-                    str(table.governing_check[i]))
-            if len(self.worst) < self.keep:
-                heapq.heappush(self.worst, item)
-            else:
-                heapq.heappushpop(self.worst, item)
+        if rows.size > self.keep:
+            least = np.partition(util[rows], rows.size - self.keep)[rows.size - self.keep]
+            rows = rows[util[rows] >= least]
+        for i in rows.tolist():
+            self._offer((float(util[i]), table.beam_ids[i], table.edition_id,
+                         str(table.governing_check[i])))
+
+    def _offer(self, item: tuple[float, str, str, str]) -> None:
+        if len(self.worst) < self.keep:
+            heapq.heappush(self.worst, item)
+        else:
+            heapq.heappushpop(self.worst, item)
+
+    def merge(self, other: Summary) -> None:
+        """Take in the summary of another part of the same run."""
+        for edition_id, counts in other.counts.items():
+            self.counts.setdefault(edition_id, Counter()).update(counts)
+        self.rows += other.rows
+        for item in other.worst:
+            self._offer(item)
 
     def refused(self, edition_ids: Sequence[str], count: int) -> None:
         for edition_id in edition_ids:
@@ -110,13 +132,16 @@ class RowWriter:
     """CSV (the header first; the caution a column of every row) or JSON Lines (one
     object a row, after one naming the caution and the columns)."""
 
-    def __init__(self, out: IO[str], kind: str, system: UnitSystem = UnitSystem.SI) -> None:
+    def __init__(self, out: IO[str], kind: str, system: UnitSystem = UnitSystem.SI,
+                 header: bool = True) -> None:
+        """``header``: False for rows that will follow another part's header."""
         self.out, self.kind = out, kind
         self.columns = result_columns(units_table(system))
         if kind == "csv":
             self.csv = csv.writer(out, lineterminator="\n")
-            self.csv.writerow(self.columns)
-        else:
+            if header:
+                self.csv.writerow(self.columns)
+        elif header:
             out.write(json.dumps({"caution": CAUTION, "columns": self.columns}) + "\n")
         out.flush()
         self.line_format = (CsvLines if kind == "csv" else JsonLines)(self.columns)
@@ -140,11 +165,20 @@ def stream_schedule(schedule: Schedule, editions: Sequence[Edition], form: str |
                     progress: Callable[[int, int], None] | None = None,
                     chunk: int = CHUNK) -> Summary:
     """Assess every beam under every edition through the batch path; write and count."""
-    beams = [entry.beam for entry in schedule.entries]
+    summary = stream_beams([entry.beam for entry in schedule.entries], editions, form,
+                           situation, writer, progress, chunk, schedule_system(schedule))
+    write_refused(summary, schedule.problems, [e.id for e in editions], situation, writer)
+    return summary
+
+
+def stream_beams(beams: Sequence[Beam], editions: Sequence[Edition], form: str | None,
+                 situation: str, writer: RowWriter | None,
+                 progress: Callable[[int, int], None] | None = None, chunk: int = CHUNK,
+                 system: UnitSystem = UnitSystem.SI) -> Summary:
+    """The loaded beams' part of :func:`stream_schedule`, rows in ``system``'s units."""
     summary = Summary()
     total = len(beams) * len(editions)
     done = 0
-    system = schedule_system(schedule)
     stacks = {e.id: " over ".join(f"{r.info.id} {r.version} ({r.distribution})"  # type: ignore[union-attr]
                                   for r in reversed(e.layers)) for e in editions}
     for _, table in iter_assess_many(beams, editions, form=form, situation=situation,
@@ -156,22 +190,28 @@ def stream_schedule(schedule: Schedule, editions: Sequence[Edition], form: str |
         done += table.size
         if progress is not None:
             progress(done, total)
-    if schedule.problems:
-        ids = [e.id for e in editions]
-        summary.refused(ids, len({p.beam for p in schedule.problems}))
-        if writer is not None:
-            blank = [""] * (len(writer.columns) - 7)
-            writer.write([[p.beam or "?", edition_id, "", situation, REFUSED, *blank,
-                           p.message, CAUTION]
-                          for p in schedule.problems for edition_id in ids])
     return summary
+
+
+def write_refused(summary: Summary, problems: Sequence[InputProblem],
+                  edition_ids: Sequence[str], situation: str, writer: RowWriter | None) -> None:
+    """The beams the input refused: counted once per id under every edition, and a row
+    per problem and edition (after the assessed rows)."""
+    if not problems:
+        return
+    summary.refused(edition_ids, len({p.beam for p in problems}))
+    if writer is not None:
+        blank = [""] * (len(writer.columns) - 7)
+        writer.write([[p.beam or "?", edition_id, "", situation, REFUSED, *blank,
+                       p.message, CAUTION]
+                      for p in problems for edition_id in edition_ids])
 
 
 class LazyProgress:
     """A progress bar that appears only once a run has taken more than ``delay`` seconds."""
 
-    def __init__(self, enabled: bool, delay: float = 1.0) -> None:
-        self.enabled, self.delay = enabled, delay
+    def __init__(self, enabled: bool, delay: float = 1.0, label: str = "assessing") -> None:
+        self.enabled, self.delay, self.label = enabled, delay, label
         self.start = time.perf_counter()
         self.bar: Any = None
         self.task: Any = None
@@ -185,7 +225,7 @@ class LazyProgress:
             from rich.console import Console
             from rich.progress import BarColumn, MofNCompleteColumn, Progress, TimeRemainingColumn
 
-            self.bar = Progress("assessing", BarColumn(), MofNCompleteColumn(),
+            self.bar = Progress(self.label, BarColumn(), MofNCompleteColumn(),
                                 TimeRemainingColumn(), transient=True,
                                 console=Console(stderr=True))
             self.bar.start()

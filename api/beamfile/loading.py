@@ -132,18 +132,45 @@ def _schedule(data: dict[str, Any], source: str, base: Path, design: bool = Fals
         if not isinstance(beams, list):
             raise InputError(f"{source}, field beam: got {_text(beams)!r}, expected [[beam]] "
                              "tables, one per beam")
-    entries: list[BeamEntry] = []
-    problems: list[InputProblem] = []
-    first_seen: dict[str, int] = {}
-    declared = isinstance(data.get("project"), dict) and "units" in data["project"]
-    defaulted: dict[str, list[str]] = {}
+    read = _read_beams(beams, source, project, _declares_units(data), design)
+    if project is None:  # every problem of the file at once: the header's and the beams'
+        found = [*header_problems, *read.problems]
+        raise InputError("\n".join(p.message for p in found), tuple(found))
+    return Schedule(Path(source), project, tuple(read.entries), tuple(read.problems),
+                    _default_units_warning(source, list(read.defaulted.items())[:5],
+                                           len(read.defaulted)))
+
+
+def _declares_units(data: dict[str, Any]) -> bool:
+    return isinstance(data.get("project"), dict) and "units" in data["project"]
+
+
+@dataclass
+class BeamsRead:
+    """What reading a run of [[beam]] tables found: the beams that loaded, the problems of
+    those that did not, the first beam number of every id that passed validation (a later
+    beam with one of them is refused), and the fields that took SI units by default, by
+    beam id (only where the file declares no unit system)."""
+
+    entries: list[BeamEntry]
+    problems: list[InputProblem]
+    ids: dict[str, int]
+    defaulted: dict[str, list[str]]
+
+
+def _read_beams(beams: Iterable[Any], source: str, project: ProjectInfo | None,
+                declared: bool, design: bool = False, first: int = 1) -> BeamsRead:
+    """Validate and read every table of ``beams``, numbered in the file from ``first``."""
+    read = BeamsRead([], [], {}, {})
+    entries, problems, first_seen, defaulted = (read.entries, read.problems, read.ids,
+                                                read.defaulted)
     file_system = project.unit_system if project else UnitSystem.SI
 
     def report(raw: Any, index: int, found: list[tuple[str, str, str]]) -> None:
         beam_id = _beam_id(raw)  # only for a beam with problems: the happy path skips it
         problems.extend(InputProblem(source, beam_id, f, v, e, index) for f, v, e in found)
 
-    for index, raw in enumerate(beams, 1):
+    for index, raw in enumerate(beams, first):
         if not isinstance(raw, dict):
             report(raw, index, [("beam", _text(raw), "a table of beam fields ([[beam]])")])
             continue
@@ -167,21 +194,18 @@ def _schedule(data: dict[str, Any], source: str, base: Path, design: bool = Fals
             report(raw, index, reader.problems)
         else:
             entries.append(BeamEntry(beam, reader.shown, tuple(reader.bar_groups)))
-    if project is None:  # every problem of the file at once: the header's and the beams'
-        found = [*header_problems, *problems]
-        raise InputError("\n".join(p.message for p in found), tuple(found))
-    return Schedule(Path(source), project, tuple(entries), tuple(problems),
-                    _default_units_warning(source, defaulted))
+    return read
 
 
-def _default_units_warning(source: str, defaulted: dict[str, list[str]]) -> tuple[str, ...]:
+def _default_units_warning(source: str, shown_beams: list[tuple[str, list[str]]],
+                           count: int) -> tuple[str, ...]:
     """One warning for the file when plain numbers took SI units without the file saying
-    so: ``web_width = 300`` is 300 mm only if the engineer meant SI."""
-    if not defaulted:
+    so: ``web_width = 300`` is 300 mm only if the engineer meant SI. ``shown_beams``: the
+    first five such beams and their fields, of ``count``."""
+    if not count:
         return ()
-    shown = [f"beam {beam_id}: {', '.join(fields)}" for beam_id, fields in
-             list(defaulted.items())[:5]]
-    more = len(defaulted) - len(shown)
+    shown = [f"beam {beam_id}: {', '.join(fields)}" for beam_id, fields in shown_beams[:5]]
+    more = count - len(shown)
     return (f"{source}: numbers without a unit were read as SI (mm, mm², MPa, kN m), but the "
             "file declares no unit system; add [project] units = \"SI\" (or \"US\"), or write "
             f"the units. Read by default: {'; '.join(shown)}"
@@ -218,33 +242,110 @@ class _NotChunked(Exception):
     line ``[[beam]]`` inside a string, a syntax error): read it whole instead."""
 
 
-def _beam_chunks(text: str, source: str) -> tuple[dict[str, Any], Iterator[list[Any]]] | None:
-    """The tables before the first [[beam]], and the [[beam]] tables ``CHUNK`` at a time,
-    for a file of more than ``CHUNK`` beams: the parsed tree of a large schedule is many
-    times the size of its beams, so it is never held whole. None for a smaller file."""
-    starts = ([0] if _BEAM_TABLE.match(text) else []) + [
+def _beam_starts(text: str) -> list[int]:
+    """Where each line ``[[beam]]`` of the text starts."""
+    return ([0] if _BEAM_TABLE.match(text) else []) + [
         m.start() + 1 for m in _NEXT_BEAM_TABLE.finditer(text)]
-    if len(starts) <= CHUNK:
-        return None
+
+
+def _head(text: str, starts: list[int], source: str) -> dict[str, Any] | None:
+    """The tables before the first [[beam]], or None when they cannot be read apart."""
     try:
         head = _toml_loads(text[:starts[0]], source)
     except InputError:
         return None
-    if "beam" in head:
+    return None if "beam" in head else head
+
+
+def _chunk_tables(text: str, source: str, starts: list[int], end: int
+                  ) -> Iterator[list[Any]]:
+    """The [[beam]] tables from ``starts[0]`` to ``end``, ``CHUNK`` at a time."""
+    bounds = [*starts[::CHUNK], end]
+    for start, stop in zip(bounds, bounds[1:], strict=False):
+        try:
+            part = _toml_loads(text[start:stop], source)
+        except InputError:
+            raise _NotChunked from None
+        if set(part) != {"beam"} or not isinstance(part["beam"], list):
+            raise _NotChunked
+        yield part["beam"]
+
+
+def _beam_chunks(text: str, source: str) -> tuple[dict[str, Any], Iterator[list[Any]]] | None:
+    """The tables before the first [[beam]], and the [[beam]] tables ``CHUNK`` at a time,
+    for a file of more than ``CHUNK`` beams: the parsed tree of a large schedule is many
+    times the size of its beams, so it is never held whole. None for a smaller file."""
+    starts = _beam_starts(text)
+    if len(starts) <= CHUNK:
         return None
-    bounds = [*starts[::CHUNK], len(text)]
+    head = _head(text, starts, source)
+    if head is None:
+        return None
+    return head, _chunk_tables(text, source, starts, len(text))
 
-    def chunks() -> Iterator[list[Any]]:
-        for start, end in zip(bounds, bounds[1:], strict=False):
-            try:
-                part = _toml_loads(text[start:end], source)
-            except InputError:
-                raise _NotChunked from None
-            if set(part) != {"beam"} or not isinstance(part["beam"], list):
-                raise _NotChunked
-            yield part["beam"]
 
-    return head, chunks()
+@dataclass(frozen=True)
+class BeamTables:
+    """A large file's text with its [[beam]] tables found but not yet parsed, so that any
+    contiguous run of them can be read apart (each by a process of its own, see
+    ``clausewise.shards``) with the beams, problems and numbers a whole reading gives."""
+
+    source: str
+    text: str
+    head: dict[str, Any]  # the tables before the first [[beam]]
+    project: ProjectInfo
+    starts: list[int]  # where each [[beam]] table starts in the text
+
+    def read(self, tables: range, design: bool = False) -> BeamsRead | None:
+        """The tables ``tables`` (counted from 0), numbered in the file from
+        ``tables.start + 1``; None when they cannot be read apart from the rest of the
+        file (a table after the beams, a line [[beam]] inside a string, a syntax error):
+        the whole file must then be read as one."""
+        end = self.starts[tables.stop] if tables.stop < len(self.starts) else len(self.text)
+        chunks = _chunk_tables(self.text, self.source, self.starts[tables.start:tables.stop],
+                               end)
+        try:
+            with cycle_collector_paused():
+                return _read_beams((raw for chunk in chunks for raw in chunk), self.source,
+                                   self.project, _declares_units(self.head), design,
+                                   tables.start + 1)
+        except _NotChunked:
+            return None
+
+    def schedule(self, problems: tuple[InputProblem, ...] = (),
+                 warnings: tuple[str, ...] = ()) -> Schedule:
+        """The file's schedule without its beams (they stay with the process that read
+        them): what the file-level checks and the report need."""
+        return Schedule(Path(self.source), self.project, (), problems, warnings)
+
+    def default_units_warning(self, shown_beams: list[tuple[str, list[str]]],
+                              count: int) -> tuple[str, ...]:
+        """The file's warning of plain numbers read as SI, as a whole reading gives it."""
+        return _default_units_warning(self.source, shown_beams, count)
+
+
+def beam_tables(text: str, source: str) -> BeamTables | None:
+    """The [[beam]] tables of a file of more than ``CHUNK`` beams, found; None for a file
+    that is read whole anyway: a small one, one whose head or last beam does not parse
+    apart, one with a table after the beams (the head is then not all of the project and
+    run), or whose project or run table has problems (a whole reading reports them with
+    the beams')."""
+    starts = _beam_starts(text)
+    if len(starts) <= CHUNK:
+        return None
+    head = _head(text, starts, source)
+    if head is None:
+        return None
+    try:
+        last = _toml_loads(text[starts[-1]:], source)
+    except InputError:
+        return None
+    if set(last) != {"beam"}:
+        return None
+    project, _ = _header(head, source, Path(source).parent)
+    if project is None:
+        return None
+    return BeamTables(source, text, head, project, starts)
 
 
 def parse_schedule(text: str, source: str = "<text>", *, design: bool = False) -> Schedule:
@@ -264,9 +365,8 @@ def parse_schedule(text: str, source: str = "<text>", *, design: bool = False) -
         return _schedule(_toml_loads(text, source), source, base, design)
 
 
-def load_schedule(path: str | Path, *, design: bool = False) -> Schedule:
-    """Read a schedule file. Bad beams become problems; the others load."""
-    path = Path(path)
+def read_text(path: Path) -> str:
+    """A schedule file's text, or an :class:`InputError` saying why it cannot be read."""
     try:
         raw = path.read_bytes()
     except FileNotFoundError as exc:
@@ -276,8 +376,12 @@ def load_schedule(path: str | Path, *, design: bool = False) -> Schedule:
     except OSError as exc:
         raise InputError(f"{path}: cannot be read ({exc.strerror or exc})") from exc
     try:
-        text = raw.decode("utf-8")
+        return raw.decode("utf-8")
     except UnicodeDecodeError as exc:
         raise InputError(f"{path}: not UTF-8 text (bad byte at position {exc.start})") from exc
-    del raw  # the text is enough: a large file is not held twice while it is read
-    return parse_schedule(text, str(path), design=design)
+
+
+def load_schedule(path: str | Path, *, design: bool = False) -> Schedule:
+    """Read a schedule file. Bad beams become problems; the others load."""
+    path = Path(path)
+    return parse_schedule(read_text(path), str(path), design=design)
