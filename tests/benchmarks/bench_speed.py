@@ -12,15 +12,15 @@ this process (the machine is shared, so the minimum is the honest figure):
 - ``assess_columns`` (arrays, no beam objects) under aci318-19;
 - references written here, numpy only: the closed form for yielding steel in T beams,
   and a 60-step bisection of general strain compatibility with three steel layers;
-- with ``--cli``: ``clausewise batch`` on a written schedule, wall time and peak memory
-  of the child process (slow: it writes and reads a 100 000-beam file);
+- with ``--cli``: ``clausewise batch`` on a written schedule, in one process and in as
+  many as it chooses (one per processor on Linux), wall time and the peak memory of its
+  largest process (slow: it writes and reads a 100 000-beam file);
 - start-up of ``clausewise --help`` against the bare imports of its libraries.
 """
 
 from __future__ import annotations
 
 import argparse
-import resource
 import subprocess
 import sys
 import tempfile
@@ -76,21 +76,32 @@ def bisection_reference(count: int, seed: int = 7) -> float:
     return time.process_time() - start
 
 
-def cli_batch(count: int) -> tuple[float, float]:
-    """Wall seconds and peak resident MB of ``clausewise batch`` over ``count`` beams under
-    the 7 built-in editions, rows written as CSV."""
+def cli_batch(count: int, workers: tuple[int | None, ...] = (1, None)
+              ) -> list[tuple[str, float, float]]:
+    """Wall seconds and peak resident MB (the largest process) of ``clausewise batch`` over
+    ``count`` beams under the 7 built-in editions, rows written as CSV: once for each of
+    ``workers`` (None: as many processes as the command chooses), on one written file."""
+    runs = []
     with tempfile.TemporaryDirectory() as folder:
         schedule, rows = Path(folder) / "schedule.toml", Path(folder) / "rows.csv"
         subprocess.run([sys.executable, "-m", "clausewise.synthetic", "--beams", str(count),
                         "--seed", "7", "--out", str(schedule)], check=True)
         editions = [arg for e in BUILT_IN for arg in ("--edition", e)]
-        before = resource.getrusage(resource.RUSAGE_CHILDREN).ru_maxrss
-        start = time.perf_counter()
-        subprocess.run([sys.executable, "-m", "clausewise.cli", "batch", str(schedule),
-                        *editions, "--out", str(rows)], check=False, capture_output=True)
-        wall = time.perf_counter() - start
-        peak = resource.getrusage(resource.RUSAGE_CHILDREN).ru_maxrss
-    return wall, max(peak, before) / 1024
+        for n in workers:
+            chosen = [] if n is None else ["--workers", str(n)]
+            code = ("import resource, sys; from clausewise.cli import main\n"
+                    "try:\n    main(sys.argv[1:])\nexcept SystemExit:\n    pass\n"
+                    "own = resource.getrusage(resource.RUSAGE_SELF).ru_maxrss\n"
+                    "kids = resource.getrusage(resource.RUSAGE_CHILDREN).ru_maxrss\n"
+                    "print(max(own, kids) / 1024, file=sys.stderr)")
+            start = time.perf_counter()
+            done = subprocess.run([sys.executable, "-c", code, "batch", str(schedule),
+                                   *editions, *chosen, "--out", str(rows)], check=False,
+                                  capture_output=True, text=True)
+            wall = time.perf_counter() - start
+            peak = float(done.stderr.strip().splitlines()[-1])
+            runs.append(("one process" if n == 1 else "processes as chosen", wall, peak))
+    return runs
 
 
 def main() -> None:
@@ -133,9 +144,9 @@ def main() -> None:
     row("reference: numpy 60-step bisection, three layers",
         min(bisection_reference(n) for _ in range(r)), n, 2)
     if args.cli:
-        wall, peak = cli_batch(n)
-        rows.append((f"clausewise batch {n} beams x 7 editions", f"{wall:.1f} s wall, "
-                     f"{peak:.0f} MB peak"))
+        for how, wall, peak in cli_batch(n):
+            rows.append((f"clausewise batch {n} beams x 7 editions, {how}",
+                         f"{wall:.1f} s wall, {peak:.0f} MB peak"))
     ours, bare = startup()
     rows.append(("start-up: clausewise --help / bare imports",
                  f"{ours * 1e3:.0f} ms / {bare * 1e3:.0f} ms = {ours / bare:.2f}"))
