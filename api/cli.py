@@ -579,18 +579,25 @@ def batch_command(args: argparse.Namespace) -> int:
 
     _guard_inputs(args)
     format_for(args.out, None, holds=("rows",))
-    text = None
-    count = processes(args.workers)
-    if count > 1:
-        from clausewise.beamfile.loading import beam_tables, read_text
-        from clausewise.shards import plan
-
-        text = read_text(args.file)
-        tables = beam_tables(text, str(args.file))
-        parts = None if tables is None else plan(len(tables.starts), count)
-        if tables is not None and parts is not None:
-            return _sharded_batch(args, tables, parts)
+    text, shards = _large_file(args, processes(args.workers))
+    if shards is not None:
+        return _sharded_batch(args, *shards)
     return _one_process_batch(args, text)
+
+
+def _large_file(args: argparse.Namespace, count: int
+                ) -> tuple[str | None, tuple[BeamTables, list[range]] | None]:
+    """The file's text (when it was read) and its shards for ``count`` processes, where
+    the file is large enough to share among them; else no shards."""
+    if count < 2:
+        return None, None
+    from clausewise.beamfile.loading import beam_tables, read_text
+    from clausewise.shards import plan
+
+    text = read_text(args.file)
+    tables = beam_tables(text, str(args.file))
+    parts = None if tables is None else plan(len(tables.starts), count)
+    return text, (None if tables is None or parts is None else (tables, parts))
 
 
 def _one_process_batch(args: argparse.Namespace, text: str | None) -> int:
@@ -661,13 +668,20 @@ def _finish_batch(schedule: Schedule, summary: Summary, out: Path | None,
 
 def check_command(args: argparse.Namespace) -> int:
     from clausewise.results import run
+    from clausewise.shards import processes
 
-    schedule, registry, form, situation = _load(args)
+    kind = _chosen_format(args)
+    batch_form = not args.figures and (kind == "csv" or (kind == "text" and args.out is None))
+    text = None
+    if batch_form:  # a file large enough for shards takes the batch path whatever its editions
+        _guard_inputs(args)
+        text, shards = _large_file(args, processes(None))
+        if shards is not None:
+            return _sharded_batch(args, *shards)
+    schedule, registry, form, situation = _load(args, text)
     chosen = args.edition or list(schedule.project.editions)
     editions = _editions(registry, chosen or registry.ids())
-    kind = _chosen_format(args)
-    if (len(schedule.entries) * len(editions) > BATCH_FROM and not args.figures
-            and (kind == "csv" or (kind == "text" and args.out is None))):
+    if len(schedule.entries) * len(editions) > BATCH_FROM and batch_form:
         return _run_batch(schedule, editions, form, situation, args.out)
     _problems_first(schedule, args)
     outcomes = list(run(schedule, editions, form, situation))

@@ -387,3 +387,24 @@ def test_a_worker_does_not_outlive_a_killed_parent(tmp_path):
     run.wait(30)
     assert _gone(worker)
     assert target.read_text() == "the good rows of yesterday\n"
+
+
+def test_check_on_a_large_file_shares_it_among_processes_too(tmp_path, capsys, sharded,
+                                                             monkeypatch):
+    """check takes the batch path for a file this large; it is cut in shards as batch
+    cuts it, and gives the rows and summary of a one-process batch."""
+    monkeypatch.setattr(shards, "processes", lambda asked: asked or 2)  # as on two processors
+    schedule = write(tmp_path, document())
+    folder = tmp_path / "check"
+    folder.mkdir()
+    target = folder / "rows.csv"
+    status = main(["check", str(schedule), "--out", str(target),
+                   *[a for e in EDITIONS for a in ("--edition", e)]])
+    captured = capsys.readouterr()
+    assert len(sharded) == 1 and sharded[0] is not None  # cut in shards, not redone
+    checked = Run(status, captured.out.replace(str(target), "ROWS"),
+                  captured.err.replace(str(target), "ROWS"),
+                  target.read_text(encoding="utf-8").splitlines())
+    one = batch(schedule, tmp_path / "one", capsys, "--workers", "1")
+    assert_same(checked, one)
+    assert len(checked.rows) == 1 + BEAMS * len(EDITIONS)
