@@ -670,11 +670,11 @@ def check_command(args: argparse.Namespace) -> int:
     from clausewise.results import run
     from clausewise.shards import processes
 
+    _guard_inputs(args)  # an --out that is an input or a folder, said before the format
     kind = _chosen_format(args)
     batch_form = not args.figures and (kind == "csv" or (kind == "text" and args.out is None))
     text = None
     if batch_form:  # a file large enough for shards takes the batch path whatever its editions
-        _guard_inputs(args)
         text, shards = _large_file(args, processes(None))
         if shards is not None:
             return _sharded_batch(args, *shards)
