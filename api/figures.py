@@ -333,7 +333,7 @@ def _draw_stresses(ax: Any, a: Assessment, law: Any, frame: _Frame, n: Notation)
     units = frame.units
     ys = np.sort(np.concatenate([np.linspace(0.0, r.c, 201),
                                  [r.zone_depth * (1 - 1e-9), r.zone_depth * (1 + 1e-9)]]))
-    stress = law.stress_at(np.array([r.c]), ys[None, :])[0]
+    stress = law.stress_at(np.array([r.c]), ys[:, None])[:, 0]  # depths (m, N = 1)
     shown = stress * convert(1.0, "MPa", units.system)[0]
     ax.fill_betweenx(frame.up(ys), 0, shown, color=ZONE, alpha=0.85)
     peak = max(float(shown.max()), 1e-9)

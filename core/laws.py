@@ -5,8 +5,10 @@ shortening (compression). Strain at depth ``y`` below the compression face is
 ``eps_cu * (c - y) / c`` with the extreme fibre at the ultimate strain.
 
 Every parameter may be a float or a numpy array that broadcasts against the
-batch (shape ``(N,)``); concrete-law methods receive ``c`` of shape ``(N,)`` and
-strip edges of shape ``(N, k)``.
+batch (shape ``(N,)``). Concrete-law methods receive ``c`` of shape ``(N,)`` and
+depths or strip edges of shape ``(k, N)``, the sections along the last axis: a
+parameter of shape ``(N,)`` then broadcasts as it is, and each strip or layer is a
+contiguous row (numpy spends several times longer per number on rows of a few).
 """
 
 from __future__ import annotations
@@ -22,12 +24,6 @@ from clausewise.core.errors import SectionError
 
 Array = NDArray[np.float64]
 _Law = TypeVar("_Law")
-
-
-def _col(value: ArrayLike) -> Array:
-    """A per-section parameter as a column that broadcasts over strips."""
-    arr = np.asarray(value, dtype=float)
-    return arr[:, None] if arr.ndim == 1 else arr
 
 
 def _number(value: ArrayLike) -> Any:
@@ -69,11 +65,13 @@ class ConcreteLaw(Protocol):
         ...
 
     def strip_resultants(self, c: Array, top: Array, bottom: Array) -> tuple[Array, Array]:
-        """Force per unit width of each strip, and its first moment about the compression face."""
+        """Force per unit width of each strip (edges ``top``, ``bottom`` of shape (k, N)),
+        and its first moment about the compression face."""
         ...
 
     def stress_at(self, c: Array, y: Array) -> Array:
-        """Concrete stress at depth ``y`` (used for the concrete displaced by bars)."""
+        """Concrete stress at depths ``y`` of shape (m, N) (for the concrete displaced by
+        bars)."""
         ...
 
 
@@ -99,20 +97,19 @@ class RectangularBlock:
         return np.asarray(self.depth_factor) * c
 
     def strip_resultants(self, c: Array, top: Array, bottom: Array) -> tuple[Array, Array]:
-        a = _col(self.zone_depth(c))
+        a = self.zone_depth(c)
         lo = _clip(top, 0.0, a)
         hi = _clip(bottom, 0.0, a)
-        stress = _col(self.stress)
+        stress = np.asarray(self.stress, dtype=float)
         return stress * (hi - lo), stress * 0.5 * (hi * hi - lo * lo)
 
     def stress_at(self, c: Array, y: Array) -> Array:
-        a = _col(self.zone_depth(c))
-        return np.where(y < a, _col(self.stress), 0.0)
+        return np.where(y < self.zone_depth(c), np.asarray(self.stress, dtype=float), 0.0)
 
     def stress_steps(self, depths: Array) -> Array:
         """Neutral-axis depths at which the block edge reaches each depth: there the
         concrete displaced by a bar switches on, and net compression steps down."""
-        return depths / _col(self.depth_factor)
+        return depths / np.asarray(self.depth_factor, dtype=float)
 
 
 @dataclass(frozen=True)
@@ -139,10 +136,10 @@ class ParabolaRectangle:
         return c * (1.0 - ratio), c * ratio
 
     def strip_resultants(self, c: Array, top: Array, bottom: Array) -> tuple[Array, Array]:
-        y_r, length = (_col(v) for v in self._split(c))
-        cc = _col(c)
-        fcd = _col(self.peak_stress)
-        n = _col(self.exponent)
+        y_r, length = self._split(c)
+        cc = np.asarray(c, dtype=float)
+        fcd = np.asarray(self.peak_stress, dtype=float)
+        n = np.asarray(self.exponent, dtype=float)
         lo = _clip(top, 0.0, y_r)
         hi = _clip(bottom, 0.0, y_r)
         force = fcd * (hi - lo)
@@ -159,10 +156,11 @@ class ParabolaRectangle:
         return force, moment
 
     def stress_at(self, c: Array, y: Array) -> Array:
-        cc = _col(c)
-        eps = _col(self.ultimate_strain) * (cc - y) / cc
-        ratio = _clip(eps / _col(self.strain_at_peak), 0.0, 1.0)
-        return _col(self.peak_stress) * (1.0 - (1.0 - ratio) ** _col(self.exponent))
+        cc = np.asarray(c, dtype=float)
+        eps = np.asarray(self.ultimate_strain, dtype=float) * (cc - y) / cc
+        ratio = _clip(eps / np.asarray(self.strain_at_peak, dtype=float), 0.0, 1.0)
+        return np.asarray(self.peak_stress, dtype=float) * (
+            1.0 - (1.0 - ratio) ** np.asarray(self.exponent, dtype=float))
 
 
 class SteelLaw(Protocol):

@@ -51,28 +51,28 @@ def test_resultant_matches_handbook_coefficients(area):
 
 def test_strip_resultants_over_one_strip_give_exact_coefficients():
     c = np.array([50.0, 120.0, 400.0])
-    top = np.zeros((3, 1))
-    bottom = np.full((3, 1), 1000.0)  # strip deeper than the zone
+    top = np.zeros((1, 3))  # one strip (a row), three sections
+    bottom = np.full((1, 3), 1000.0)  # strip deeper than the zone
     force, moment = LAW.strip_resultants(c, top, bottom)
-    np.testing.assert_allclose(force[:, 0], 17 / 21 * FCD * c, rtol=1e-14)
-    np.testing.assert_allclose(moment[:, 0] / force[:, 0], 99 / 238 * c, rtol=1e-14)
+    np.testing.assert_allclose(force[0], 17 / 21 * FCD * c, rtol=1e-14)
+    np.testing.assert_allclose(moment[0] / force[0], 99 / 238 * c, rtol=1e-14)
 
 
 def test_strip_resultants_add_over_split_strips():
     c = np.array([200.0])
     whole = LAW.strip_resultants(c, np.array([[0.0]]), np.array([[500.0]]))
-    edges = np.array([[0.0, 37.0, 90.0, 150.0, 500.0]])
-    parts = LAW.strip_resultants(c, edges[:, :-1], edges[:, 1:])
+    edges = np.array([[0.0], [37.0], [90.0], [150.0], [500.0]])  # four strips, one section
+    parts = LAW.strip_resultants(c, edges[:-1], edges[1:])
     assert parts[0].sum() == pytest.approx(whole[0][0, 0], rel=1e-14)
     assert parts[1].sum() == pytest.approx(whole[1][0, 0], rel=1e-14)
 
 
 def test_stress_at_follows_parabola_then_plateau():
     c = np.array([100.0])
-    depths = np.array([[0.0, 30.0, 50.0, 100.0, 120.0]])
-    stress = LAW.stress_at(c, depths)[0]
+    depths = np.array([[0.0], [30.0], [50.0], [100.0], [120.0]])  # five depths, one section
+    stress = LAW.stress_at(c, depths)[:, 0]
     # strain 0.0035 (c - y) / c; parabola fcd (1 - (1 - eps/0.002)^2) (common practice, no source)
-    eps = 0.0035 * (100.0 - depths[0]) / 100.0
+    eps = 0.0035 * (100.0 - depths[:, 0]) / 100.0
     expected = np.where(eps >= 0.002, FCD,
                         FCD * (1 - (1 - np.clip(eps, 0, None) / 0.002) ** 2))
     np.testing.assert_allclose(stress, expected, rtol=1e-14, atol=1e-12)
