@@ -8,6 +8,7 @@ result is compared with the same result reached another way.
 from __future__ import annotations
 
 import math
+import sys
 from collections import Counter
 
 import numpy as np
@@ -261,3 +262,19 @@ def test_the_synthetic_schedule_runs_in_groups_without_falling_back(monkeypatch)
     tables = assess_many(synthetic_beams(600, seed=13), BUILT_IN)
     assert len(tables) == len(BUILT_IN)
     assert all(t.size == 600 for t in tables.values())
+
+
+@pytest.mark.skipif(not sys.platform.startswith("linux"), reason="glibc's allocator")
+def test_the_allocator_keeps_freed_memory_unless_the_user_set_it(monkeypatch):
+    """On Linux with glibc the batch path asks the allocator to keep freed blocks for
+    reuse (mallopt, glibc's documented interface); a threshold the user set in the
+    environment is left as it is."""
+    import ctypes.util
+
+    from clausewise.provisions.batch import keep_freed_memory
+
+    if ctypes.util.find_library("c") is None or "musl" in (ctypes.util.find_library("c") or ""):
+        pytest.skip("not glibc")
+    assert keep_freed_memory.__wrapped__() is True
+    monkeypatch.setenv("MALLOC_TRIM_THRESHOLD_", "131072")
+    assert keep_freed_memory.__wrapped__() is False
