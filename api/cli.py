@@ -314,11 +314,20 @@ def _require(registry: Registry, requirements: Sequence[str]) -> None:
 def _load(args: argparse.Namespace, text: str | None = None
           ) -> tuple[Schedule, Registry, str | None, str]:
     """The file (``text``: its text, already read) and what it and the command line choose."""
+    import gc
+
     from clausewise.beamfile import load_schedule, parse_schedule
 
     _guard_inputs(args)
-    schedule = load_schedule(args.file) if text is None else parse_schedule(text,
-                                                                            str(args.file))
+    gc.disable()
+    try:
+        schedule = load_schedule(args.file) if text is None else parse_schedule(
+            text, str(args.file))
+    finally:
+        # the loaded beams live to the end of the command: set aside before the collector
+        # comes back on, whose first pass would otherwise go over every one of them
+        gc.freeze()
+        gc.enable()
     for warning in schedule.warnings:
         _warn(warning)
     return schedule, *_settings(args, schedule)
