@@ -162,7 +162,7 @@ def run(tables: BeamTables, parts: Sequence[range], editions: Sequence[Edition],
                 rows = _temporary_rows(out, len(workers) + 2)
                 temporary.append(rows)
             workers.append(_start(context, tables, part, editions, form, situation, rows, kind))
-        own = tables.read(parts[0])
+        own = _read_aside(tables, parts[0])
         if own is None:
             return None
         readings = [_Reading.of(own)]
@@ -198,6 +198,17 @@ def run(tables: BeamTables, parts: Sequence[range], editions: Sequence[Edition],
         for path in temporary:
             path.unlink(missing_ok=True)
         gc.unfreeze()
+
+
+def _read_aside(tables: BeamTables, part: range) -> BeamsRead | None:
+    """A shard read with the cycle collector off, its beams then set aside from it (they
+    live to the end of the run): the collector's first pass would go over every one."""
+    gc.disable()
+    try:
+        return tables.read(part)
+    finally:
+        gc.freeze()
+        gc.enable()
 
 
 def _assess(beams: list[Any], problems: Sequence[InputProblem], editions: Sequence[Edition],
@@ -323,7 +334,7 @@ def _work(tables: BeamTables, part: range, editions: Sequence[Edition], form: st
     _bound_to(parent)
     parents_end.close()
     try:
-        read = tables.read(part)
+        read = _read_aside(tables, part)
         conn.send(None if read is None else _Reading.of(read))
         system = conn.recv() if read is not None else None
         if read is None or system is None:
