@@ -133,11 +133,14 @@ def find_neutral_axis(sec: SectionArrays, concrete: ConcreteLaw, *, rtol: float 
     Converged sections drop out of the working set, so a batch costs about the
     average iteration count rather than the worst one.
     """
-    return _neutral_axis(_Columns.of(sec), concrete, rtol, max_iter)
+    return _neutral_axis(_Columns.of(sec), concrete, rtol, max_iter)[:3]
 
 
 def _neutral_axis(sec: _Columns, concrete: ConcreteLaw, rtol: float, max_iter: int
-                  ) -> tuple[Array, NDArray[np.int_], NDArray[np.int_]]:
+                  ) -> tuple[Array, NDArray[np.int_], NDArray[np.int_], _Forces | None]:
+    """As :func:`find_neutral_axis`, and the forces at the depths found when one trial
+    gave them for the whole batch at once (always so for a single section): the caller
+    need not work them out again."""
     n = sec.size
     if law_size(concrete) not in (1, n):
         raise SectionError(f"concrete law has parameters for {law_size(concrete)} sections "
@@ -159,14 +162,18 @@ def _neutral_axis(sec: _Columns, concrete: ConcreteLaw, rtol: float, max_iter: i
     a, fa, b, fb = lo[rows], f_lo[rows], hi[rows], f_hi[rows]  # N(a) < 0 < N(b)
     side = np.zeros(rows.size)
     done = np.zeros(rows.size, dtype=bool)
+    final = None
     for _ in range(max_iter):
         if done.all():
             break
         secant = a - fa * (b - a) / (fb - fa)
         x = np.where(np.isfinite(secant) & (secant > a) & (secant < b), secant, 0.5 * (a + b))
-        fx, scale = _net(work, law, x)
+        trial = _forces(work, law, x)
+        fx, scale = trial.net, trial.scale
         iterations[rows[~done]] += 1
         converged = ((np.abs(fx) <= rtol * scale) | (b - a <= 4e-16 * b)) & ~done
+        if rows.size == n and converged.all():  # every section, none taken out before
+            final = trial
         c[rows[converged]] = x[converged]
         status[rows[converged]] = OK
         done |= converged
@@ -186,7 +193,7 @@ def _neutral_axis(sec: _Columns, concrete: ConcreteLaw, rtol: float, max_iter: i
             done = done[keep]
     unfinished = rows[~done]
     c[unfinished] = 0.5 * (a + b)[~done]
-    return c, status, iterations
+    return c, status, iterations, final
 
 
 def _before_first_step(sec: _Columns, concrete: ConcreteLaw, lo: Array,
@@ -363,9 +370,9 @@ def solve_arrays(sec: SectionArrays, concrete: ConcreteLaw, *, rtol: float = 1e-
     """Solve every section of the batch under one concrete law (whose parameters may be
     arrays of shape (N,))."""
     cols = _Columns.of(sec)
-    c, status, iterations = _neutral_axis(cols, concrete, rtol, max_iter)
+    c, status, iterations, final = _neutral_axis(cols, concrete, rtol, max_iter)
     c_eval = np.where(np.isfinite(c), c, cols.depths.max(axis=0))
-    f = _forces(cols, concrete, c_eval)
+    f = final if final is not None else _forces(cols, concrete, c_eval)
 
     strain_limit, yield_strain = np.empty(cols.areas.shape), np.empty(cols.areas.shape)
     for j, law in enumerate(cols.steel):  # a float or one value per section (assignment broadcasts)
