@@ -50,6 +50,7 @@ from typing import TYPE_CHECKING, Any, BinaryIO, TextIO
 from clausewise.beamfile import loading
 from clausewise.outputs import rows_file, rows_kind
 from clausewise.provisions import ClausewiseError, UnitSystem
+from clausewise.provisions.batch import cycle_collector_paused
 from clausewise.stream import LazyProgress, RowWriter, Summary, stream_beams, write_refused
 
 if TYPE_CHECKING:
@@ -162,7 +163,8 @@ def run(tables: BeamTables, parts: Sequence[range], editions: Sequence[Edition],
                 rows = _temporary_rows(out, len(workers) + 2)
                 temporary.append(rows)
             workers.append(_start(context, tables, part, editions, form, situation, rows, kind))
-        own = _read_aside(tables, parts[0])
+        with cycle_collector_paused(set_aside=True):
+            own = tables.read(parts[0])
         if own is None:
             return None
         readings = [_Reading.of(own)]
@@ -185,7 +187,6 @@ def run(tables: BeamTables, parts: Sequence[range], editions: Sequence[Edition],
             worker.conn.send(system)
         beams = [entry.beam for entry in own.entries]
         del own
-        gc.freeze()  # as a one-process batch: the loaded beams stay out of the rescans
         bar = LazyProgress(progress, label=f"assessing part 1 of {len(parts)}")
         try:
             summary = _assess(beams, problems, editions, form, situation, out, kind, system,
@@ -198,17 +199,6 @@ def run(tables: BeamTables, parts: Sequence[range], editions: Sequence[Edition],
         for path in temporary:
             path.unlink(missing_ok=True)
         gc.unfreeze()
-
-
-def _read_aside(tables: BeamTables, part: range) -> BeamsRead | None:
-    """A shard read with the cycle collector off, its beams then set aside from it (they
-    live to the end of the run): the collector's first pass would go over every one."""
-    gc.disable()
-    try:
-        return tables.read(part)
-    finally:
-        gc.freeze()
-        gc.enable()
 
 
 def _assess(beams: list[Any], problems: Sequence[InputProblem], editions: Sequence[Edition],
@@ -334,14 +324,14 @@ def _work(tables: BeamTables, part: range, editions: Sequence[Edition], form: st
     _bound_to(parent)
     parents_end.close()
     try:
-        read = _read_aside(tables, part)
+        with cycle_collector_paused(set_aside=True):
+            read = tables.read(part)
         conn.send(None if read is None else _Reading.of(read))
         system = conn.recv() if read is not None else None
         if read is None or system is None:
             return
         beams = [entry.beam for entry in read.entries]
         del read
-        gc.freeze()
         if rows is None:
             summary = stream_beams(beams, editions, form, situation, None, system=system)
         else:
