@@ -298,6 +298,17 @@ def law_size(law: Any) -> int:
     return found.pop() if found else 1
 
 
+def take_laws(laws: tuple[_Law, ...], rows: NDArray[np.int_], size: int
+              ) -> tuple[_Law, ...]:
+    """Each of ``laws`` restricted to the given rows (:func:`take_rows`); a law shared by
+    several layers stays one shared law."""
+    taken: dict[int, _Law] = {}
+    for law in laws:
+        if id(law) not in taken:
+            taken[id(law)] = take_rows(law, rows, size)
+    return tuple(taken[id(law)] for law in laws)
+
+
 def take_rows(law: _Law, rows: NDArray[np.int_], size: int) -> _Law:
     """The same law restricted to the given rows of a batch of ``size`` sections
     (parameters that do not vary by row are kept as they are)."""

@@ -21,7 +21,7 @@ import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
 from clausewise.core.errors import SectionError
-from clausewise.core.laws import SteelLaw, law_size, stack_laws, take_rows
+from clausewise.core.laws import SteelLaw, law_size, stack_laws, take_laws
 
 Array = NDArray[np.float64]
 
@@ -189,12 +189,8 @@ class SectionArrays:
 
     def take(self, rows: NDArray[np.int_]) -> SectionArrays:
         """The sections at the given row indices, as a smaller batch."""
-        taken: dict[int, SteelLaw] = {}  # a law shared by layers stays shared
-        for law in self.steel:
-            if id(law) not in taken:
-                taken[id(law)] = take_rows(law, rows, self.size)
         return SectionArrays(self.edges[rows], self.widths[rows], self.areas[rows],
-                             self.depths[rows], tuple(taken[id(law)] for law in self.steel),
+                             self.depths[rows], take_laws(self.steel, rows, self.size),
                              self.labels, validate=False)
 
     @classmethod

@@ -31,6 +31,7 @@ from clausewise.core.laws import (
     PiecewiseLinear,
     SteelLaw,
     law_size,
+    take_laws,
     take_rows,
 )
 from clausewise.core.section import Section, SectionArrays
@@ -88,13 +89,9 @@ class _Columns:
 
     def take(self, rows: NDArray[np.int_]) -> _Columns:
         """The sections at the given indices; a law shared by layers stays shared."""
-        taken: dict[int, SteelLaw] = {}
-        for law in self.steel:
-            if id(law) not in taken:
-                taken[id(law)] = take_rows(law, rows, self.size)
         return _Columns(self.depths[:, rows], self.areas[:, rows], self.widths[:, rows],
                         self.tops[:, rows], self.bottoms[:, rows],
-                        tuple(taken[id(law)] for law in self.steel), rows.size)
+                        take_laws(self.steel, rows, self.size), rows.size)
 
 
 def _steel_stress(cols: _Columns, strain: Array) -> Array:

@@ -248,13 +248,18 @@ def _beam_starts(text: str) -> list[int]:
         m.start() + 1 for m in _NEXT_BEAM_TABLE.finditer(text)]
 
 
-def _head(text: str, starts: list[int], source: str) -> dict[str, Any] | None:
-    """The tables before the first [[beam]], or None when they cannot be read apart."""
+def _starts_and_head(text: str, source: str) -> tuple[list[int], dict[str, Any]] | None:
+    """Where each [[beam]] table of a file of more than ``CHUNK`` beams starts, and the
+    tables before the first; None for a smaller file, or a head that cannot be read
+    apart."""
+    starts = _beam_starts(text)
+    if len(starts) <= CHUNK:
+        return None
     try:
         head = _toml_loads(text[:starts[0]], source)
     except InputError:
         return None
-    return None if "beam" in head else head
+    return None if "beam" in head else (starts, head)
 
 
 def _chunk_tables(text: str, source: str, starts: list[int], end: int
@@ -275,12 +280,10 @@ def _beam_chunks(text: str, source: str) -> tuple[dict[str, Any], Iterator[list[
     """The tables before the first [[beam]], and the [[beam]] tables ``CHUNK`` at a time,
     for a file of more than ``CHUNK`` beams: the parsed tree of a large schedule is many
     times the size of its beams, so it is never held whole. None for a smaller file."""
-    starts = _beam_starts(text)
-    if len(starts) <= CHUNK:
+    found = _starts_and_head(text, source)
+    if found is None:
         return None
-    head = _head(text, starts, source)
-    if head is None:
-        return None
+    starts, head = found
     return head, _chunk_tables(text, source, starts, len(text))
 
 
@@ -330,12 +333,10 @@ def beam_tables(text: str, source: str) -> BeamTables | None:
     apart, one with a table after the beams (the head is then not all of the project and
     run), or whose project or run table has problems (a whole reading reports them with
     the beams')."""
-    starts = _beam_starts(text)
-    if len(starts) <= CHUNK:
+    found = _starts_and_head(text, source)
+    if found is None:
         return None
-    head = _head(text, starts, source)
-    if head is None:
-        return None
+    starts, head = found
     try:
         last = _toml_loads(text[starts[-1]:], source)
     except InputError:
