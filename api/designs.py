@@ -240,15 +240,15 @@ def _bars_cell(a: Any, us: bool = False) -> str:
     text += f"\nd = {_depths(a.depths, us)}"
     if a.compression is not None:
         size, n, depth = a.compression
-        text += f"\ntop {bars_text(n, size)}\nd' = {_depths([depth], us)}"
+        text += f"\ncompression {bars_text(n, size)}\nd' = {_depths([depth], us)}"
     return text
 
 
 # --- the figure -----------------------------------------------------------------------------
 
 def design_figure(d: Design, beam: Any) -> Any:
-    """The section with the chosen bars drawn where they sit (to scale, slab on top as in
-    the check figures), the stirrup outline, and the design's numbers."""
+    """The section with the chosen bars drawn where they sit (to scale, the soffit at the
+    bottom as in the check figures), the stirrup outline, and the design's numbers."""
     from matplotlib.patches import Circle, Rectangle
 
     from clausewise import figures
@@ -266,7 +266,7 @@ def design_figure(d: Design, beam: Any) -> Any:
     figure = figures.Figure(figsize=(5.0, 5.0))
     ax = figure.add_axes((0.08, 0.12, 0.84, 0.74))
 
-    def y(depth: float) -> float:  # height above the soffit, slab on top
+    def y(depth: float) -> float:  # height above the soffit
         return depth if hogging else h - depth
 
     ax.add_patch(Rectangle((-bw / 2, 0.0), bw, h, facecolor=figures.CONCRETE,
@@ -274,7 +274,8 @@ def design_figure(d: Design, beam: Any) -> Any:
     if flange > bw:
         hf = float(beam.flange_thickness)
         left = -bw / 2 if beam.shape.value == "L" else -flange / 2
-        ax.add_patch(Rectangle((left, h - hf), flange, hf, facecolor=figures.CONCRETE,
+        bottom = 0.0 if beam.flange_at_soffit else h - hf  # an inverted T's flange is below
+        ax.add_patch(Rectangle((left, bottom), flange, hf, facecolor=figures.CONCRETE,
                                edgecolor="black", lw=1.0))
     inset = a.edge - float(stirrup_diameter(beam)) / 2  # the stirrup's centre line
     ax.add_patch(Rectangle((-bw / 2 + inset, inset), bw - 2 * inset, h - 2 * inset,

@@ -438,9 +438,30 @@ def status_counts(outcomes: Sequence[Outcome], editions: Sequence[str]) -> Rende
 
 # --- editions side by side -------------------------------------------------------------------
 
-def _cell(outcome: Outcome | None, percent: bool = False) -> Text:
-    """Utilisation, a status mark and the governing check's code: ``0.85✓M`` (or
-    ``85✓M`` in per cent, where the width is short)."""
+def governing_codes(outcomes: Sequence[Outcome | None]) -> dict[tuple[str, bool], str]:
+    """The code of each governing check (by name, and whether it is a scope check) among
+    ``outcomes``, distinct: two checks whose names give the same code ("bars in tension
+    layer 1" and "... layer 2") are told apart by a number (``bit``, ``bit2``)."""
+    codes: dict[tuple[str, bool], str] = {}
+    taken: set[str] = set()
+    for o in outcomes:
+        check, proper = _governing(o) if o is not None else (None, True)
+        if check is None or (check.name, proper) in codes:
+            continue
+        base = code = check_code(check, proper)
+        number = 1
+        while code in taken:
+            number += 1
+            code = f"{base}{number}"
+        taken.add(code)
+        codes[check.name, proper] = code
+    return codes
+
+
+def _cell(outcome: Outcome | None, codes: dict[tuple[str, bool], str],
+          percent: bool = False) -> Text:
+    """Utilisation, a status mark and the governing check's code (one of ``codes``):
+    ``0.85✓M`` (or ``85✓M`` in per cent, where the width is short)."""
     if outcome is None:
         return Text("—", style="dim")
     status = outcome.status
@@ -457,7 +478,7 @@ def _cell(outcome: Outcome | None, percent: bool = False) -> Text:
         shown = f"{u:.2f}" if u < 10 else f"{u:.1f}" if u < 100 else ">99"
     text = Text(shown)
     text.append(STATUS_MARK.get(status, "?"), style=style)
-    text.append(check_code(check, proper), style="italic")
+    text.append(codes[check.name, proper], style="italic")
     return text
 
 
@@ -499,20 +520,19 @@ class EntryLines:
             yield Text(line, style=self.style)
 
 
-def _legend(outcomes: Sequence[Outcome], keys: dict[str, str], percent: bool = False
-            ) -> Group:
+def _legend(outcomes: Sequence[Outcome], keys: dict[str, str],
+            codes: dict[tuple[str, bool], str], percent: bool = False) -> Group:
     """What the marks, codes and column keys of the comparison mean."""
     statuses = dict.fromkeys(o.status for o in outcomes)
     parts: list[RenderableType] = [EntryLines(
         "marks:", [f"{STATUS_MARK.get(s, '?')} {s}" for s in statuses])]
-    codes: dict[str, str] = {}
-    for o in outcomes:
-        check, proper = _governing(o)
-        if check is not None:
-            codes.setdefault(check_code(check, proper),
-                             check.name if proper else "a scope check (outside scope)")
-    if codes:
-        parts.append(EntryLines("governing check:", [f"{c} {n}" for c, n in codes.items()]))
+    named = {code: name if proper else "a scope check (outside scope)"
+             for (name, proper), code in codes.items()}
+    if named:
+        parts.append(EntryLines("governing check:", [f"{c} {n}" for c, n in named.items()]))
+    if ERROR in statuses:
+        parts.append(Text(f"{STATUS_MARK[ERROR]}: the edition could not assess the beam; "
+                          "--details gives the reason", style="dim"))
     if keys:
         parts.append(EntryLines("editions:", [f"{k} {e}" for e, k in keys.items()]))
     parts.append(Text(f"cells: governing utilisation{' in per cent' if percent else ''}, "
@@ -546,9 +566,11 @@ def comparison_table(outcomes: Sequence[Outcome], editions: Sequence[str]) -> Re
     statuses = [s for s in STATUS_MARK if any(o.status == s for o in outcomes)]
     counts = {s: Counter(o.edition for o in outcomes if o.status == s) for s in statuses}
     beam_width = max([6, *(len(b) for b in by_beam)])
+    codes = governing_codes(outcomes)
 
     def cells(percent: bool) -> dict[str, list[Text]]:
-        return {e: [_cell(row.get(e), percent) for row in by_beam.values()] for e in editions}
+        return {e: [_cell(row.get(e), codes, percent) for row in by_beam.values()]
+                for e in editions}
 
     def widths(table: dict[str, list[Text]], keys: dict[str, str]) -> dict[str, int]:
         return {e: max([len(keys.get(e, e)), *(c.cell_len for c in column),
@@ -587,7 +609,7 @@ def comparison_table(outcomes: Sequence[Outcome], editions: Sequence[str]) -> Re
                              *(Text(str(counts[s][e]) if counts[s][e] else "·")
                                for e in block))
             parts.append(grid)
-        return Group(*parts, _legend(outcomes, keys, percent))
+        return Group(*parts, _legend(outcomes, keys, codes, percent))
 
     return ByWidth(build)
 
@@ -729,7 +751,8 @@ def causes(before: Outcome, after: Outcome, threshold: float, limits: bool = Tru
         if (vb, va, unit) in seen:
             continue
         seen.add((vb, va, unit))
-        if (sets or limits) and (abs(change) > threshold or nb != na):
+        # a driver named otherwise (b_eff, bf) but of the same value drives nothing
+        if (sets or limits) and (abs(change) > threshold or (nb != na and vb != va)):
             name = nb if nb == na else f"{nb} → {na}"
             percent = f" ({change:+.0%})" if math.isfinite(change) and change else ""
             moved.append((abs(change) if math.isfinite(change) else 1e300,
@@ -772,6 +795,11 @@ def migration(outcomes: Sequence[Outcome], source: str, target: str,
     return changes
 
 
+def _percent(fraction: float) -> str:
+    """A threshold as the user gave it in per cent: 2 %, 0.5 %, 0.25 %."""
+    return f"{100 * fraction:.4g}%"
+
+
 def migration_report(schedule: Schedule, outcomes: Sequence[Outcome], source: str,
                      target: str, threshold: float) -> Group:
     """Only the beams that change from one edition to the other, with the drivers."""
@@ -783,8 +811,11 @@ def migration_report(schedule: Schedule, outcomes: Sequence[Outcome], source: st
     if schedule.problems:
         parts.append(problems_table(schedule.problems))
     beams = len(_by_beam(outcomes))
+    shown_outcomes = [x for c in changes for x in (c.before, c.after)]
+    codes = governing_codes(shown_outcomes)
     table = Table(title=f"{len(changes)} of {beams} beams change (status, governing check, "
-                  f"or design resistance by more than {threshold:.0%})", title_justify="left",
+                  f"or design resistance by more than {_percent(threshold)})",
+                  title_justify="left",
                   title_style="bold", box=box.SIMPLE_HEAD, pad_edge=False, show_lines=True)
     table.add_column("beam", no_wrap=True)
     table.add_column(source, no_wrap=True)
@@ -794,13 +825,14 @@ def migration_report(schedule: Schedule, outcomes: Sequence[Outcome], source: st
         text = Text("; ".join(c.what), style="bold")
         for cause in c.causes:
             text.append(f"\n· {cause}")
-        _row(table, Text(c.beam, style="bold"), _cell(c.before), _cell(c.after), text)
+        _row(table, Text(c.beam, style="bold"), _cell(c.before, codes), _cell(c.after, codes),
+             text)
     keys: dict[str, str] = {}
     shown: RenderableType = table if changes else Text(
         f"No beam of {beams} changes status, governing check or design resistance by more "
-        f"than {threshold:.0%} from {source} to {target}.", style="bold")
-    parts += [shown, _legend([x for c in changes for x in (c.before, c.after)] or outcomes,
-                             keys), Text(same_cylinder(outcomes), style="dim"), caution()]
+        f"than {_percent(threshold)} from {source} to {target}.", style="bold")
+    parts += [shown, _legend(shown_outcomes or outcomes, keys, codes),
+              Text(same_cylinder(outcomes), style="dim"), caution()]
     return Group(*parts)
 
 

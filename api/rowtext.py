@@ -6,8 +6,11 @@ value for every row goes into a line template as text, the numbers are formatted
 that template, and the constant end of a line is joined on, so a row costs one C-level
 ``%`` instead of a Python call per field. The text is byte for byte what
 ``csv.writer`` (minimal quoting, ``"\\n"`` lines) and ``json.dumps`` write for the same
-rows of strings: a text that needs quoting or escaping is encoded by those very
-functions, and only a text without any character they act on is written as it is.
+rows: a text that needs quoting or escaping is encoded by those very functions, and
+only a text without any character they act on is written as it is. Numbers are their
+``%g`` text in both; in JSON Lines that is a JSON number (``null`` where there is none,
+or it is not finite, which JSON cannot hold), the value ``json.dumps`` would write for
+the number that text stands for.
 """
 
 from __future__ import annotations
@@ -44,6 +47,8 @@ class LineFormat:
     separator = ","
     closing = "\n"
     plain_field = "%s"  # a text with no special character, as it is written
+    no_number = ""  # the field of a missing number
+    finite_only = False  # whether inf is a missing number too (JSON has no inf)
 
     def __init__(self, names: Sequence[str]) -> None:
         self.labels = [self.label(name) for name in names]
@@ -119,17 +124,17 @@ class LineFormat:
         if values.shape != (size,):
             raise ValueError(f"a column of {values.shape} numbers in a table of {size}")
         spec = f"%.{column.digits}g"
-        blank = np.isnan(values)
+        blank = ~np.isfinite(values) if self.finite_only else np.isnan(values)
         if not blank.any():  # %g text is digits, '.', '-', '+', 'e', 'inf': always plain
             if (values == values[0]).all():
-                return self.plain_field % (spec % values[0]), None
-            return self.plain_field % spec, values.tolist()
+                return spec % values[0], None
+            return spec, values.tolist()
         if blank.all():
-            return self.encoded(""), None
+            return self.no_number, None
         texts = list(map(spec.__mod__, values.tolist()))
         for i in np.flatnonzero(blank).tolist():
-            texts[i] = ""
-        return self.plain_field, texts
+            texts[i] = self.no_number
+        return "%s", texts
 
 
 _CSV_SPECIAL = ',"\r\n'
@@ -172,6 +177,8 @@ class JsonLines(LineFormat):
     separator = ", "
     closing = "}\n"
     plain_field = '"%s"'
+    no_number = "null"
+    finite_only = True
 
     def __init__(self, names: Sequence[str]) -> None:
         if len(set(names)) != len(names):

@@ -11,6 +11,7 @@ from __future__ import annotations
 import csv
 import heapq
 import json
+import math
 import time
 from collections import Counter
 from collections.abc import Callable, Sequence
@@ -21,11 +22,11 @@ import numpy as np
 
 from clausewise.provisions.batch import CHUNK, BatchTable, iter_assess_many
 from clausewise.provisions.beam import UnitSystem
-from clausewise.provisions.engine import CAUTION
+from clausewise.provisions.engine import CAPACITY_ONLY, CAUTION, FAIL, PASS
 from clausewise.provisions.registry import Edition
 from clausewise.results.display import scale
 from clausewise.results.records import units_table
-from clausewise.results.writers import result_columns
+from clausewise.results.writers import NUMBER_COLUMNS, result_columns
 from clausewise.rowtext import Column, CsvLines, JsonLines, Numbers
 
 if TYPE_CHECKING:
@@ -103,6 +104,33 @@ def _numbers(values: Any, factor: float = 1.0, digits: int = 6) -> Numbers:
     return Numbers(np.asarray(values, float) * factor, digits)
 
 
+_VERDICTS = {PASS: "passes", CAPACITY_ONLY: "capacity only (no actions given)"}
+
+
+def row_summaries(table: BatchTable) -> list[str]:
+    """Each row's one line on what governs, as ``check`` writes it: the verdict, the
+    governing check with its clause and utilisation; else why there is none (outside
+    scope, no equilibrium, an error, no actions)."""
+    heads: dict[tuple[str, str, str], str] = {}  # the text before the utilisation, made once
+    lines = []
+    for status, check, clause, utilisation, message in zip(
+            table.status.tolist(), table.governing_check.tolist(),
+            table.governing_clause.tolist(), table.governing_utilisation.tolist(),
+            table.message.tolist(), strict=True):
+        if message or status not in (PASS, FAIL, CAPACITY_ONLY):
+            lines.append(message)
+        elif not check:
+            lines.append("capacity only: no actions given")
+        else:
+            head = heads.get((status, check, clause))
+            if head is None:
+                head = heads[status, check, clause] = (
+                    f"{_VERDICTS.get(status, 'fails')}; governed by {check} ({clause}) at "
+                    "utilisation ")
+            lines.append(f"{head}{utilisation:.3f}")
+    return lines
+
+
 def table_columns(table: BatchTable, system: UnitSystem = UnitSystem.SI,
                   situation: str = "persistent", stack: str = "") -> list[Column]:
     """The columns of ``result_columns`` (the same as check's CSV) for every beam of a
@@ -124,8 +152,18 @@ def table_columns(table: BatchTable, system: UnitSystem = UnitSystem.SI,
         _numbers(table.effective_width, length), candidates(width_key),
         candidates(demand_key), _numbers(table.neutral_axis, length),
         _numbers(table.net_tensile_strain), table.regime.tolist(),
-        table.block_case.tolist(), stack, table.message.tolist(), CAUTION,
+        table.block_case.tolist(), stack, row_summaries(table), CAUTION,
     ]
+
+
+def json_numbers(row: Sequence[str]) -> list[Any]:
+    """A row of texts with its number columns as floats, None where there is none or
+    the number is not finite (JSON has neither NaN nor inf)."""
+    values: list[Any] = list(row)
+    for i in NUMBER_COLUMNS:
+        number = float(values[i]) if values[i] != "" else math.nan
+        values[i] = number if math.isfinite(number) else None
+    return values
 
 
 class RowWriter:
@@ -147,11 +185,13 @@ class RowWriter:
         self.line_format = (CsvLines if kind == "csv" else JsonLines)(self.columns)
 
     def write(self, rows: Sequence[Sequence[str]]) -> None:
+        """Rows of texts; in JSON Lines the number columns' texts ("" for none) are
+        written as the numbers they stand for (null for none)."""
         if self.kind == "csv":
             self.csv.writerows(rows)
         else:
-            self.out.write("".join(json.dumps(dict(zip(self.columns, r, strict=True))) + "\n"
-                                   for r in rows))
+            self.out.write("".join(json.dumps(dict(zip(self.columns, json_numbers(r),
+                                                       strict=True))) + "\n" for r in rows))
         self.out.flush()
 
     def write_columns(self, columns: Sequence[Column], size: int) -> None:

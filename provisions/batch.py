@@ -27,11 +27,11 @@ import numpy as np
 from numpy.typing import NDArray
 
 from clausewise.core.errors import ClausewiseError
+from clausewise.core.solver import OK, STATUS_TEXT
 from clausewise.provisions.beam import NAMES, Beam, Context, field_roles, kind_of, number_fields
 from clausewise.provisions.engine import evaluate, resolve_form
 from clausewise.provisions.registry import Edition, Registry, default_registry
 from clausewise.provisions.verdicts import ERROR, governing, status
-from clausewise.provisions.vocabulary import choose
 
 CHUNK = 20_000
 """Beams run at a time through one edition. The arrays of a chunk this size stay in the
@@ -280,8 +280,23 @@ def _scope_table(edition: Edition, ids: Sequence[str], form: str, checks: Sequen
     table.status[:] = status(in_scope=in_scope, equilibrium=True, checks=(),
                              has_demand=True)  # the rows in scope are filled in later
     _record_checks(table, checks)
-    table.message[:] = choose(in_scope, "", "outside the edition's scope")
+    table.message[:] = _scope_messages(edition.id, checks, in_scope)
     return table
+
+
+def _scope_messages(edition_id: str, checks: Sequence[Any], in_scope: NDArray[np.bool_]
+                    ) -> NDArray[np.object_]:
+    """Per beam, "" in scope, else the scope checks it fails, as the audited summary
+    names them; one text per pattern of failures, made once."""
+    pattern = np.zeros(in_scope.size, dtype=np.int64)
+    for j, c in enumerate(checks):
+        pattern |= np.where(np.asarray(c.passed, dtype=bool), 0, 1 << j)
+    texts = {}
+    for code in np.unique(pattern[~in_scope]).tolist():
+        failed = [f"{c.name} ({c.clause.ref})" for j, c in enumerate(checks) if code >> j & 1]
+        texts[code] = f"outside the scope of {edition_id}: " + "; ".join(failed)
+    return np.array([texts[p] if not ok else "" for p, ok in
+                     zip(pattern.tolist(), in_scope.tolist(), strict=True)], dtype=object)
 
 
 def _record_checks(table: BatchTable, checks: Sequence[Any]) -> None:
@@ -336,12 +351,22 @@ def _group_table(edition: Edition, batch: Beam, ids: Sequence[str],
         governing_utilisation=_floats(np.nan, m),
         utilisation={c.name: _floats(c.utilisation, n)[rows] for c in scope_checks},
         governing_candidate={e.name: _labels(e, m) for e in (width, demand) if e is not None},
-        message=_texts(choose(equilibrium, "", "no equilibrium within the laws' limits"), m))
+        message=_equilibrium_messages(resp.status))
     _record_checks(part, ev.checks)
     if table is None:
         return part
     table.fill(rows, part)
     return table
+
+
+_SOLVER_TEXTS = np.array(["" if code == OK else STATUS_TEXT[code]
+                          for code in range(max(STATUS_TEXT) + 1)], dtype=object)
+
+
+def _equilibrium_messages(solver_status: NDArray[np.int_]) -> NDArray[np.object_]:
+    """"" where the section is in equilibrium, else the solver's reason, as the audited
+    response words it."""
+    return _SOLVER_TEXTS[solver_status]
 
 
 def _labels(envelope: Any, n: int) -> NDArray[np.str_]:

@@ -33,8 +33,11 @@ class Shape(StrEnum):
 
 
 class Bending(StrEnum):
-    SAGGING = "sagging"  # compression on the slab (top) face
-    HOGGING = "hogging"  # compression on the soffit: the web is compressed, the slab in tension
+    """The sense of the moment: sagging in a span (compression at the top face), hogging
+    over a support or in a cantilever (compression at the soffit)."""
+
+    SAGGING = "sagging"
+    HOGGING = "hogging"
 
 
 class Continuity(StrEnum):
@@ -157,6 +160,7 @@ class Beam:
     unit_system: UnitSystem = UnitSystem.SI
     statically_determinate: bool = False
     isolated: bool = False  # a T whose flange is not part of a slab
+    flange_at_soffit: bool = False  # an inverted T: the flange at the bottom face
     title: str = ""
     # detailing inputs (mm); None: the stated defaults of clausewise.provisions.detailing
     cover: Value | None = None  # clear cover to the stirrups (links)
@@ -170,7 +174,9 @@ class Beam:
 
     @property
     def flange_in_compression(self) -> bool:
-        return self.flanged and self.bending is Bending.SAGGING
+        """Sagging compresses the top face, hogging the soffit: the flange is in
+        compression where it sits on that face."""
+        return self.flanged and (self.bending is Bending.SAGGING) != self.flange_at_soffit
 
     @cached_property
     def size(self) -> int:

@@ -12,6 +12,7 @@ from scipy.integrate import quad
 from scipy.optimize import brentq
 
 import clausewise.provisions
+from clausewise.beamfile import parse_schedule
 from clausewise.plugins import en1992_1_1_2004 as ec2
 from clausewise.provisions import (
     Actions,
@@ -498,3 +499,41 @@ def test_batch_equals_single_beams(edition, edition_with, options):
         same(c.limit, [s.checks[j].limit for s in singles])
     for j, f in enumerate(batch.concrete.factors):
         same(np.broadcast_to(f.value, 4), [s.concrete_factors[j].value for s in singles])
+
+
+INVERTED_T = """
+[[beam]]
+id = "{id}"
+shape = "{shape}"
+bending = "sagging"
+web_width = "350 mm"
+overall_depth = "650 mm"
+slab_thickness = "200 mm"
+concrete_strength = "30 MPa"
+yield_strength = "500 MPa"
+tension = [{{ area = "1963 mm2", depth = "{depth} mm" }}]
+
+[beam.floor]
+span = "6500 mm"
+continuity = "simple"
+clear_left = "3000 mm"
+clear_right = "3000 mm"
+"""
+
+
+def test_an_inverted_tee_in_a_span_takes_the_span_s_width_with_its_flange_in_tension(edition):
+    """An inverted T in sagging is in a span: l0 = l, as for a T in sagging (Figure 5.2,
+    from memory), not the 0.15 (l1 + l2) of a support; its flange is the tension zone,
+    so bt for minimum steel is that width (9.2.1.1(1), from memory)."""
+    inverted = parse_schedule(INVERTED_T.format(id="V1", shape="inverted T", depth=590),
+                              "v.toml").entries[0].beam
+    tee = parse_schedule(INVERTED_T.format(id="V2", shape="T", depth=590),
+                         "v.toml").entries[0].beam
+    beff = 350 + 2 * min(0.2 * 1500 + 0.1 * 6500, 0.2 * 6500, 1500)  # 2250 mm
+    a, b = assess(inverted, edition), assess(tee, edition)
+    assert a.effective_width.value == pytest.approx(beff, rel=1e-12)
+    assert b.effective_width.value == pytest.approx(beff, rel=1e-12)
+    fctm = 0.30 * 30.0 ** (2 / 3)
+    assert check(a, "As").limit == pytest.approx(0.26 * fctm / 500 * beff * 590, rel=1e-12)
+    assert check(a, "As").passed is False  # 1963 mm² < 2087 mm²
+    assert check(b, "As").limit == pytest.approx(0.26 * fctm / 500 * 350 * 590, rel=1e-12)

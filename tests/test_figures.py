@@ -282,3 +282,43 @@ def test_the_bar_chart_keeps_an_edition_that_refused_the_beam(outcomes):
     notes = [t.get_text() for t in ax.texts]
     assert any(n.startswith("refused: not assessed") for n in notes)
     assert "refused: outside scope" in notes
+
+
+INVERTED = """
+[[beam]]
+id = "K-4"
+shape = "inverted T"
+bending = "{bending}"
+web_width = "300 mm"
+overall_depth = "600 mm"
+slab_thickness = "150 mm"
+effective_flange_width = "900 mm"
+concrete_strength = "30 MPa"
+yield_strength = "420 MPa"
+tension = [{{ area = "1500 mm2", depth = "540 mm" }}]
+moments = {{ factored = "100 kN m" }}
+"""
+
+
+@pytest.mark.parametrize("bending", ["sagging", "hogging"])
+def test_an_inverted_tee_is_drawn_with_its_flange_at_the_soffit(bending):
+    """The ledge of an inverted T is at the bottom whichever way it bends: in tension in
+    sagging (the block in the web at the top), in compression in hogging (the block in
+    the flange at the soffit); ACI 318-19 block a = As fy / (0.85 f'c b), from memory."""
+    schedule = parse_schedule(INVERTED.format(bending=bending), "ledger.toml")
+    [outcome] = run(schedule, [default_registry().edition("aci318-19")], None, "persistent")
+    section = drawn(outcome).axes[0]
+    flange = max(rectangles(section, figs.CONCRETE), key=lambda p: p.get_width())
+    assert flange.get_width() == pytest.approx(900)
+    assert flange.get_y() == pytest.approx(0, abs=1e-9)  # on the soffit
+    assert flange.get_height() == pytest.approx(150)
+    [zone] = rectangles(section, ZONE)
+    if bending == "sagging":  # compression at the top, in the 300 mm web
+        a = 1500 * 420 / (0.85 * 30 * 300)
+        assert zone.get_y() + zone.get_height() == pytest.approx(600)
+        assert zone.get_width() == pytest.approx(300)
+    else:  # compression at the soffit, in the 900 mm flange
+        a = 1500 * 420 / (0.85 * 30 * 900)
+        assert zone.get_y() == pytest.approx(0, abs=1e-9)
+        assert zone.get_width() == pytest.approx(900)
+    assert zone.get_height() == pytest.approx(a)

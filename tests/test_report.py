@@ -286,3 +286,24 @@ def test_csv_row_is_flat_and_in_the_units_asked_for(outcomes):
     assert own["M_Rd_kip_ft"] == pytest.approx(
         o.assessment.design_resistance.value / KIPFT_IN_NMM, rel=1e-6)
     assert own["b_eff_in"] is None or own["b_eff_in"] > 0
+
+
+def test_two_checks_whose_names_give_one_code_get_distinct_codes_in_cells_and_legend():
+    """"bars in tension layer 1" and "... layer 2" both shorten to "bit": the comparison
+    must not let one code stand for two checks (a checker reads the legend)."""
+    from dataclasses import replace
+
+    schedule = parse_schedule(SCHEDULE, "depot.toml")
+    registry = default_registry()
+    outcomes = [o for o in run(schedule, [registry.edition("aci318-19")], None,
+                               "persistent") if o.assessment is not None and o.assessment.checks]
+    first, second = outcomes[:2]
+    renamed = []
+    for outcome, name in ((first, "bars in tension layer 1"), (second, "bars in tension layer 2")):
+        a = outcome.assessment
+        worst = a.governing
+        checks = tuple(replace(c, name=name) if c is worst else c for c in a.checks)
+        renamed.append(replace(outcome, assessment=replace(a, checks=checks)))
+    text = render(comparison_report(schedule, renamed, ["aci318-19"]), 120)
+    assert "bit bars in tension layer 1" in text and "bit2 bars in tension layer 2" in text
+    assert re.search(r"\d\.\d\d[✓✗○]bit\b", text) and re.search(r"\d\.\d\d[✓✗○]bit2\b", text)

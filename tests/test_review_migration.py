@@ -4,6 +4,7 @@ the editions' differently named factors alone never showed."""
 
 from __future__ import annotations
 
+import re
 from pathlib import Path
 
 from clausewise.cli import main
@@ -30,3 +31,15 @@ def test_no_change_says_so_instead_of_an_empty_table(monkeypatch, capsys):
     out = " ".join(capsys.readouterr().out.split())
     assert "No beam of 14 changes" in out
     assert "what changes, and the drivers" not in out
+
+
+def test_a_threshold_below_one_per_cent_is_shown_as_given_and_equal_drivers_are_left_out(
+        monkeypatch, capsys):
+    monkeypatch.setenv("COLUMNS", "120")
+    main(["compare", str(DEMO), "--from", "en1992-1-1:2004", "--to", "is456:2000",
+          "--threshold", "0.5"])
+    out = " ".join(capsys.readouterr().out.split())
+    assert "by more than 0.5%" in out
+    # a driver whose value is the same on both sides does not drive the change, even
+    # when the editions name it otherwise (b_eff, bf)
+    assert not re.search(r"→ \w+ (\d[\d.]*) mm → \1 mm", out)

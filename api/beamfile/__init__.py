@@ -14,10 +14,10 @@ Conventions a user must know (also in ``fixtures/demo/README.md``):
   soffit in hogging. ``centroid_from_face`` is the other way of placing a layer:
   the distance from the face the layer lies near (the tension face for tension
   steel, the compression face for compression steel) to the layer's centroid.
-- ``shape = "inverted T"`` has its flange at the soffit. In sagging the flange
-  is in tension: that is the geometry of a T in hogging, so it maps to
-  ``Shape.TEE`` with ``Bending.HOGGING`` (flange on the tension side); an
-  inverted T in hogging has its flange in compression and maps to a T in sagging.
+- ``shape = "inverted T"`` has its flange at the soffit: ``Shape.TEE`` with
+  ``flange_at_soffit``. The bending stays as given, since the rules need the moment's
+  sense (a span or a support) as well as which face the flange is on: in sagging the
+  flange is in tension, in hogging in compression.
 - ``statically_determinate`` defaults to true for a simple span, a cantilever, and a beam
   given without a floor (the side on which minimum steel is larger).
 - Each quantity has a plausible range for a building beam (``models.PLAUSIBLE``, stated

@@ -38,7 +38,6 @@ _KINDS = {"mm": LENGTH, "mm²": AREA, "MPa": STRESS, "kN m": MOMENT}
 
 _SHAPES = {"T": Shape.TEE, "L": Shape.ELL, "rectangular": Shape.RECTANGLE,
            "inverted T": Shape.TEE}
-_FLIPPED = {Bending.SAGGING: Bending.HOGGING, Bending.HOGGING: Bending.SAGGING}
 # enum members by value: a dict lookup is far cheaper than calling the enum per beam
 _BENDINGS = {b.value: b for b in Bending}
 _BASES = {b.value: b for b in StrengthBasis}
@@ -360,10 +359,9 @@ class _BeamReader:
             self.shown["isolated T"] = "yes: the flange is not part of a slab"
         if self.problems or bw is None or h is None or fc is None or fy is None:
             return None
-        bending = _BENDINGS[m.bending]
         return Beam(
-            id=m.id, shape=_SHAPES[m.shape],
-            bending=_FLIPPED[bending] if m.shape == "inverted T" else bending,
+            id=m.id, shape=_SHAPES[m.shape], bending=_BENDINGS[m.bending],
+            flange_at_soffit=m.shape == "inverted T",
             web_width=bw[0], depth=h[0], concrete_strength=fc[0], yield_strength=fy[0],
             tension=tuple(tension), compression=tuple(compression),
             flange_thickness=_v(hf), flange_width=_v(bf), layout=layout,

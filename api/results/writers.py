@@ -46,6 +46,11 @@ def result_columns(units: dict[str, str]) -> tuple[str, ...]:
             "stack", "summary", "caution")
 
 
+NUMBER_COLUMNS = (5, 8, 9, 10, 11, 12, 15, 16)
+"""The positions in :func:`result_columns` of the columns that hold numbers (JSON Lines
+write them as JSON numbers)."""
+
+
 def csv_row(rec: dict[str, Any]) -> dict[str, Any]:
     """One result record as a flat CSV row (None where a value does not exist)."""
     governing = rec.get("governing_check") or {}

@@ -7,7 +7,9 @@ editions); then, for CSV and JSON Lines, the rows are written to a file the form
 way (one Python ``format`` per number, rows zipped, ``csv.writer.writerows`` or
 ``json.dumps`` of a dict per row; the summary counted through ``np.unique``) and the
 current way (``table_columns`` and ``RowWriter.write_columns``; ``Summary.add``). CPU
-time of this process, best of ``--repeat``; the two files must be byte for byte equal.
+time of this process, best of ``--repeat``; the two CSV files must be byte for byte
+equal, the two JSON Lines files line by line the same values (a number is written as its
+``%g`` text, which ``json.dumps`` of that number spells its own way: 1e+06, 1000000.0).
 """
 
 from __future__ import annotations
@@ -37,6 +39,9 @@ EDITIONS = ("aci318-11", "aci318-14", "aci318-19", "as3600:2018", "csa-a23.3:19"
             "en1992-1-1:2004", "is456:2000")
 SYSTEM = UnitSystem.SI
 SITUATION = "persistent"
+NUMBERS = {"utilisation", "M_Ed_kNm", "M_Rd_kNm", "Mn_kNm", "resistance_factor", "b_eff_mm",
+           "c_mm", "net_tensile_strain", "M_Ed_kip_ft", "M_Rd_kip_ft", "Mn_kip_ft", "b_eff_in",
+           "c_in"}  # the columns of numbers, by name
 
 
 # -- the former way, kept here as the reference ------------------------------------------
@@ -49,6 +54,45 @@ def former_numbers(values, factor=1.0, digits=6):
 
 def former_words(values):
     return [str(v) for v in values]
+
+
+def former_summaries(table):
+    """The one line check writes per beam and edition, row by row."""
+    lines = []
+    for i in range(table.size):
+        status, check, message = str(table.status[i]), str(table.governing_check[i]), \
+            str(table.message[i])
+        if message or status not in ("pass", "fail", "capacity only"):
+            lines.append(message)
+        elif not check:
+            lines.append("capacity only: no actions given")
+        else:
+            verdict = {"pass": "passes", "capacity only": "capacity only (no actions given)"
+                       }.get(status, "fails")
+            lines.append(f"{verdict}; governed by {check} ({table.governing_clause[i]}) at "
+                         f"utilisation {table.governing_utilisation[i]:.3f}")
+    return lines
+
+
+def former_json(columns, row):
+    """A row of texts as a JSON object, its number columns as numbers (None for none)."""
+    record = dict(zip(columns, row, strict=True))
+    for name in columns:
+        if name in NUMBERS:
+            number = float(record[name]) if record[name] else float("nan")
+            record[name] = number if np.isfinite(number) else None
+    return record
+
+
+def same_rows(kind, old_path, new_path):
+    """Whether two files of rows say the same: byte for byte for CSV, value for value
+    (and in the same order) for JSON Lines."""
+    if kind == "csv":
+        return old_path.read_bytes() == new_path.read_bytes()
+    old, new = (path.read_text(encoding="utf-8").splitlines() for path in (old_path, new_path))
+    return len(old) == len(new) and all(
+        list(json.loads(a).items()) == list(json.loads(b).items())
+        for a, b in zip(old, new, strict=True))
 
 
 def former_rows(table, system, situation, stack):
@@ -70,7 +114,7 @@ def former_rows(table, system, situation, stack):
         num(table.resistance_factor), num(table.effective_width, length),
         candidates(width_key), candidates(demand_key), num(table.neutral_axis, length),
         num(table.net_tensile_strain), words(table.regime), words(table.block_case),
-        [stack] * n, words(table.message), [CAUTION] * n,
+        [stack] * n, former_summaries(table), [CAUTION] * n,
     ]
     return list(zip(*columns, strict=True))
 
@@ -105,8 +149,7 @@ def former(tables, stacks, kind, path):
             if kind == "csv":
                 writer.writerows(rows)
             else:
-                out.write("".join(json.dumps(dict(zip(columns, r, strict=True))) + "\n"
-                                  for r in rows))
+                out.write("".join(json.dumps(former_json(columns, r)) + "\n" for r in rows))
             out.flush()
             former_summary_add(summary, table)
     return summary
@@ -160,7 +203,7 @@ def main() -> None:
             old_path, new_path = Path(folder, f"old.{kind}"), Path(folder, f"new.{kind}")
             old, old_summary = best(args.repeat, former, tables, stacks, kind, old_path)
             new, new_summary = best(args.repeat, current, tables, stacks, kind, new_path)
-            same = (old_path.read_bytes() == new_path.read_bytes()
+            same = (same_rows(kind, old_path, new_path)
                     and summary_text(old_summary) == summary_text(new_summary))
             print(f"{kind:12s} {old:9.3f} {new:10.3f} {new / old:7.2f} "
                   f"{new_path.stat().st_size / 1e6:6.1f}  {same}")
