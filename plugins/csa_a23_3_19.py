@@ -94,8 +94,12 @@ def edition_parameters(context: Context) -> Sequence[Parameter]:
                   "coefficient of √f'c/fy·bt·h", (0.1, 0.5)),
         Parameter("tension_flange_limit", 1.5,
                   clause("10.5.1.2", "bt of a flange in tension need not exceed 1.5bw"),
-                  "multiple of bw beyond which a tension flange does not add to bt "
-                  "(single web, from memory)", (1.0, 10.0)),
+                  "multiple of bw beyond which a tension flange on one side of the web "
+                  "does not add to bt (from memory)", (1.0, 10.0)),
+        Parameter("tension_flanges_limit", 2.5,
+                  clause("10.5.1.2", "bt of flanges in tension need not exceed 2.5bw"),
+                  "multiple of bw beyond which tension flanges on both sides of the web "
+                  "do not add to bt (from memory)", (1.0, 10.0)),
         Parameter("ductility_constant", 700.0, clause("10.5.2", "limit on c/d"),
                   "c/d at most k/(k + fy); k = εcu·Es = 700 MPa", (400.0, 1000.0), "MPa"),
         ratio_parameter(clause("-", "cylinder about 0.8 of cube strength: common practice, "
@@ -232,9 +236,11 @@ def minimum_reinforcement(beam: Beam, section: Any, response: Any, params: Param
                           context: Context) -> Sequence[Check]:
     fc, fy = cylinder_strength(beam, params).value, np.asarray(beam.yield_strength, float)
     if beam.flanged and not beam.flange_in_compression:
-        cap = params.value("tension_flange_limit")
+        sides = beam.slab_sides()
+        cap = params.value("tension_flange_limit" if sides == 1 else "tension_flanges_limit")
         bt = smallest_of(section.max_width, cap * np.asarray(beam.web_width, float))
-        note = f"bt = effective flange width in tension, at most {cap:g}bw"
+        where = "a flange on one side" if sides == 1 else "flanges on both sides"
+        note = f"bt = effective flange width in tension, at most {cap:g}bw for {where}"
     else:
         bt, note = np.asarray(beam.web_width, float), "bt = bw (tension zone in the web)"
     coefficient = params.value("min_steel_coefficient")

@@ -72,7 +72,7 @@ CONVERSION = clause("- (not IS 456 text)", "cube from cylinder strength by the c
 
 STEEL_KINDS = ("unstated", "hot-rolled", "cold-worked", "mild")
 
-# Fig. 23B design curve of cold-worked bars: stress as a fraction of fy/γm at an
+# Fig. 23A design curve of cold-worked bars: stress as a fraction of fy/γm at an
 # inelastic strain; total strain = stress/Es + inelastic strain (38.1(e), from memory)
 FIG23_STRESS = (0.80, 0.85, 0.90, 0.95, 0.975, 1.0)
 FIG23_INELASTIC = (0.0, 0.0001, 0.0003, 0.0007, 0.0010, 0.0020)
@@ -132,7 +132,7 @@ def edition_parameters(context: Context) -> Sequence[Parameter]:
                   (0.0, 0.01)),
         Parameter("steel_modulus", 200_000.0, clause("5.6.3", "modulus of reinforcement"),
                   "200 kN/mm²", (150_000.0, 210_000.0), "MPa"),
-        Parameter("mild_steel_fy", 250.0, clause("38.1(e)", "mild steel, Fig. 23A"),
+        Parameter("mild_steel_fy", 250.0, clause("38.1(e)", "mild steel, Fig. 23B"),
                   "yield strength up to which bars are mild steel by default", (200.0, 300.0),
                   "MPa"),
         Parameter("min_steel_coefficient", 0.85, clause("26.5.1.1(a)", "least tension steel"),
@@ -280,10 +280,10 @@ def concrete_law(beam: Beam, params: Parameters, context: Context) -> MaterialMo
 
 
 def cold_worked(beam: Beam, params: Parameters) -> Any:
-    """Whether each beam's bars follow the Fig. 23B curve of cold-worked bars.
+    """Whether each beam's bars follow the Fig. 23A curve of cold-worked bars.
 
     "cold-worked" bars do; "mild" and "hot-rolled" bars take the elastic-perfectly
-    plastic line of Fig. 23A at fyd. Where the kind is not stated, IS practice is
+    plastic line of Fig. 23B at fyd. Where the kind is not stated, IS practice is
     followed: high-strength deformed bars (fy above the mild-steel grade) are
     designed on the cold-worked curve, which never gives more stress than the
     elastic-plastic one.
@@ -313,7 +313,7 @@ def design_strength(beam: Beam, params: Parameters) -> Factor:
 def steel_law(beam: Beam, params: Parameters, context: Context) -> MaterialModel:
     """Fig. 23 as one piecewise-linear law for every beam of a batch: the cold-worked
     curve where it applies, and elsewhere the same points at full design strength,
-    which is the elastic-perfectly plastic law of mild steel (Fig. 23A)."""
+    which is the elastic-perfectly plastic law of mild steel (Fig. 23B)."""
     es = steel_modulus(beam, params)
     fyd = design_strength(beam, params)
     cold = cold_worked(beam, params)
@@ -323,11 +323,11 @@ def steel_law(beam: Beam, params: Parameters, context: Context) -> MaterialModel
         points.append((per_beam(stress / es + inelastic), per_beam(stress)))
     knee = choose(cold, points[-1][0], np.asarray(fyd.value) / es)
     if np.ndim(cold):
-        curve = "per beam: Fig. 23B where cold-worked, else Fig. 23A"
+        curve = "per beam: Fig. 23A where cold-worked, else Fig. 23B"
     elif cold:
-        curve = "Fig. 23B curve of cold-worked bars: fyd reached at fyd/Es + 0.002"
+        curve = "Fig. 23A curve of cold-worked bars: fyd reached at fyd/Es + 0.002"
     else:
-        curve = "Fig. 23A mild steel: elastic-perfectly plastic, fyd reached at fyd/Es"
+        curve = "Fig. 23B mild steel: elastic-perfectly plastic, fyd reached at fyd/Es"
     return MaterialModel(
         PiecewiseLinear(points=tuple(points), knee_strain=knee),
         (Factor("fy", beam.yield_strength, clause("5.6", "characteristic yield strength"),

@@ -154,7 +154,7 @@ class Beam:
     layout: FloorLayout | None = None
     strength_basis: StrengthBasis = StrengthBasis.CYLINDER
     steel_modulus: Value | None = None  # None: the edition's value
-    steel_kind: str = "unstated"  # or "hot-rolled", "cold-worked" (IS 456 Fig. 23B), "mild"
+    steel_kind: str = "unstated"  # or "hot-rolled", "cold-worked" (IS 456 Fig. 23A), "mild"
     ductility_class: str = "N"
     actions: Actions = field(default_factory=Actions)
     unit_system: UnitSystem = UnitSystem.SI

@@ -144,13 +144,18 @@ def test_minimum_steel_uses_overall_depth():
     assert not small.passed  # 400 mm² < 492.95 mm²
 
 
-def test_minimum_steel_with_flange_in_tension_uses_flange_width_up_to_1_5_bw():
-    r = assess(tee(bending=Bending.HOGGING), ID)
+@pytest.mark.parametrize(("shape", "cap"), [(Shape.TEE, 2.5), (Shape.ELL, 1.5)])
+def test_minimum_steel_with_flange_in_tension_uses_flange_width_up_to_a_multiple_of_bw(
+        shape, cap):
+    layout = FloorLayout(8000.0, Continuity.SIMPLE, clear_left=1800.0,
+                         clear_right=1800.0 if shape is Shape.TEE else None)
+    r = assess(tee(bending=Bending.HOGGING, shape=shape, layout=layout), ID)
     bf = r.effective_width.value
-    # bt = width of the tension zone, the effective flange, but for a flange in tension no
-    # more than 1.5bw (CSA A23.3-19 10.5.1.2, from memory)
-    assert bf > 1.5 * BW
-    expected = 0.2 * math.sqrt(FC) / FY * 1.5 * BW * H
+    # bt = width of the tension zone, the effective flange, but for flanges in tension no
+    # more than 2.5bw with flanges on both sides of the web, 1.5bw with a flange on one
+    # side (CSA A23.3-19 10.5.1.2, from memory)
+    assert bf > cap * BW
+    expected = 0.2 * math.sqrt(FC) / FY * cap * BW * H
     assert check(r, "minimum tension reinforcement").limit == pytest.approx(expected, rel=1e-12)
 
 

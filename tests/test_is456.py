@@ -114,7 +114,7 @@ def test_fe415_design_curve_handbook_point(edition):
     assert float(law.stress(np.array([-0.0038]))[0]) == pytest.approx(-360.9, abs=0.1)
 
 
-# (strain, stress MPa) of the Fig. 23B curve (SP 16 Table A, from memory)
+# (strain, stress MPa) of the Fig. 23A curve (SP 16 Table A, from memory)
 SP16_TABLE_A = {
     415.0: [(0.00144, 288.7), (0.00163, 306.7), (0.00192, 324.8), (0.00241, 342.8),
             (0.00276, 351.8), (0.00380, 360.9)],
@@ -136,7 +136,7 @@ def test_cold_worked_curve_is_elastic_to_080_fyd_and_flat_beyond(edition):
     law = steel_model(edition, 500.0).law
     fyd = 500.0 / 1.15
     strains = np.array([0.0005, 0.8 * fyd / ES, 0.006, 0.02])
-    # elastic up to 0.8 fyd, constant fyd beyond fyd/Es + 0.002 (IS 456:2000 Fig. 23B, from
+    # elastic up to 0.8 fyd, constant fyd beyond fyd/Es + 0.002 (IS 456:2000 Fig. 23A, from
     # memory)
     np.testing.assert_allclose(law.stress(strains), [100.0, 0.8 * fyd, fyd, fyd], rtol=1e-12)
 
@@ -144,7 +144,7 @@ def test_cold_worked_curve_is_elastic_to_080_fyd_and_flat_beyond(edition):
 def test_mild_steel_is_elastic_perfectly_plastic(edition):
     model = steel_model(edition, 250.0)  # Fe 250 is mild steel by default
     fyd = 250.0 / 1.15
-    # 0.87 fy = 217.4 MPa reached at 217.4/200000 (IS 456:2000 Fig. 23A, from memory)
+    # 0.87 fy = 217.4 MPa reached at 217.4/200000 (IS 456:2000 Fig. 23B, from memory)
     np.testing.assert_allclose(model.law.stress(np.array([0.0005, fyd / ES, 0.0012, 0.01])),
                                [100.0, fyd, fyd, fyd], rtol=1e-12)
     assert fyd == pytest.approx(0.87 * 250.0, abs=0.2)
@@ -159,10 +159,10 @@ def test_steel_kind_when_stated(edition):
     # (IS 456:2000 Fig. 23A and 23B, from memory)
     assert float(mild.stress(np.array([0.0019]))[0]) == pytest.approx(fyd, rel=1e-12)
     assert float(cold.stress(np.array([0.0012]))[0]) < 250.0 / 1.15 - 1.0
-    # bars said to be hot-rolled take the elastic-plastic line too (Fig. 23A shape)
+    # bars said to be hot-rolled take the elastic-plastic line too (Fig. 23B shape)
     hot = steel_model(edition, 500.0, "hot-rolled").law
     assert float(hot.stress(np.array([0.0025]))[0]) == pytest.approx(500.0 / 1.15, rel=1e-12)
-    unstated = steel_model(edition, 500.0).law  # Fe 500 of unstated kind: Fig. 23B
+    unstated = steel_model(edition, 500.0).law  # Fe 500 of unstated kind: Fig. 23A
     assert float(unstated.stress(np.array([0.0025]))[0]) < 500.0 / 1.15 - 1.0
     with pytest.raises(PluginError, match="steel_kind"):
         assess(rectangle(steel_kind="stainless"), ID)
@@ -464,7 +464,7 @@ def test_batch_equals_single(edition):
             assert np.broadcast_to(many.value, 4)[i] == pytest.approx(one.value, **close)
             assert np.broadcast_to(many.limit, 4)[i] == pytest.approx(one.limit, **close)
             assert np.asarray(many.passed)[i] == one.passed
-    # the batch mixes mild steel (Fe 250, Fig. 23A) and cold-worked bars (Fig. 23B)
+    # the batch mixes mild steel (Fe 250, Fig. 23B) and cold-worked bars (Fig. 23A)
     knee = [f for f in batch.steel.factors if f.symbol == "εyd"][0].value
     assert knee[0] == pytest.approx(250 / 1.15 / ES)
     assert knee[1] == pytest.approx(415 / 1.15 / ES + 0.002)
