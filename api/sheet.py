@@ -60,6 +60,7 @@ figure { margin: 2mm 0; }
 figure svg { width: 100%; height: auto; }
 nav ol { columns: 2; margin: 1mm 0; }
 section.beam { break-before: page; page-break-before: always; }
+h1, h2, h3, h4 { break-after: avoid; page-break-after: avoid; }
 .facts.pairs td:nth-child(3) { color: #555; }
 .facts.pairs td:first-child { width: auto; }
 @media print {
@@ -238,8 +239,8 @@ def calculation_sheet(schedule: Schedule, outcomes: Sequence[Outcome],
         by_beam.setdefault(o.entry.beam.id, []).append(o)
     editions = list(dict.fromkeys(o.edition for o in outcomes))
     situations = ", ".join(dict.fromkeys(o.situation for o in outcomes)) or "persistent"
-    page_size = f"@page {{ size: {paper}; margin: 15mm; }}" if paper else \
-        "@page { margin: 15mm; }"
+    made = f"clausewise {__version__}, {date.today().isoformat()}"
+    page_size = _page_rule(paper, f"{p.name or schedule.source}: {what}", made)
     contents = "".join(
         f'<li><a href="#{_anchor(b)}">{_e(b)}</a>: ' + ", ".join(
             f'<a href="#{_anchor(b, o.edition)}">{_e(o.edition)}</a> '
@@ -263,7 +264,7 @@ def calculation_sheet(schedule: Schedule, outcomes: Sequence[Outcome],
     head = _facts([("project", p.name), ("building", where), ("engineer", p.engineer),
                    ("file", str(schedule.source)), ("notes", p.notes),
                    ("design situation", situations), ("editions", ", ".join(editions)),
-                   ("made by", f"clausewise {__version__} on {date.today().isoformat()}")])
+                   ("made by", made)])
     return (
         "<!DOCTYPE html>\n<html lang=en><head><meta charset=utf-8>"
         f"<title>{_e(p.name or schedule.source)}: {_e(what)}</title>"
@@ -276,6 +277,27 @@ def calculation_sheet(schedule: Schedule, outcomes: Sequence[Outcome],
         + "".join(sections)
         + f'<footer><div class="caution"><b>Caution.</b> {_e(CAUTION)}</div></footer>'
         "</body></html>\n")
+
+
+def _css_text(text: str) -> str:
+    """``text`` as a CSS string: anything but plain letters, digits and punctuation is
+    escaped by its code point, so no name in a file can end the string or the style."""
+    plain = set(" .,:;-_()/'+&@#!?")
+    return '"' + "".join(c if (c.isalnum() and c.isascii()) or c in plain
+                         else f"\\{ord(c):x} " for c in text) + '"'
+
+
+def _page_rule(paper: str, title: str, made: str) -> str:
+    """The printed page: its size (the printer's where ``paper`` is empty), and on every
+    page the sheet's title and maker at the head, the caution and the page number at the
+    foot, so a page taken out of the bundle still says what it is and how to read it."""
+    size = f"size: {paper}; " if paper else ""
+    small = "font-family: 'DejaVu Sans', Arial, sans-serif; font-size: 7.5pt; color: #444;"
+    return (f"@page {{ {size}margin: 16mm 15mm 18mm; "
+            f"@top-left {{ content: {_css_text(title)}; {small} }} "
+            f"@top-right {{ content: {_css_text(made)}; {small} }} "
+            f"@bottom-left {{ content: {_css_text(CAUTION)}; {small} width: 75%; }} "
+            f'@bottom-right {{ content: "page " counter(page) " of " counter(pages); {small} }} }}')
 
 
 class BrowserMissing(ClausewiseError, RuntimeError):

@@ -176,7 +176,13 @@ def test_the_sheet_prints_to_pdf_a_page_per_beam_at_least(sheet, outcomes, tmp_p
     flat = " ".join(text.split())
     for o in outcomes[1]:
         assert f"{o.entry.beam.id} under aci318-19: {o.assessment.summary()}" in flat
-    assert "licensed engineer" in flat
+    # every page says what it is, carries the caution and its number (a page taken out of
+    # the bundle still does)
+    printed = [" ".join(page.split()) for page in text.split("\f") if page.strip()]
+    assert len(printed) == pages
+    for number, page in enumerate(printed, 1):
+        assert "licensed engineer" in page and f"page {number} of {pages}" in page
+        assert "calculation sheet" in page or ": flexural check" in page
 
 
 @needs_browser
@@ -189,3 +195,20 @@ def test_out_pdf_on_the_command_line_on_a4(tmp_path, capsys):
     assert head.startswith(b"%PDF")
     # A4 is 595 x 842 points (210 x 297 mm)
     assert re.search(rb"/MediaBox\s*\[\s*0 0 59[45]\.\d* 84[12]\.\d*", head)
+
+
+def test_a_project_name_cannot_end_the_page_style_it_is_printed_in():
+    """The name runs at the head of every printed page, from the page's style: a name
+    that holds quotes, a backslash or a closing tag stays text (CSS escapes)."""
+    hostile = 'Tarn "works" \\\\ </style><script>alert(1)</script> ü'
+    text = SCHEDULE.replace('name = "Brackwater pumping station, roof"',
+                            f"name = '''{hostile}'''")
+    schedule = parse_schedule(text, "roof.toml")
+    registry = default_registry()
+    found = run(schedule, [registry.edition("aci318-19")], None, "persistent")
+    page = calculation_sheet(schedule, found)
+    style = page[page.index("<style>") + len("<style>"):page.index("</style>")]
+    assert "<" not in style and "script" in style  # the name is there, escaped
+    head = page[:page.index("</head>")]
+    assert head.count("</style>") == 1 and "<script" not in page
+    assert '@top-left { content: "Tarn \\22 works\\22  \\5c  \\5c  \\3c /style' in style
