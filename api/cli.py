@@ -784,8 +784,10 @@ def _design_parser(commands: Any) -> None:
     design.set_defaults(handler=design_command)
 
 
-def _designs(args: argparse.Namespace, audit: bool) -> tuple[Schedule, list[Any]]:
-    """Every beam of the file designed under the chosen editions (bars may be left out)."""
+def _designs(args: argparse.Namespace, audit: bool, at_given_depth: bool = False
+             ) -> tuple[Schedule, list[Any]]:
+    """Every beam of the file designed under the chosen editions (bars may be left out);
+    ``at_given_depth``: the required areas at the depth of the file's steel."""
     from clausewise.beamfile import load_schedule
     from clausewise.designs import design_schedule
 
@@ -804,7 +806,7 @@ def _designs(args: argparse.Namespace, audit: bool) -> tuple[Schedule, list[Any]
     editions = _editions(registry, args.edition or list(schedule.project.editions)
                          or registry.ids())
     return schedule, design_schedule(schedule, editions, None if form == "auto" else form,
-                                     situation, audit=audit)
+                                     situation, audit=audit, at_given_depth=at_given_depth)
 
 
 def _publish_designs(args: argparse.Namespace, schedule: Schedule, designs: list[Any],
@@ -834,7 +836,7 @@ def _steel_comparison(args: argparse.Namespace) -> int:
     """compare --steel: the required tension steel of every beam under every edition."""
     from clausewise.designs import steel_comparison_report
 
-    schedule, designs = _designs(args, audit=False)
+    schedule, designs = _designs(args, audit=False, at_given_depth=True)
     return _publish_designs(args, schedule, designs,
                             steel_comparison_report(schedule, designs))
 

@@ -25,13 +25,15 @@ if TYPE_CHECKING:
 
 
 def design_schedule(schedule: Schedule, editions: Sequence[Edition], form: str | None,
-                    situation: str, *, audit: bool = False) -> list[Design]:
+                    situation: str, *, audit: bool = False,
+                    at_given_depth: bool = False) -> list[Design]:
     """Every beam under every edition, beam by beam in file order. Each chosen arrangement
     was assessed by the same pipeline as ``check``; with ``audit`` it is assessed again
-    one beam at a time, and a design whose bars do not pass is marked as such."""
+    one beam at a time, and a design whose bars do not pass is marked as such.
+    ``at_given_depth``: see :func:`design_many`."""
     beams = [entry.beam for entry in schedule.entries]
-    by_edition = {e.id: design_many(beams, e, form=form, situation=situation, audit=audit)
-                  for e in editions}
+    by_edition = {e.id: design_many(beams, e, form=form, situation=situation, audit=audit,
+                                    at_given_depth=at_given_depth) for e in editions}
     out = []
     for i in range(len(beams)):
         for e in editions:
@@ -316,9 +318,11 @@ def steel_comparison_report(schedule: Schedule, designs: Sequence[Design]) -> Gr
     if schedule.problems:
         parts.append(problems_table(schedule.problems))
     parts.append(Text("required: the least tension steel that passes every check of the "
-                      "edition at the trial depth (top: compression steel needed too); "
-                      "given: the bars of the file; * the edition whose chosen bars are "
-                      "lightest. `clausewise design` shows the bars.", style="dim"))
+                      "edition, placed at the centroid of the file's tension steel (where "
+                      "the file gives none, at the depth cover, stirrup and a trial bar "
+                      "give); +: compression steel needed too; given: the bars of the file; "
+                      "* the edition whose chosen bars are lightest. `clausewise design` "
+                      "shows the bars.", style="dim"))
     parts.append(caution())
     return Group(*parts)
 

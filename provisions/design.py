@@ -221,6 +221,7 @@ class _Group:
     batch: Beam
     context: Context
     form: str | None
+    given_depth: NDArray[np.float64] | None = None  # d of the file's bars (NaN: none given)
     count: NDArray[np.int_] = field(default_factory=lambda: np.zeros(0, int))
     clauses: dict[str, str] = field(default_factory=dict)  # check name -> clause
     limits_by_size: dict[float, Any] = field(default_factory=dict)
@@ -349,6 +350,8 @@ def _design_group(group: _Group, audit: bool) -> list[Design]:
     sizes_by_beam = [bar_sizes(b)[1] for b in group.beams]
     trial = min(sizes, key=lambda s: abs(s.diameter - TRIAL_BAR[system])).diameter
     depth, _ = _steel_depth(group, trial)
+    if group.given_depth is not None:  # the steel where the file has it, to compare
+        depth = np.where(np.isnan(group.given_depth), depth, group.given_depth)
     top = _most_steel(group.batch, n)
     everyone = np.arange(n)
     bracket = _least_area(group, depth, top, everyone)
@@ -629,11 +632,13 @@ def with_bars(beam: Beam, arrangement: Arrangement) -> Beam:
 
 def design_many(beams: Sequence[Beam], edition: str | Edition, *, form: str | None = None,
                 situation: str = "persistent", registry: Registry | None = None,
-                audit: bool = False) -> list[Design]:
+                audit: bool = False, at_given_depth: bool = False) -> list[Design]:
     """Design every beam under one edition through the array path; results in input order.
     Bars a beam gives are replaced by the design's. With ``audit``, each chosen
-    arrangement also carries its full assessment. A group that fails is designed again
-    beam by beam, so one bad beam is reported as an error and the rest go on."""
+    arrangement also carries its full assessment. With ``at_given_depth``, the required
+    area of a beam that gives tension steel is found with the steel at that steel's
+    centroid (to compare with it), else at the trial depth. A group that fails is designed
+    again beam by beam, so one bad beam is reported as an error and the rest go on."""
     ed = (registry or default_registry()).edition(edition) if isinstance(edition, str) \
         else edition
     out: list[Design | None] = [None] * len(beams)
@@ -645,24 +650,27 @@ def design_many(beams: Sequence[Beam], edition: str | Edition, *, form: str | No
         except DesignError as exc:
             out[i] = Design(beam.id, ed.id, "error", message=str(exc))
     for members in groups.values():
-        results = _design_members(ed, [beams[i] for i in members], form, situation, audit)
+        results = _design_members(ed, [beams[i] for i in members], form, situation, audit,
+                                  at_given_depth)
         if results is None:  # one bad beam spoiled its group: design them one by one
-            results = [d for i in members
-                       for d in _design_members(ed, [beams[i]], form, situation, audit) or ()]
+            results = [d for i in members for d in _design_members(
+                ed, [beams[i]], form, situation, audit, at_given_depth) or ()]
         for i, result in zip(members, results, strict=True):
             out[i] = result
     return [d for d in out if d is not None]
 
 
 def _design_members(edition: Edition, beams: list[Beam], form: str | None, situation: str,
-                    audit: bool) -> list[Design] | None:
+                    audit: bool, at_given_depth: bool = False) -> list[Design] | None:
     """Design beams of one kind together; None when a group of several raised (a single
     beam that raises gets an error design)."""
     group_beams = [replace(b, tension=(), compression=()) for b in beams]
+    given = np.array([float(b.effective_depth) if b.tension else math.nan for b in beams]) \
+        if at_given_depth else None
     try:
         chosen, _ = resolve_form(edition, group_beams[0], form)
         group = _Group(edition, group_beams, stack_beams(group_beams),
-                       Context(form=chosen, situation=situation), form)
+                       Context(form=chosen, situation=situation), form, given)
         return _design_group(group, audit)
     except (ClausewiseError, ValueError, ArithmeticError) as exc:
         if len(beams) == 1:

@@ -39,3 +39,37 @@ def test_steel_and_a_migration_do_not_go_together(capsys):
     assert main(["compare", "--steel", str(DEMO), "--from", "aci318-19", "--to",
                  "en1992-1-1:2004"]) == 2
     assert "--steel" in capsys.readouterr().err
+
+
+BEAM = """
+[[beam]]
+id = "S1"
+shape = "T"
+web_width = "300 mm"
+overall_depth = "650 mm"
+slab_thickness = "120 mm"
+effective_flange_width = "600 mm"
+concrete_strength = "40 MPa"
+yield_strength = "500 MPa"
+tension = [{{ area = "{area} mm2", depth = "590 mm" }}]
+moments = {{ dead = "180 kN m", live = "100 kN m" }}
+"""
+
+
+def test_the_required_steel_is_found_where_the_file_places_its_steel(tmp_path, capsys):
+    """Beside the given steel, the area required is the one at the given depth: just that
+    much at d = 590 mm passes, 1 % less fails (EN 1992-1-1 6.1, hand check: about
+    1590 mm² at d = 590 mm, against 1548 mm² at the 605 mm of a 20 mm bar at the cover)."""
+    path = tmp_path / "s1.toml"
+    path.write_text(BEAM.format(area=1565), encoding="utf-8")
+    main(["compare", "--steel", str(path), "--edition", "en1992-1-1:2004", "--format",
+          "json"])
+    [d] = json.loads(capsys.readouterr().out)["designs"]
+    required = d["required_area"]
+    assert 1580 < required < 1600
+    for area, passes in ((required * 1.001, True), (required * 0.99, False)):
+        path.write_text(BEAM.format(area=f"{area:.3f}"), encoding="utf-8")
+        status = main(["check", str(path), "--edition", "en1992-1-1:2004", "--format",
+                       "json"])
+        capsys.readouterr()
+        assert (status == 0) is passes
