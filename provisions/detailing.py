@@ -183,7 +183,7 @@ def _between_layers(beam: Beam, limits_for: Any) -> list[Check]:
         checks.append(Check(
             "clear distance between tension layers", per_beam(gap), between.value,
             Sense.AT_LEAST, between.candidates[0].clause, "s_v", "mm",
-            "least of " + ", ".join(cand.label for cand in between.candidates)))
+            "at least the largest of " + ", ".join(cand.label for cand in between.candidates)))
     return checks
 
 
