@@ -91,14 +91,23 @@ def load_annex(path: Path | str, registry: Registry | None = None) -> PluginReco
     path = Path(path)
     registry = registry if registry is not None else default_registry()
     document = _read(path)
-    head = _annex_table(path, document)
-    base = _base(path, head["extends"], registry)
-    if head["id"] in registry.ids():
-        raise AnnexError(path, [f"[annex] id {head['id']!r} is already an installed edition; "
-                                "give the file an id of its own"])
-    info = EditionInfo(head["id"], head["title"], head["year"], extends=head["extends"],
-                       forms=base.info.forms, summary=head.get("summary", ""))
-    parameters = _parameters(path, document.get("parameters", {}), base, info)
+    head, problems = _annex_table(path, document)
+    base = None
+    if isinstance(head.get("extends"), str):
+        base, problem = _base(head["extends"], registry)
+        problems += [problem] if problem else []
+    edition_id = head.get("id")
+    if isinstance(edition_id, str) and edition_id in registry.ids():
+        problems.append(f"[annex] id {edition_id!r} is already an installed edition; give "
+                        "the file an id of its own")
+    if base is None:  # the parameters can only be judged against their base
+        raise AnnexError(path, problems)
+    info = EditionInfo(_as(edition_id, str, "?"), _as(head.get("title"), str, ""),
+                       _as(head.get("year"), int, 0), extends=base.id, forms=base.info.forms,
+                       summary=_as(head.get("summary"), str, ""))
+    parameters, wrong = _parameters(path, document.get("parameters", {}), base, info)
+    if problems or wrong:  # every problem of the file at once
+        raise AnnexError(path, problems + wrong)
     digest = hashlib.sha256(path.read_bytes()).hexdigest()[:12]
     record = registry.register(ParameterFileEdition(info, parameters), info.id,
                                source=f"parameter file {path}", distribution=path.name,
@@ -142,7 +151,14 @@ def _read(path: Path) -> dict[str, Any]:
     return document
 
 
-def _annex_table(path: Path, document: Mapping[str, Any]) -> dict[str, Any]:
+def _as(value: Any, kind: type, default: Any) -> Any:
+    """``value`` where it is of ``kind`` (not a bool), else ``default``: a stand-in so the
+    rest of a file can still be judged when a field of its head is wrong."""
+    return value if isinstance(value, kind) and not isinstance(value, bool) else default
+
+
+def _annex_table(path: Path, document: Mapping[str, Any]) -> tuple[dict[str, Any], list[str]]:
+    """The [annex] table and its problems (none makes it unreadable but its absence)."""
     head = document.get("annex")
     if not isinstance(head, dict):
         raise AnnexError(path, ["needs an [annex] table with id, title, year and extends"])
@@ -161,22 +177,26 @@ def _annex_table(path: Path, document: Mapping[str, Any]) -> dict[str, Any]:
                         "'.:_+-', e.g. \"xl-na:2023\"")
     if isinstance(edition_id, str) and edition_id == head.get("extends"):
         problems.append(f"[annex] id {edition_id!r} cannot extend itself")
-    if problems:
-        raise AnnexError(path, problems)
-    return head
+    return head, problems
 
 
-def _base(path: Path, base_id: str, registry: Registry) -> Edition:
+def _base(base_id: str, registry: Registry) -> tuple[Edition | None, str]:
+    """The base edition, or None and why."""
     try:
-        return registry.edition(base_id)
+        return registry.edition(base_id), ""
     except EditionError as exc:
-        raise AnnexError(path, [f"[annex] extends {base_id!r}, which is not an installed "
-                                f"edition{_hint(base_id, registry.ids())} ({exc})"]) from exc
+        if base_id in registry.ids():  # installed, but it cannot be loaded
+            return None, f"[annex] extends {base_id!r}, which cannot be loaded: {exc}"
+        return None, (f"[annex] extends {base_id!r}, which is not an installed edition"
+                      f"{_hint(base_id, registry.ids())}; installed: "
+                      f"{', '.join(registry.ids())}")
 
 
-def _parameters(path: Path, table: Any, base: Edition, info: EditionInfo) -> list[Parameter]:
+def _parameters(path: Path, table: Any, base: Edition, info: EditionInfo
+                ) -> tuple[list[Parameter], list[str]]:
+    """The file's parameters, and the problems of those that cannot be taken."""
     if not isinstance(table, dict):
-        raise AnnexError(path, ["[parameters] must be a table of name = value"])
+        return [], ["[parameters] must be a table of name = value"]
     known = declarations(base)
     problems: list[str] = []
     parameters: list[Parameter] = []
@@ -185,9 +205,7 @@ def _parameters(path: Path, table: Any, base: Edition, info: EditionInfo) -> lis
             parameters.append(_parameter(path, name, entry, known, base, info))
         except _Problem as problem:
             problems.append(str(problem))
-    if problems:
-        raise AnnexError(path, problems)
-    return parameters
+    return parameters, problems
 
 
 class _Problem(Exception):

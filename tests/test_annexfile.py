@@ -189,6 +189,21 @@ def test_every_problem_of_a_file_is_reported_at_once(registry, tmp_path):
     assert "has 2 problems" in str(error.value)
 
 
+def test_problems_of_the_head_and_of_the_parameters_come_in_one_report(registry, tmp_path):
+    """A year in words and a taken id are reported with the parameters' problems: one run
+    shows the author everything to fix."""
+    base(registry, ACI)
+    head = 'id = "aci318-19"\ntitle = "t"\nyear = "2025"\nextends = "aci318-19"\n'
+    path = write(tmp_path, "all.toml", ACI, "phi_tension = 1.5\nlive_factr = 1.6", head=head)
+    with pytest.raises(AnnexError) as error:
+        load_annex(path, registry)
+    found = "\n".join(error.value.problems)
+    assert len(error.value.problems) == 5
+    for part in ("year must be an integer", "cannot extend itself", "already an installed",
+                 "phi_tension = 1.5 is outside", "did you mean 'live_factor'?"):
+        assert part in found
+
+
 BAD_HEADS = [
     ("an unknown base", 'id = "x-1"\ntitle = "t"\nyear = 2025\nextends = "aci318-99"\n',
      ["extends 'aci318-99', which is not an installed edition", "did you mean 'aci318-19'?"]),
