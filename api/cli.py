@@ -325,6 +325,10 @@ def _load(args: argparse.Namespace, text: str | None = None
             text, str(args.file))
     for warning in schedule.warnings:
         _warn(warning)
+    bare = {p.beam for p in schedule.problems if p.field == "tension" and not p.value}
+    if bare and not schedule.entries and bare == {p.beam for p in schedule.problems}:
+        _warn(f"no beam of {args.file} gives its tension steel: to find the steel each "
+              f"edition requires and bars that fit, run: {PROGRAM} design {args.file}")
     return schedule, *_settings(args, schedule)
 
 

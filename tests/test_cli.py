@@ -528,3 +528,12 @@ def test_every_demo_file_checks_with_a_status_that_matches_its_results(demo, cap
                         form=schedule.project.form, situation=schedule.project.situation)
         assert rec["status"] == direct.status
         assert rec["summary"] == direct.summary()
+
+
+def test_checking_a_file_for_design_says_to_run_design(capsys):
+    design_file = Path(__file__).resolve().parents[1] / "fixtures" / "demo" / \
+        "orrin-vale-depot-design.toml"
+    assert main(["check", str(design_file), "--edition", "aci318-19"]) == 2
+    err = capsys.readouterr().err
+    assert err.count("gives its tension steel") == 1
+    assert f"clausewise design {design_file}" in err
