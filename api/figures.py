@@ -59,7 +59,7 @@ def save(figure: Figure, path: Path) -> Path:
 
 def _caption(figure: Figure, title: str) -> None:
     figure.text(0.01, 1 - 0.12 / figure.get_figheight(), title, fontsize=10, ha="left",
-                va="top")
+                va="top", wrap=True)  # a narrow (stacked) figure takes it on two lines
     figure.text(0.01, 0.08 / figure.get_figheight(), CAUTION, fontsize=7, color="#555555",
                 ha="left", va="bottom")
 
@@ -94,12 +94,18 @@ class _Frame:
         return low * self.depth * self.scale, high * self.depth * self.scale
 
 
+ROW_GAP = 0.75  # inches between the rows of a stacked figure: the section's axis label
+
+
 def beam_figure(assessment: Assessment, notation: Notation | None = None,
-                bar_groups: Sequence[tuple[int, float] | None] = ()) -> Figure:
+                bar_groups: Sequence[tuple[int, float] | None] = (),
+                stacked: bool = False) -> Figure:
     """Three panels at one height scale: the section with its effective flange, the
     compression zone shaded and every bar (``bar_groups``: count and diameter per layer,
     tension then compression; a layer given as an area is one marker); the strains; the
-    stresses and forces.
+    stresses and forces. ``stacked``: the section on a row above the other two, so the
+    figure is narrow enough to print on a page at nearly its own size (its text stays
+    readable on paper).
     """
     a = assessment
     n = notation or Notation()
@@ -117,14 +123,24 @@ def beam_figure(assessment: Assessment, notation: Notation | None = None,
               zip(r.layers, _padded(bar_groups, len(r.layers)), strict=True)]
     y_range = frame.limits()
     x_range, section_width, wanted = _section_extent(a, arrays, labels, y_range)
-    width = LEFT + section_width + 2 * (GAP + PANEL_WIDTH) + RIGHT
-    figure = Figure(figsize=(width, HEIGHT))
-    axes = []
-    x = LEFT
-    for panel_width in (section_width, PANEL_WIDTH, PANEL_WIDTH):
-        axes.append(figure.add_axes((x / width, BOTTOM / HEIGHT, panel_width / width,
-                                     PANEL_HEIGHT / HEIGHT)))
-        x += panel_width + GAP
+    # (left, bottom, width) of each panel in inches, and the figure's size
+    if stacked:
+        pair = 2 * PANEL_WIDTH + GAP
+        section_width = min(section_width, pair)
+        width = LEFT + pair + RIGHT
+        height = HEIGHT + PANEL_HEIGHT + ROW_GAP
+        upper = BOTTOM + PANEL_HEIGHT + ROW_GAP
+        places = [(LEFT + (pair - section_width) / 2, upper, section_width),
+                  (LEFT, BOTTOM, PANEL_WIDTH), (LEFT + PANEL_WIDTH + GAP, BOTTOM, PANEL_WIDTH)]
+    else:
+        width = LEFT + section_width + 2 * (GAP + PANEL_WIDTH) + RIGHT
+        height = HEIGHT
+        places = [(LEFT, BOTTOM, section_width),
+                  (LEFT + section_width + GAP, BOTTOM, PANEL_WIDTH),
+                  (LEFT + section_width + 2 * GAP + PANEL_WIDTH, BOTTOM, PANEL_WIDTH)]
+    figure = Figure(figsize=(width, height))
+    axes = [figure.add_axes((x / width, y / height, w / width, PANEL_HEIGHT / height))
+            for x, y, w in places]
     section_ax, strain_ax, stress_ax = axes
 
     _draw_section(section_ax, a, arrays, frame, to_scale=abs(wanted - section_width) < 1e-9,
@@ -135,9 +151,10 @@ def beam_figure(assessment: Assessment, notation: Notation | None = None,
     for ax in axes:
         ax.set_ylim(*y_range)
         ax.axhline(frame.y(r.c), color="#555555", lw=0.8, ls="--")
-    for ax in (strain_ax, stress_ax):
+    for ax in (stress_ax,) if stacked else (strain_ax, stress_ax):
         ax.tick_params(labelleft=False)
-    section_ax.set_ylabel(f"height above the soffit ({units.unit('mm')})")
+    for ax in (section_ax, strain_ax) if stacked else (section_ax,):
+        ax.set_ylabel(f"height above the soffit ({units.unit('mm')})")
     strain_ax.annotate("neutral axis", (0.02, frame.y(r.c)), xycoords=("axes fraction", "data"),
                        xytext=(0, 3), textcoords="offset points", fontsize=SMALL,
                        color="#555555")

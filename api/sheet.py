@@ -145,7 +145,8 @@ def _checks(checks: Sequence[Check], outcome: Outcome, units: Units, edition: st
 
 
 def _figure(outcome: Outcome) -> str:
-    """The section, strains and stresses as inline SVG (text kept as text)."""
+    """The section above its strains and stresses as inline SVG (text kept as text),
+    printed at nearly its own size."""
     a = outcome.assessment
     if a is None or a.response is None or not a.response.equilibrium:
         return ""
@@ -155,7 +156,7 @@ def _figure(outcome: Outcome) -> str:
 
     from clausewise import figures
 
-    figure = figures.beam_figure(a, outcome.notation, outcome.entry.bar_groups)
+    figure = figures.beam_figure(a, outcome.notation, outcome.entry.bar_groups, stacked=True)
     buffer = io.StringIO()
     with matplotlib.rc_context({"svg.fonttype": "none", "svg.hashsalt": "clausewise"}):
         figure.savefig(buffer, format="svg")

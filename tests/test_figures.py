@@ -322,3 +322,16 @@ def test_an_inverted_tee_is_drawn_with_its_flange_at_the_soffit(bending):
         assert zone.get_y() == pytest.approx(0, abs=1e-9)
         assert zone.get_width() == pytest.approx(900)
     assert zone.get_height() == pytest.approx(a)
+
+
+def test_a_stacked_figure_puts_the_section_above_and_prints_near_its_own_size(outcomes):
+    """For paper: 180 mm of text width (A4 and Letter, common practice) holds the stacked
+    figure at 86 % or more of its size, so 8 pt labels print at 7 pt or more."""
+    figure = figs.beam_figure(outcomes[("K-1", "aci318-19")].assessment, stacked=True)
+    width, _ = figure.get_size_inches()
+    assert 180 / 25.4 / width >= 0.86
+    section, strains, stresses = (ax.get_position() for ax in figure.axes)
+    assert section.y0 > strains.y1 and strains.y0 == pytest.approx(stresses.y0)
+    assert strains.x1 < stresses.x0
+    flange = max(rectangles(figure.axes[0]), key=lambda p: p.get_width())
+    assert flange.get_width() == pytest.approx(300 + 2 * 6000 / 8)  # the same section drawn

@@ -212,3 +212,10 @@ def test_a_project_name_cannot_end_the_page_style_it_is_printed_in():
     head = page[:page.index("</head>")]
     assert head.count("</style>") == 1 and "<script" not in page
     assert '@top-left { content: "Tarn \\22 works\\22  \\5c \\5c  \\3c /style\\3e ' in style
+
+
+def test_the_sheet_s_figures_print_near_their_own_size(sheet):
+    """Each figure's SVG is at most 600 pt wide, so on 180 mm (510 pt) of paper its text
+    keeps 85 % of its size or more."""
+    widths = [float(w) for w in re.findall(r'<svg[^>]*\swidth="([\d.]+)pt"', sheet)]
+    assert widths and max(widths) <= 600
