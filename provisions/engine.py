@@ -210,7 +210,8 @@ def evaluate(beam: Beam, edition: Edition, context: Context,
     checks += edition.minimum_reinforcement(beam, section, response, demand, resistance,
                                             params, context)
     checks += edition.ductility_limits(beam, section, response, params, context)
-    checks += edition.additional_checks(beam, section, response, params, context)
+    checks += edition.additional_checks(beam, section, response, demand, resistance, params,
+                                        context)
     detailing, remarks = detailing_checks(beam, edition, params, context)
     checks += detailing
     return replace(result, concrete=concrete, steel=steel, section=section, response=response,

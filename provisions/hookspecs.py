@@ -303,11 +303,15 @@ def ductility_limits(beam: Beam, section: SectionView, response: SolvedSection, 
     """
 
 
-def additional_checks(beam: Beam, section: SectionView, response: SolvedSection, params: Parameters,
+def additional_checks(beam: Beam, section: SectionView, response: SolvedSection,
+                      demand: Envelope | None, resistance: Resistance, params: Parameters,
                       context: Context) -> Sequence[Check]:
     """Return further checks; every layer of the stack is asked and all are kept.
 
-    This is where a firm adds its own rule on top of a standard.
+    This is where a firm adds its own rule on top of a standard. ``demand`` and
+    ``resistance`` are this assessment's, as for minimum reinforcement: a firm's cap on
+    utilisation compares ``demand.value`` with ``resistance.factor.value *
+    response.nominal_moment`` (the design resistance the strength check uses).
     """
 
 

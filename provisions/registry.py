@@ -489,10 +489,12 @@ class Edition:
                              response=response, params=params, context=context))
 
     def additional_checks(self, beam: Beam, section: hookspecs.SectionView,
-                          response: hookspecs.SolvedSection, params: Parameters,
+                          response: hookspecs.SolvedSection, demand: Envelope | None,
+                          resistance: Resistance, params: Parameters,
                           context: Context) -> list[Check]:
         return list(self.ask("additional_checks", beam=beam, section=section,
-                             response=response, params=params, context=context))
+                             response=response, demand=demand, resistance=resistance,
+                             params=params, context=context))
 
     def detailing_limits(self, beam: Beam, diameter: Any, params: Parameters,
                          context: Context) -> Any:

@@ -391,3 +391,44 @@ def test_answer_checks_cover_items_of_a_list():
     with pytest.raises(PluginError, match="additional_checks of layer 'xx-list:2025' "
                                           "returned float"):
         assess(unequal_tee(), "xx-list:2025", registry=registry)
+
+
+class UtilisationCap:
+    """An invented firm's rule: design moment at most 0.95 of the design resistance."""
+
+    @hookimpl
+    def edition_info(self):
+        return EditionInfo("xx-cap:2025", "utilisation cap of an invented firm", 2025,
+                           extends=EN)
+
+    @hookimpl
+    def additional_checks(self, response, demand, resistance):
+        from clausewise.provisions import Sense, per_beam
+
+        if demand is None:
+            return []
+        cap = per_beam(0.95 * resistance.factor.value * response.nominal_moment)
+        return [Check("utilisation cap", demand.value, cap, Sense.AT_MOST,
+                      EditionInfo("xx-cap:2025", "", 2025).clause("F-1", "95 % cap"),
+                      "M_Ed", "N·mm")]
+
+
+@pytest.mark.parametrize("moment", [370e6, 400e6])  # 0.90 and 0.97 of M_Rd = 413.2 kN·m
+def test_a_firm_rule_sees_the_demand_and_the_resistance_in_both_paths(moment):
+    """The cap sits at 0.95 M_Rd: its utilisation is the strength check's over 0.95
+    (by hand), for one beam and a batch alike."""
+    from clausewise.provisions.batch import assess_many
+
+    registry = en_registry(UtilisationCap())
+    beam = unequal_tee(actions=Actions(factored=moment))
+    a = assess(beam, "xx-cap:2025", registry=registry)
+    strength = next(c for c in a.checks if c.name == "flexural strength")
+    cap = next(c for c in a.checks if c.name == "utilisation cap")
+    assert cap.utilisation == pytest.approx(strength.utilisation / 0.95, rel=1e-12)
+    assert cap.passed is (moment < 390e6) and strength.passed
+    table = assess_many([beam, replace(beam, id="twin")], ["xx-cap:2025"],
+                        registry=registry)["xx-cap:2025"]
+    assert table.row(0)["utilisation"]["utilisation cap"] == pytest.approx(cap.utilisation,
+                                                                           rel=1e-12)
+    without = assess(replace(beam, actions=Actions()), "xx-cap:2025", registry=registry)
+    assert all(c.name != "utilisation cap" for c in without.checks)
