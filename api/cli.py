@@ -254,6 +254,13 @@ def _registry(annexes: Sequence[Path], named: Sequence[str] = ()) -> Registry:
     return registry
 
 
+def _name_broken(registry: Registry) -> None:
+    """A broken plugin is left out of a run, never silently: one line on stderr each."""
+    for record in registry.broken:
+        _warn(f"edition plugin {record.name} is broken and left out of this run: "
+              f"{record.error} (clausewise editions lists it)")
+
+
 def _only(annexes: Sequence[Path], named: Sequence[str]) -> frozenset[str] | None:
     """The entry points a run needs, or None for all (nothing named, the environment
     chooses, or a name that is no entry point: the full registry then says what is known)."""
@@ -338,6 +345,7 @@ def _settings(args: argparse.Namespace, schedule: Schedule
     registry (annexes guarded, required editions checked), the form and the situation."""
     _guard_inputs(args, *schedule.project.annexes)
     registry = _registry([*args.annex, *schedule.project.annexes], _named(args, schedule))
+    _name_broken(registry)
     _require(registry, schedule.project.required)
     form = args.form or schedule.project.form or "auto"
     situation = args.situation or schedule.project.situation or "persistent"
@@ -804,6 +812,7 @@ def _designs(args: argparse.Namespace, audit: bool, at_given_depth: bool = False
     schedule = load_schedule(args.file, design=True)
     _guard_inputs(args, *schedule.project.annexes)
     registry = _registry([*args.annex, *schedule.project.annexes])
+    _name_broken(registry)
     _require(registry, schedule.project.required)
     form = args.form or schedule.project.form or "auto"
     situation = args.situation or schedule.project.situation or "persistent"

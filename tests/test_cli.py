@@ -447,6 +447,14 @@ def test_a_broken_plugin_is_listed_and_strict_makes_it_fatal(monkeypatch, capsys
     assert "aci318-19" in {e["id"] for e in doc["editions"]}
 
 
+def test_a_run_that_leaves_a_broken_plugin_out_says_so(monkeypatch, tmp_path, capsys):
+    monkeypatch.setattr(registry_module, "default_registry", registry_with_a_broken_plugin)
+    path = write(tmp_path, PASSING)
+    main(["compare", str(path)])
+    err = capsys.readouterr().err
+    assert err.count("half-finished is broken and left out") == 1
+
+
 def test_an_annex_file_becomes_an_edition_over_its_base(tmp_path, capsys):
     pytest.importorskip("clausewise.annexfile")
     path = write(tmp_path, PASSING)
