@@ -269,7 +269,20 @@ def _layer_label(layer: Any, group: tuple[int, float] | None, units: Units) -> s
     if group is None:
         return units.value(layer.area, "mm²")
     count, diameter = group
-    return f"{count} × {units.length(diameter)} ({units.value(layer.area, 'mm²')})"
+    return f"{count} × {_bar_name(diameter, units)} ({units.value(layer.area, 'mm²')})"
+
+
+def _bar_name(diameter: float, units: Units) -> str:
+    """A US beam's bars by their designation (#9), as its file gives them; else the
+    diameter in the beam's units."""
+    from clausewise.provisions.bars import US
+    from clausewise.provisions.beam import UnitSystem
+
+    if units.system is UnitSystem.US:
+        size = next((b for b in US if abs(b.diameter - diameter) < 1e-6), None)
+        if size is not None:
+            return size.name
+    return units.length(diameter)
 
 
 def _draw_section(ax: Any, a: Assessment, arrays: Any, frame: _Frame, to_scale: bool,

@@ -335,3 +335,15 @@ def test_a_stacked_figure_puts_the_section_above_and_prints_near_its_own_size(ou
     assert strains.x1 < stresses.x0
     flange = max(rectangles(figure.axes[0]), key=lambda p: p.get_width())
     assert flange.get_width() == pytest.approx(300 + 2 * 6000 / 8)  # the same section drawn
+
+
+def test_a_us_beam_s_bars_are_labelled_by_their_designation():
+    """4 #9 bars (ASTM A615 #9: 1.128 in, 1.00 in², from memory) are labelled as the file
+    gives them, not by their diameter."""
+    text = SCHEDULE.split("[[beam]]")[2].replace('tension = [{ area = "2.37 in2"',
+                                                   'tension = [{ bars = "4 #9"')
+    schedule = parse_schedule("[[beam]]" + text, "us.toml")
+    [outcome] = run(schedule, [default_registry().edition("aci318-19")], None, "persistent")
+    figure = figs.beam_figure(outcome.assessment, bar_groups=outcome.entry.bar_groups)
+    labels = [t.get_text() for t in figure.axes[0].texts]
+    assert any(label.startswith("4 × #9 (4 in²)") for label in labels), labels
