@@ -937,13 +937,28 @@ def envelope_table(envelope: Envelope, units: Units) -> Table:
     return table
 
 
-def _stack_table(a: Assessment) -> Table:
-    table = _plain_table("layer", "edition", "distribution", "version", "source")
-    table.columns[-1].overflow = "fold"
-    for i, s in enumerate(a.stack):
-        _row(table, "base" if i == 0 else f"over {a.stack[i - 1].id}",
-             two_lines(s.id, s.title), s.distribution, s.version, s.source)
-    return table
+def _stack_table(a: Assessment) -> RenderableType:
+    """The layers of the edition, base first; on a narrow terminal each layer's source
+    goes under its title, so a module path is never cut inside a name."""
+    def build(width: int) -> Table:
+        if width >= NARROW:
+            table = _plain_table("layer", "edition", "distribution", "version", "source")
+            table.columns[-1].overflow = "fold"
+        else:  # one column holds it all, a name on a line of its own
+            table = _plain_table("layer", "edition, its distribution and source")
+            words = [w for s in a.stack for w in (s.id, s.distribution, *s.source.split())]
+            table.columns[-1].min_width = max(map(len, words))
+        for i, s in enumerate(a.stack):
+            layer = "base" if i == 0 else f"over {a.stack[i - 1].id}"
+            if width >= NARROW:
+                _row(table, layer, two_lines(s.id, s.title), s.distribution, s.version,
+                     s.source)
+            else:
+                _row(table, layer, two_lines(s.id, f"{s.title}\n{s.distribution} {s.version}"
+                                                   f"\nfrom {s.source}"))
+        return table
+
+    return ByWidth(build)
 
 
 def topics_table(topics: Sequence[TopicAnswer]) -> Table:
@@ -1041,7 +1056,7 @@ def explain_report(schedule: Schedule, outcome: Outcome) -> Group:
     if a.effective_width is not None:
         parts += [_section(f"{a.effective_width.name} ({a.effective_width.bound} governs)"),
                   envelope_table(a.effective_width, units)]
-        if isinstance(a.effective_width, OverhangEnvelope):
+        if isinstance(a.effective_width, OverhangEnvelope) and a.effective_width.overhangs:
             parts.append(overhangs_table(a.effective_width, units))
     if a.concrete_factors or a.steel_factors:
         parts += [_section("material factors"),

@@ -41,3 +41,12 @@ def test_the_legend_keeps_each_key_with_its_edition(columns, monkeypatch, capsys
         assert len(line) <= int(columns)
         assert not line.rstrip().endswith((" A", " B", " C", " D", " E", " F", " G", " H",
                                            " I", " J"))
+
+
+@pytest.mark.parametrize("columns", [80, 120])
+def test_the_edition_stack_never_cuts_a_module_path(columns, monkeypatch, capsys):
+    monkeypatch.setenv("COLUMNS", str(columns))
+    main(["explain", str(DEMO), "B6", "--edition", "en1992-1-1:2004"])
+    out = capsys.readouterr().out
+    assert "clausewise.plugins.en1992_1_1_2004" in out
+    assert max(map(len, out.splitlines())) <= columns
