@@ -851,6 +851,8 @@ class WordTable(Table):
     columns ("en1992-1-1:2004", never "en1992-1-1:2 / 004"). The widths are shared out
     here, since rich narrows the widest columns first whatever their words."""
 
+    longest_kept = LONGEST_KEPT_WORD  # a table of module paths keeps longer words whole
+
     def __rich_console__(self, console: Console, options: ConsoleOptions) -> RenderResult:
         natural, widths, fixed = [], [], []
         for column in self.columns:
@@ -863,7 +865,7 @@ class WordTable(Table):
             natural.append(longest_line)
             fixed.append(column.no_wrap)
             widths.append(longest_line if column.no_wrap else
-                          min(longest_word, LONGEST_KEPT_WORD, longest_line))
+                          min(longest_word, self.longest_kept, longest_line))
         room = options.max_width - self._extra_width - sum(
             self._get_padding_width(i) for i in range(len(self.columns)))
         if sum(natural) <= room or any(not isinstance(c, str | Text) for column in
@@ -905,7 +907,7 @@ class WordTable(Table):
 ID_COLUMNS = {"supplied by", "answered by"}  # edition ids: never cut
 
 
-def _plain_table(*columns: str) -> Table:
+def _plain_table(*columns: str) -> WordTable:
     table = WordTable(box=box.SIMPLE_HEAD, pad_edge=False)
     for column in columns:
         table.add_column(column, overflow="fold", no_wrap=column in ID_COLUMNS)
@@ -943,11 +945,9 @@ def _stack_table(a: Assessment) -> RenderableType:
     def build(width: int) -> Table:
         if width >= NARROW:
             table = _plain_table("layer", "edition", "distribution", "version", "source")
-            table.columns[-1].overflow = "fold"
         else:  # one column holds it all, a name on a line of its own
             table = _plain_table("layer", "edition, its distribution and source")
-            words = [w for s in a.stack for w in (s.id, s.distribution, *s.source.split())]
-            table.columns[-1].min_width = max(map(len, words))
+        table.longest_kept = 60
         for i, s in enumerate(a.stack):
             layer = "base" if i == 0 else f"over {a.stack[i - 1].id}"
             if width >= NARROW:
