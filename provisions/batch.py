@@ -285,7 +285,7 @@ def _scope_table(edition: Edition, ids: Sequence[str], form: str, checks: Sequen
 
 
 def _scope_messages(edition_id: str, checks: Sequence[Any], in_scope: NDArray[np.bool_]
-                    ) -> NDArray[np.object_]:
+                    ) -> NDArray[np.str_]:
     """Per beam, "" in scope, else the scope checks it fails, as the audited summary
     names them; one text per pattern of failures, made once."""
     pattern = np.zeros(in_scope.size, dtype=np.int64)
@@ -295,8 +295,8 @@ def _scope_messages(edition_id: str, checks: Sequence[Any], in_scope: NDArray[np
     for code in np.unique(pattern[~in_scope]).tolist():
         failed = [f"{c.name} ({c.clause.ref})" for j, c in enumerate(checks) if code >> j & 1]
         texts[code] = f"outside the scope of {edition_id}: " + "; ".join(failed)
-    return np.array([texts[p] if not ok else "" for p, ok in
-                     zip(pattern.tolist(), in_scope.tolist(), strict=True)], dtype=object)
+    return _texts([texts[p] if not ok else "" for p, ok in
+                   zip(pattern.tolist(), in_scope.tolist(), strict=True)], in_scope.size)
 
 
 def _record_checks(table: BatchTable, checks: Sequence[Any]) -> None:
@@ -363,10 +363,11 @@ _SOLVER_TEXTS = np.array(["" if code == OK else STATUS_TEXT[code]
                           for code in range(max(STATUS_TEXT) + 1)], dtype=object)
 
 
-def _equilibrium_messages(solver_status: NDArray[np.int_]) -> NDArray[np.object_]:
+def _equilibrium_messages(solver_status: NDArray[np.int_]) -> NDArray[np.str_]:
     """"" where the section is in equilibrium, else the solver's reason, as the audited
     response words it."""
-    return _SOLVER_TEXTS[solver_status]
+    texts: NDArray[np.str_] = _SOLVER_TEXTS[solver_status]  # texts as objects, as _texts
+    return texts
 
 
 def _labels(envelope: Any, n: int) -> NDArray[np.str_]:
