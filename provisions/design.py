@@ -69,8 +69,10 @@ from clausewise.provisions.registry import Edition, Registry, default_registry
 GRID = 48  # candidate areas of the first scan
 POINTS = 128  # one round of refinement between the last failing and first passing areas
 COMPRESSION_GRID = 12  # compression areas tried where tension steel alone cannot pass
+FINE = 8  # then this many areas to a step of the first grids, about the pair found
 COMPRESSION_OPTIONS = 12  # compression bar groups tried with each tension arrangement,
-COMPRESSION_MARGIN = 2.5  # spread from the least area up to this multiple of it
+COMPRESSION_MARGIN = 2.5  # spread from the least area up to this multiple of it, or
+COMPRESSION_SHARE = 0.25  # up to this share of the tension area more, where that is more
 GROW_STEP = 10.0  # mm: resolution of the least depth and width
 GROW_LIMIT = 3.0  # grow up to this multiple of the given depth or width
 PRACTICAL_MARGIN = 0.15  # passing arrangements this much heavier than the lightest compete
@@ -400,23 +402,26 @@ def _without_tension_only(group: _Group, missing: NDArray[np.int_], depth: NDArr
     shares = np.geomspace(0.01, 0.5, COMPRESSION_GRID)
     k = scoped.size
     tension_shares = np.geomspace(1e-2, 1.5, GRID)
-    comp = (top[scoped, None] * shares[None, :])  # k x C
-    pairs_c = np.repeat(comp.ravel(), GRID)
-    pairs_t = np.tile(tension_shares, k * shares.size) * np.repeat(top[scoped], shares.size
-                                                                   * GRID)
-    rows = np.repeat(scoped, shares.size * GRID)
-    table = group.assess(rows, (Layer(pairs_t, depth[rows]),),
-                         (Layer(pairs_c, (edge + trial / 2)[rows]),))
-    passed = _passed(table).reshape(k, shares.size * GRID)
-    total = np.where(passed, (pairs_t + pairs_c).reshape(k, -1), np.inf)
-    pick = np.argmin(total, axis=1)
-    has = np.isfinite(total[np.arange(k), pick])
-    best = np.where(has, comp.ravel()[(np.arange(k) * shares.size) + pick // GRID], np.nan)
+    at = edge + trial / 2  # the compression bars' depth
+    best, tension = _least_pair(group, scoped, top[scoped, None] * shares[None, :], depth, at,
+                                top[scoped, None] * tension_shares[None, :])
+    has = np.isfinite(best)
+    if has.any():  # again about the pair found, on grids FINE times finer: two compression
+        # steps either side (the coarse tension grid can hide a lighter pair one step off)
+        c_step, t_step = shares[1] / shares[0], tension_shares[1] / tension_shares[0]
+        fine_c = best[has, None] * np.geomspace(c_step ** -2, c_step, 3 * FINE + 1)[None, :]
+        fine_t = tension[has, None] * np.geomspace(1 / t_step, t_step, 2 * FINE + 1)[None, :]
+        best[has], _ = _least_pair(group, scoped[has], fine_c, depth, at, fine_t)
+        has = np.isfinite(best)
     best_total = np.full(k, np.inf)
     if has.any():
-        refined = _least_area(group, depth, top, scoped[has],
-                              (Layer(best[has], (edge + trial / 2)[scoped[has]]),),
-                              tension_shares)  # the same grid, so its pass is found again
+        # the least tension area at that compression area, below the pair's (which passes)
+        found_tension = np.full(group.size, np.nan)
+        found_tension[scoped[has]] = tension[has]
+        t_step = tension_shares[1] / tension_shares[0]
+        refined = _least_area(group, depth, found_tension, scoped[has],
+                              (Layer(best[has], at[scoped[has]]),),
+                              np.geomspace(1 / t_step, 1.0, GRID))
         best_total[has] = np.where(refined.found, refined.least + best[has], np.inf)
     for j, i in enumerate(scoped):
         grow: dict[str, Any] = dict(least_depth=grow_depth[j], least_width=grow_width[j])
@@ -431,6 +436,26 @@ def _without_tension_only(group: _Group, missing: NDArray[np.int_], depth: NDArr
                             trial_depth=float(depth[i]), message="no area of steel passes: "
                             "the section must grow", **grow)
     return out
+
+
+def _least_pair(group: _Group, beams: NDArray[np.int_], compression: NDArray[np.float64],
+                depth: NDArray[np.float64], at: NDArray[np.float64],
+                tension: NDArray[np.float64]) -> tuple[NDArray[np.float64], NDArray[np.float64]]:
+    """Per beam, the compression and tension areas of the passing pair with the least total
+    steel, every compression area of its row of ``compression`` (at depth ``at``) against
+    every tension area of its row of ``tension``; NaN where no pair passes."""
+    k, count = compression.shape
+    kinds = tension.shape[1]
+    pairs_c = np.repeat(compression, kinds, axis=1).ravel()
+    pairs_t = np.tile(tension, (1, count)).ravel()
+    rows = np.repeat(beams, count * kinds)
+    table = group.assess(rows, (Layer(pairs_t, depth[rows]),), (Layer(pairs_c, at[rows]),))
+    passed = _passed(table).reshape(k, -1)
+    total = np.where(passed, (pairs_t + pairs_c).reshape(k, -1), np.inf)
+    pick = np.argmin(total, axis=1)
+    found = np.isfinite(total[np.arange(k), pick])
+    return (np.where(found, compression[np.arange(k), pick // kinds], np.nan),
+            np.where(found, tension[np.arange(k), pick % kinds], np.nan))
 
 
 def _least_growth(group: _Group, beams: NDArray[np.int_], trial: float,
@@ -532,9 +557,12 @@ def _compression_bars(group: _Group, i: int, design: Design, sizes: tuple[BarSiz
                       ) -> list[tuple[BarSize, int, float] | None]:
     """Compression bars to try with the tension bars: none where none is needed, else the
     lightest one-layer groups (2 bars or more, fitting the web) of at least the required
-    compression area, since the true tension depth may ask for a little more."""
+    compression area, since the true tension depth may ask for a little more: where the
+    least compression area is small, what more the tension bars ask scales with them."""
     if design.compression_area <= 0:
         return [None]
+    ceiling = max(COMPRESSION_MARGIN * design.compression_area,
+                  design.compression_area + COMPRESSION_SHARE * design.required_area)
     options: list[tuple[float, BarSize, int, float]] = []
     stirrup = float(_floats(stirrup_diameter(group.batch), group.size)[i])
     for size in sizes:
@@ -545,7 +573,7 @@ def _compression_bars(group: _Group, i: int, design: Design, sizes: tuple[BarSiz
         least = max(2, math.ceil(design.compression_area / size.area))
         options += [(n * size.area, size, n, c + stirrup + size.diameter / 2)
                     for n in range(least, fit + 1)
-                    if n * size.area <= COMPRESSION_MARGIN * design.compression_area]
+                    if n * size.area <= ceiling]
     options.sort(key=lambda o: o[0])
     step = max(1, len(options) // COMPRESSION_OPTIONS)
     return [(size, n, depth) for _, size, n, depth in options[::step]]
