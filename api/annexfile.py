@@ -97,7 +97,7 @@ def load_annex(path: Path | str, registry: Registry | None = None) -> PluginReco
         base, problem = _base(head["extends"], registry)
         problems += [problem] if problem else []
     edition_id = head.get("id")
-    if isinstance(edition_id, str) and edition_id in registry.ids():
+    if isinstance(edition_id, str) and edition_id in _installed(registry):
         problems.append(f"[annex] id {edition_id!r} is already an installed edition; give "
                         "the file an id of its own")
     if base is None:  # the parameters can only be judged against their base
@@ -115,6 +115,16 @@ def load_annex(path: Path | str, registry: Registry | None = None) -> PluginReco
     if not record.ok:
         raise AnnexError(path, [record.error])
     return record
+
+
+def _installed(registry: Registry) -> set[str]:
+    """The ids in the registry and every installed edition plugin's, loaded or not (a run
+    that names a few loads only those): a file never takes the place of either."""
+    from importlib.metadata import entry_points
+
+    from clausewise.provisions.registry import GROUP
+
+    return set(registry.ids()) | {ep.name for ep in entry_points(group=GROUP)}
 
 
 def annex_heading(path: Path | str) -> tuple[str, str | None]:

@@ -545,3 +545,18 @@ def test_checking_a_file_for_design_says_to_run_design(capsys):
     err = capsys.readouterr().err
     assert err.count("gives its tension steel") == 1
     assert f"clausewise design {design_file}" in err
+
+
+def test_a_parameter_file_never_takes_the_place_of_an_installed_edition(tmp_path, capsys):
+    """Named alone, aci318-19 is the only plugin a run would load; a file calling itself
+    aci318-19 (over aci318-14, with φ = 0.5) must still be refused, not assessed as it."""
+    annex = tmp_path / "shadow.toml"
+    annex.write_text('[annex]\nid = "aci318-19"\ntitle = "not the standard"\nyear = 2025\n'
+                     'extends = "aci318-14"\n[parameters]\nphi_tension = 0.5\n',
+                     encoding="utf-8")
+    path = write(tmp_path, PASSING)
+    for command in ("check", "compare", "explain", "batch"):
+        argv = [command, str(path), *(["RB-1"] if command == "explain" else []),
+                "--annex", str(annex), "--edition", "aci318-19"]
+        assert main(argv) == 2
+        assert "already an installed edition" in capsys.readouterr().err
