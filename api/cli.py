@@ -22,6 +22,7 @@ from __future__ import annotations
 
 import argparse
 import io
+import math
 import os
 import re
 import sys
@@ -255,7 +256,13 @@ def _registry(annexes: Sequence[Path], named: Sequence[str] = ()) -> Registry:
 
 
 def _name_broken(registry: Registry) -> None:
-    """A broken plugin is left out of a run, never silently: one line on stderr each."""
+    """A broken plugin is left out of a run, never silently: one line on stderr each; with
+    CLAUSEWISE_STRICT=1 it stops the run."""
+    if registry.broken and (registry.strict or os.environ.get("CLAUSEWISE_STRICT") == "1"):
+        from clausewise.provisions.registry import EditionError
+
+        raise EditionError("CLAUSEWISE_STRICT=1 and broken edition plugins: " + "; ".join(
+            f"{r.name}: {r.error}" for r in registry.broken))
     for record in registry.broken:
         _warn(f"edition plugin {record.name} is broken and left out of this run: "
               f"{record.error} (clausewise editions lists it)")
@@ -358,7 +365,9 @@ def _warn(warning: str) -> None:
 
 def _editions(registry: Registry, ids: Sequence[str]) -> list[Edition]:
     if not ids:
+        chosen = os.environ.get("CLAUSEWISE_EDITIONS", "").strip()
         raise UsageError("no edition is installed" + (
+            f" of those CLAUSEWISE_EDITIONS names ({chosen})" if chosen else "") + (
             f"; broken plugins: {', '.join(r.name for r in registry.broken)}"
             if registry.broken else ""))
     return [registry.edition(i) for i in dict.fromkeys(ids)]
@@ -707,8 +716,9 @@ def check_command(args: argparse.Namespace) -> int:
 def compare_command(args: argparse.Namespace) -> int:
     if (args.source is None) != (args.target is None):
         raise UsageError("--from and --to go together: compare --from ID --to ID FILE")
-    if args.threshold < 0:
-        raise UsageError(f"--threshold {args.threshold}: expected a percentage of 0 or more")
+    if not 0 <= args.threshold < math.inf:  # NaN too
+        raise UsageError(f"--threshold {args.threshold}: expected a finite percentage of 0 "
+                         "or more")
     migrating = args.source is not None
     if args.steel:
         if migrating:
@@ -883,17 +893,50 @@ def main(argv: Sequence[str] | None = None) -> int:
         args = parser.parse_args(argv)
     except SystemExit as exc:  # --help, --version, or a usage error already printed
         return exc.code if isinstance(exc.code, int) else 2
+    handlers = _interrupted_by_signals()
     try:
         return int(args.handler(args))
     except (ClausewiseError, OSError, ValueError) as exc:
         print(f"{PROGRAM}: error: {exc}", file=sys.stderr)
         return 2
-    except KeyboardInterrupt:
-        return 130
+    except KeyboardInterrupt as exc:
+        return 128 + getattr(exc, "signal", 2)  # 130 for Ctrl-C, 143 for SIGTERM
     finally:
         import gc
+        import signal
 
         gc.unfreeze()  # what the command set aside from the collector (the loaded beams)
+        for number, handler in handlers.items():
+            signal.signal(number, handler)
+
+
+class Stopped(KeyboardInterrupt):
+    """A termination signal taken as Ctrl-C is: what is written is kept and said."""
+
+    def __init__(self, number: int) -> None:
+        super().__init__(f"signal {number}")
+        self.signal = number
+
+
+def _interrupted_by_signals() -> dict[int, Any]:
+    """SIGTERM and SIGHUP stop a command the way Ctrl-C does (partial rows kept and named,
+    temporary files removed) rather than end it on the spot; the former handlers, to put
+    back."""
+    import signal
+    import threading
+
+    if threading.current_thread() is not threading.main_thread():
+        return {}
+
+    def stop(number: int, _frame: Any) -> None:
+        raise Stopped(number)
+
+    former = {}
+    for name in ("SIGTERM", "SIGHUP"):
+        number = getattr(signal, name, None)
+        if number is not None:
+            former[number] = signal.signal(number, stop)
+    return former
 
 
 if __name__ == "__main__":

@@ -151,16 +151,52 @@ def partial_name(target: Path) -> Path:
 def rows_file(target: Path) -> Iterator[TextIO]:
     """A handle for batch rows: written beside ``target`` under the partial name, and
     renamed over ``target`` only when the block completes. When it does not, the old
-    ``target`` is untouched, the partial rows stay, and stderr says where."""
+    ``target`` is untouched, the partial rows stay, and stderr says where. A link is
+    written through (the file it points to is replaced). The partial file is locked while
+    it is written and renamed, so a second run to the same target is refused rather than
+    mixing its rows into the first's."""
+    target = Path(os.path.realpath(target))
     partial = partial_name(target)
-    handle = partial.open("w", encoding="utf-8", newline="")
+    handle = _locked(partial, target)
+    replaced = False
     try:
         with handle:
             yield handle
+            handle.flush()
+            os.replace(partial, target)  # still locked: no other run takes the name between
+            replaced = True
     except BaseException:
+        if replaced:  # stopped after the rows were complete and in place
+            raise
         kept = "left as it was" if target.exists() else "not written"
         print(f"{PROGRAM}: the run did not complete; {target} {kept}; the rows written so "
               f"far are in {partial}", file=sys.stderr)
         raise
-    os.replace(partial, target)
     confirm(target, "rows")
+
+
+def _locked(partial: Path, target: Path) -> TextIO:
+    """The partial file opened empty for writing, under an exclusive lock (where the
+    system has them): refused when another run holds it."""
+    try:
+        import fcntl
+    except ImportError:  # no advisory locks here: the partial file as it is
+        return partial.open("w", encoding="utf-8", newline="")
+    for _ in range(5):
+        fd = os.open(partial, os.O_RDWR | os.O_CREAT, 0o666)
+        try:
+            fcntl.flock(fd, fcntl.LOCK_EX | fcntl.LOCK_NB)
+        except BlockingIOError:
+            os.close(fd)
+            raise OutputError(f"--out {target}: another run is writing its rows to {partial} "
+                              "now; wait for it to finish or give another name") from None
+        try:  # the name may have been renamed over the target since it was opened
+            same = os.fstat(fd).st_ino == os.stat(partial).st_ino
+        except FileNotFoundError:
+            same = False
+        if same:
+            os.ftruncate(fd, 0)
+            return os.fdopen(fd, "w", encoding="utf-8", newline="")
+        os.close(fd)
+    raise OutputError(f"--out {target}: {partial} keeps changing under another run; give "
+                      "another name")

@@ -560,3 +560,26 @@ def test_a_parameter_file_never_takes_the_place_of_an_installed_edition(tmp_path
                 "--annex", str(annex), "--edition", "aci318-19"]
         assert main(argv) == 2
         assert "already an installed edition" in capsys.readouterr().err
+
+
+def test_strict_stops_a_run_that_would_leave_a_broken_plugin_out(monkeypatch, tmp_path, capsys):
+    monkeypatch.setattr(registry_module, "default_registry", registry_with_a_broken_plugin)
+    monkeypatch.setenv("CLAUSEWISE_STRICT", "1")
+    path = write(tmp_path, PASSING)
+    assert main(["compare", str(path)]) == 2
+    assert "CLAUSEWISE_STRICT=1" in capsys.readouterr().err
+
+
+def test_a_device_is_not_read_as_a_schedule(tmp_path, capsys):
+    device = tmp_path / "endless.toml"
+    device.symlink_to("/dev/zero")
+    assert main(["check", str(device)]) == 2
+    assert "not a regular file" in capsys.readouterr().err
+
+
+@pytest.mark.parametrize("threshold", ["nan", "inf", "-5"])
+def test_a_threshold_that_is_no_finite_percentage_is_refused(threshold, tmp_path, capsys):
+    path = write(tmp_path, PASSING)
+    assert main(["compare", str(path), "--from", "aci318-19", "--to", "aci318-14",
+                 "--threshold", threshold]) == 2
+    assert "expected a finite percentage" in capsys.readouterr().err

@@ -171,6 +171,60 @@ def test_an_interrupted_batch_keeps_the_old_file_and_names_the_partial_rows(
     assert str(partial) in err and "left as it was" in err
 
 
+def test_a_termination_signal_stops_a_batch_as_ctrl_c_does(beams, tmp_path, capsys,
+                                                           monkeypatch):
+    """SIGTERM (a scheduler ending a job) keeps the old file and names the partial rows,
+    and the exit status says which signal (128 + 15)."""
+    import os
+    import signal
+
+    out = tmp_path / "rows.csv"
+    out.write_text("the good results of yesterday\n")
+    real = stream_module.stream_schedule
+
+    def terminated(*args, **kwargs):
+        def stop(done, total):
+            os.kill(os.getpid(), signal.SIGTERM)
+
+        return real(*args[:5], stop, chunk=2)
+
+    monkeypatch.setattr(stream_module, "stream_schedule", terminated)
+    before = signal.getsignal(signal.SIGTERM)
+    assert main(["batch", str(beams), "--out", str(out), "--edition", "aci318-19"]) == 143
+    assert signal.getsignal(signal.SIGTERM) == before  # the command's handler is put back
+    assert out.read_text() == "the good results of yesterday\n"
+    assert "left as it was" in capsys.readouterr().err
+
+
+def test_a_second_run_to_the_same_rows_is_refused_while_the_first_writes(tmp_path):
+    """Two runs to one --out never mix their rows: the second is refused while the first
+    holds the partial file."""
+    from clausewise.outputs import rows_file
+
+    out = tmp_path / "rows.csv"
+    with rows_file(out) as first:
+        first.write("the first run's rows\n")
+        with pytest.raises(OutputError, match="another run is writing its rows"), \
+                rows_file(out):
+            pass
+    assert out.read_text() == "the first run's rows\n"
+
+
+def test_an_output_that_is_a_link_is_written_through_it(beams, tmp_path, capsys):
+    shared = tmp_path / "shared"
+    shared.mkdir()
+    target = shared / "results.json"
+    target.write_text("{}")
+    link = tmp_path / "latest.json"
+    link.symlink_to(target)
+    main(["check", str(beams), "--edition", "aci318-19", "--out", str(link)])
+    assert link.is_symlink() and json.loads(target.read_text())["results"]
+    rows_link = tmp_path / "rows.csv"
+    rows_link.symlink_to(shared / "rows.csv")
+    main(["batch", str(beams), "--edition", "aci318-19", "--out", str(rows_link)])
+    assert rows_link.is_symlink() and (shared / "rows.csv").read_text().startswith("beam,")
+
+
 def test_a_batch_that_fails_keeps_the_old_file(beams, tmp_path, capsys, monkeypatch):
     out = tmp_path / "rows.jsonl"
     out.write_text("{}\n")

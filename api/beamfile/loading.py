@@ -367,8 +367,14 @@ def parse_schedule(text: str, source: str = "<text>", *, design: bool = False) -
 
 
 def read_text(path: Path) -> str:
-    """A schedule file's text, or an :class:`InputError` saying why it cannot be read."""
+    """A schedule file's text, or an :class:`InputError` saying why it cannot be read. Only
+    a regular file is read: a device or a pipe may never end."""
+    import stat
+
     try:
+        if path.exists() and not path.is_dir() and not stat.S_ISREG(path.stat().st_mode):
+            raise InputError(f"{path}: not a regular file (a device, a pipe or a socket); "
+                             "give the path of a schedule file")
         raw = path.read_bytes()
     except FileNotFoundError as exc:
         raise InputError(f"{path}: no such file") from exc

@@ -19,7 +19,10 @@ def _mode_for(path: Path) -> int:
 
 def write_atomic(path: Path, data: str | bytes) -> None:
     """Write a file whole or not at all: a temporary file in the same folder, then
-    ``os.replace``, so a reader never sees half a file and an old file survives a failure."""
+    ``os.replace``, so a reader never sees half a file and an old file survives a failure.
+    A path that is a link is written through: the file it points to is replaced, the link
+    stays."""
+    path = Path(os.path.realpath(path))
     raw = data.encode() if isinstance(data, str) else data
     fd, temporary = tempfile.mkstemp(dir=path.parent, prefix=f".{path.name}.", suffix=".tmp")
     try:
