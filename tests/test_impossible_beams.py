@@ -229,3 +229,30 @@ def test_a_plugins_division_by_zero_is_no_warning_and_its_answer_is_judged():
         a = assess(beam, "aci318-14")
     assert a.response.net_tensile_strain > 0.005
     assert a.resistance.factor.value == pytest.approx(0.90)
+
+
+def test_steel_given_as_an_area_the_concrete_could_never_hold_is_refused():
+    """250 000 mm² of compression steel in a 300 x 600 mm section (180 000 mm² of concrete):
+    given as an area it is not placed bar by bar, so the total is bounded (15 % of the
+    concrete, beyond any standard's maximum steel: ACI 318 and EN 1992 allow 4 to 8 %,
+    from memory)."""
+    from clausewise.beamfile import parse_schedule
+
+    text = """
+[[beam]]
+id = "R1"
+shape = "rectangular"
+web_width = "300 mm"
+overall_depth = "600 mm"
+concrete_strength = "30 MPa"
+yield_strength = "500 MPa"
+tension = [{ area = "2000 mm2", depth = "540 mm" }]
+compression = [{ area = "%s", depth = "60 mm" }]
+moments = { factored = "100 kN m" }
+"""
+    refused = parse_schedule(text % "250000 mm2", "r.toml")
+    assert not refused.entries
+    [problem] = refused.problems
+    assert problem.field == "compression[1]" and "steel the section can hold" in problem.expected
+    assert "180 000 mm²" in problem.expected
+    assert parse_schedule(text % "1600 mm2", "r.toml").entries  # a heavy, real beam is read
