@@ -206,7 +206,7 @@ def _side_edges(layers: Sequence[Any], bar_groups: Sequence[tuple[int, float] | 
     return near
 
 
-def spread_labels(figure: Figure, passes: int = 60) -> None:
+def spread_labels(figure: Figure, passes: int = 400) -> None:
     """Nudge the figure's offset labels apart vertically until no two overlap."""
     from matplotlib.backends.backend_agg import FigureCanvasAgg
     from matplotlib.text import Annotation
@@ -214,12 +214,15 @@ def spread_labels(figure: Figure, passes: int = 60) -> None:
     renderer = FigureCanvasAgg(figure).get_renderer()
     labels = [t for ax in figure.axes for t in ax.texts
               if isinstance(t, Annotation) and t.get_text() and t.anncoords == "offset points"]
-    boxes = [t.get_window_extent(renderer) for t in labels]
+    boxes = [t.get_window_extent(renderer) for t in labels]  # measured once, then moved
     points_per_pixel = 72 / figure.dpi
     for _ in range(passes):
         moved = False
-        for i in range(len(labels)):
-            for j in range(i + 1, len(labels)):
+        order = sorted(range(len(labels)), key=lambda k: boxes[k].y0)
+        for place, i in enumerate(order):  # from the lowest: only those that start below
+            for j in order[place + 1:]:     # its top can overlap it (a pass that misses one
+                if boxes[j].y0 > boxes[i].y1:  # as boxes move leaves it to the next)
+                    break
                 if not boxes[i].overlaps(boxes[j]):
                     continue
                 lower, upper = (i, j) if boxes[i].y0 <= boxes[j].y0 else (j, i)
@@ -227,7 +230,7 @@ def spread_labels(figure: Figure, passes: int = 60) -> None:
                 for k, sign in ((lower, -1), (upper, 1)):
                     x, y = labels[k].xyann
                     labels[k].xyann = (x, y + sign * gap / 2 * points_per_pixel)
-                    boxes[k] = labels[k].get_window_extent(renderer)
+                    boxes[k] = boxes[k].translated(0, sign * gap / 2)
                 moved = True
         if not moved:
             return

@@ -347,3 +347,36 @@ def test_a_us_beam_s_bars_are_labelled_by_their_designation():
     figure = figs.beam_figure(outcome.assessment, bar_groups=outcome.entry.bar_groups)
     labels = [t.get_text() for t in figure.axes[0].texts]
     assert any(label.startswith("4 × #9 (4 in²)") for label in labels), labels
+
+
+def test_labels_of_forty_close_layers_are_spread_apart_measuring_each_once(monkeypatch):
+    """Forty layers 6 mm apart: every label ends clear of every other, and each is
+    measured once (moving a label moves its box; measuring again after every move made a
+    many-layer sheet take minutes)."""
+    from matplotlib.backends.backend_agg import FigureCanvasAgg
+    from matplotlib.text import Annotation
+
+    layers = ", ".join(f'{{ bars = "2 x 12 mm", depth = "{540 - 6 * i} mm" }}'
+                       for i in range(40))
+    text = SCHEDULE.split("[[beam]]")[1].replace(
+        'tension = [{ area = "2000 mm2", depth = "540 mm" }]', f"tension = [{layers}]")
+    schedule = parse_schedule("[[beam]]" + text, "dense.toml")
+    [outcome] = run(schedule, [default_registry().edition("aci318-19")], None, "persistent")
+    measured = []
+    real = Annotation.get_window_extent
+
+    def counted(self, renderer=None):
+        measured.append(self)
+        return real(self, renderer)
+
+    monkeypatch.setattr(Annotation, "get_window_extent", counted)
+    figure = figs.beam_figure(outcome.assessment, bar_groups=outcome.entry.bar_groups)
+    monkeypatch.undo()
+    spread = [t for ax in figure.axes for t in ax.texts
+              if isinstance(t, Annotation) and t.get_text() and t.anncoords == "offset points"]
+    assert len(spread) >= 40 and len(measured) <= 2 * len(spread)
+    renderer = FigureCanvasAgg(figure).get_renderer()
+    boxes = [t.get_window_extent(renderer) for t in spread]
+    for i, a in enumerate(boxes):
+        for b in boxes[i + 1:]:
+            assert not a.overlaps(b), (a, b)
