@@ -1179,9 +1179,8 @@ def batch_summary(schedule: Schedule, summary: BatchSummary, out: Path | None,
                    "rows not written: give --out results.csv (or .jsonl) to keep them",
                    style="dim")
     parts: list[RenderableType] = [header(schedule, "schedule checked (batch path)", situation,
-                                          list(summary.counts)), counts,
-                                   worst, written]
-    if schedule.problems:
+                                          list(summary.counts))]
+    if schedule.problems:  # input problems come first, as in every report
         parts.append(problems_table(schedule.problems))
-    parts.append(caution())
+    parts += [counts, worst, written, caution()]
     return Group(*parts)

@@ -240,6 +240,7 @@ def write_refused(summary: Summary, problems: Sequence[InputProblem],
     if not problems:
         return
     summary.refused(edition_ids, len({p.beam for p in problems}))
+    summary.rows += len(problems) * len(edition_ids)  # a row per problem and edition
     if writer is not None:
         blank = [""] * (len(writer.columns) - 7)
         writer.write([[p.beam or "?", edition_id, "", situation, REFUSED, *blank,
