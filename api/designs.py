@@ -12,7 +12,7 @@ from typing import TYPE_CHECKING, Any
 
 from clausewise.provisions.beam import UnitSystem
 from clausewise.provisions.design import PRACTICAL_MARGIN, Design, bars_text, design_many
-from clausewise.provisions.engine import PASS
+from clausewise.provisions.engine import CAPACITY_ONLY, PASS
 from clausewise.provisions.verdicts import CAUTION
 from clausewise.results.display import convert
 
@@ -38,7 +38,7 @@ def design_schedule(schedule: Schedule, editions: Sequence[Edition], form: str |
     for i in range(len(beams)):
         for e in editions:
             d = by_edition[e.id][i]
-            if d.assessment is not None and d.assessment.status != PASS:
+            if d.assessment is not None and d.assessment.status not in (PASS, CAPACITY_ONLY):
                 d = replace(d, status="chosen bars fail the check",
                             message=d.assessment.summary())
             out.append(d)

@@ -57,6 +57,7 @@ from clausewise.provisions.batch import (
 from clausewise.provisions.beam import Beam, Context, Layer, UnitSystem
 from clausewise.provisions.detailing import bars_that_fit, cover, stirrup_diameter
 from clausewise.provisions.engine import (
+    CAPACITY_ONLY,
     OUT_OF_SCOPE,
     PASS,
     Assessment,
@@ -79,6 +80,8 @@ PRACTICAL_MARGIN = 0.15  # passing arrangements this much heavier than the light
 LIGHTEST_SHARE = 0.7  # arrangements lighter than this share of the required area are skipped
 TRIAL_BAR = {"metric": 20.0, "US": 25.4, "CSA": 19.5, "N": 20.0}  # mm, for the trial depth
 
+NO_MOMENTS = ("no moments given: the least steel that passes every other check (minimum "
+              "steel, detailing); give moments to design for strength")
 DESIGNED, COMPRESSION, NO_DESIGN, NO_FIT = ("designed", "designed with compression steel",
                                             "no design", "no arrangement fits")
 
@@ -277,7 +280,9 @@ def _most_steel(b: Beam, n: int) -> NDArray[np.float64]:
 
 
 def _passed(table: BatchTable) -> NDArray[np.bool_]:
-    return np.asarray(table.status == PASS, dtype=bool)
+    """Every check passes: a beam given without moments has no strength check, so its
+    least steel is the least that passes the others (minimum steel, detailing)."""
+    return np.asarray((table.status == PASS) | (table.status == CAPACITY_ONLY), dtype=bool)
 
 
 @dataclass
@@ -699,7 +704,11 @@ def _design_members(edition: Edition, beams: list[Beam], form: str | None, situa
         chosen, _ = resolve_form(edition, group_beams[0], form)
         group = _Group(edition, group_beams, stack_beams(group_beams),
                        Context(form=chosen, situation=situation), form, given)
-        return _design_group(group, audit)
+        designs = _design_group(group, audit)
+        if not group_beams[0].actions.given:  # the same for the whole group
+            designs = [replace(d, message=NO_MOMENTS) if d.arrangement is not None else d
+                       for d in designs]
+        return designs
     except (ClausewiseError, ValueError, ArithmeticError) as exc:
         if len(beams) == 1:
             return [Design(beams[0].id, edition.id, "error",

@@ -368,3 +368,15 @@ def test_compression_steel_is_near_the_least_total_an_independent_sweep_finds(ed
     totals = [t + c for (t, c), s in zip(pairs, table.status, strict=True) if s == "pass"]
     reported = result.required_area + result.compression_area
     assert totals and min(totals) > 0.99 * reported
+
+
+def test_a_beam_without_moments_is_designed_for_minimum_steel():
+    """No moment to resist: the least steel is ACI 318-19 9.6.1.2's minimum, max(0.25
+    √f'c, 1.4) bw d / fy at the trial depth (from memory), not 'the section must grow'."""
+    beam = replace(rectangle(100e6, bw=300.0, h=600.0, fc=32.0, fy=500.0), actions=Actions())
+    result = design(beam, "aci318-19")
+    assert result.arrangement is not None and result.passed
+    d = result.trial_depth
+    least = max(0.25 * math.sqrt(32.0), 1.4) / 500.0 * 300.0 * d
+    assert result.required_area == pytest.approx(least, rel=2e-3)
+    assert result.set_by.startswith("minimum") and "no moments given" in result.message
