@@ -208,7 +208,12 @@ def _read_text(value: str, kind: Kind, us: bool, sign: str) -> tuple[float, str]
     shown = " ".join(value.split())
     info = unit_info(unit_text)
     if info.kind != kind.name:
-        raise QuantityError(shown, kind.expected, _wrong_unit(unit_text, info))
+        why = _wrong_unit(unit_text, info)
+        if "[" in why:  # pint's dimensions ("[substance] / [length] ** 3") say little
+            why = f"'{unit_text}' is not a unit of {kind.name}"
+        if unit_text.lower() != unit_text and unit_info(unit_text.lower()).kind == kind.name:
+            why += f" (units are case-sensitive: did you mean '{unit_text.lower()}'?)"
+        raise QuantityError(shown, kind.expected, why)
     return _signed(number * info.factor, shown, kind, sign)
 
 

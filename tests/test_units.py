@@ -233,3 +233,11 @@ def test_pint_is_asked_once_per_distinct_unit_spelling(monkeypatch: pytest.Monke
     assert total > 0
     # each normalised spelling once: the five above and "inch", the US default length
     assert sorted(calls) == sorted(["mm", "in", "MPa", "kip*ft", "mm**2", "inch"])
+
+
+def test_a_unit_in_the_wrong_case_is_named_and_the_right_one_suggested():
+    """pint reads "MM" as megamolar: the message says it is no length and suggests mm."""
+    with pytest.raises(QuantityError) as error:
+        read_quantity("600 MM", LENGTH)
+    assert "'MM' is not a unit of length" in error.value.expected
+    assert "did you mean 'mm'?" in error.value.expected and "[" not in error.value.expected
