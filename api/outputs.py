@@ -183,7 +183,11 @@ def _locked(partial: Path, target: Path) -> TextIO:
     except ImportError:  # no advisory locks here: the partial file as it is
         return partial.open("w", encoding="utf-8", newline="")
     for _ in range(5):
-        fd = os.open(partial, os.O_RDWR | os.O_CREAT, 0o666)
+        try:
+            fd = os.open(partial, os.O_RDWR | os.O_CREAT, 0o666)
+        except OSError as exc:
+            raise OutputError(f"--out {target}: cannot write {partial}: "
+                              f"{exc.strerror or exc}") from None
         try:
             fcntl.flock(fd, fcntl.LOCK_EX | fcntl.LOCK_NB)
         except BlockingIOError:

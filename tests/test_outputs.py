@@ -308,3 +308,18 @@ def test_a_command_that_names_an_edition_loads_only_it_and_its_bases(beams, caps
                  "--format", "json"]) in (0, 1)
     assert set(loaded) == {"en1992-1-1:2004", "xl-na:2023"}
     capsys.readouterr()
+
+
+def test_a_folder_that_cannot_be_written_is_named_with_the_file_asked_for(
+        beams, tmp_path, capsys, monkeypatch):
+    import errno
+    import tempfile
+
+    def read_only(*args, **kwargs):
+        raise OSError(errno.EROFS, "Read-only file system")
+
+    monkeypatch.setattr(tempfile, "mkstemp", read_only)
+    out = tmp_path / "r.json"
+    assert main(["check", str(beams), "--edition", "aci318-19", "--out", str(out)]) == 2
+    err = capsys.readouterr().err
+    assert f"cannot write {out}: Read-only file system" in err and ".tmp" not in err

@@ -24,7 +24,10 @@ def write_atomic(path: Path, data: str | bytes) -> None:
     stays."""
     path = Path(os.path.realpath(path))
     raw = data.encode() if isinstance(data, str) else data
-    fd, temporary = tempfile.mkstemp(dir=path.parent, prefix=f".{path.name}.", suffix=".tmp")
+    try:
+        fd, temporary = tempfile.mkstemp(dir=path.parent, prefix=f".{path.name}.", suffix=".tmp")
+    except OSError as exc:  # said of the file asked for, not of a temporary name
+        raise OSError(exc.errno, f"cannot write {path}: {exc.strerror or exc}") from None
     try:
         with os.fdopen(fd, "wb") as handle:
             handle.write(raw)
