@@ -14,7 +14,8 @@ slightly. Values are recalled from memory of the published codes, not read from
 them; clause titles are our own words.
 
 Contents (clause numbers of 318-14 and 318-19; 318-11 numbers its own)
-  scope ............. 19.2.1.1 concrete strength, 20.2.2.4 steel strength
+  scope ............. 19.2.1.1 concrete strength, 20.2.2.4 steel strength,
+                      9.9.1.1 deep beams
   flange width ...... 6.3.2.1 overhang limits, 6.3.2.2 isolated T
   concrete .......... 22.2.2.1 ultimate strain, 22.2.2.4.1 block, 22.2.2.4.3 β1
   steel ............. 20.2.2.1-2 elastic-plastic, Es
@@ -68,6 +69,7 @@ from clausewise.provisions import (
     per_beam,
     ratio_parameter,
     smallest_of,
+    span_depth_check,
     sqrt,
     stirrup_diameter,
 )
@@ -97,6 +99,7 @@ CLAUSES_2014: Mapping[str, str] = MappingProxyType({
     "flange_in_tension": "9.6.1.2",
     "minimum_steel_waiver": "9.6.1.3",
     "beam_strain": "9.3.3.1",
+    "deep_beam": "9.9.1.1",
 })
 
 # Detailing clauses of 318-14 and 318-19 (318-11 numbers its own): spacing, layers, crack
@@ -174,6 +177,9 @@ class Aci318:
             Parameter("fy_max", 80_000 * MPA_PER_PSI if ip else 550.0,
                       c("steel_maximum", "greatest yield strength for flexure"),
                       "80 000 psi" if ip else "550 MPa", (300.0, 700.0), "MPa"),
+            Parameter("deep_beam_ratio", 4.0, c("deep_beam", "deep beams: ln at most 4h"),
+                      "least clear span over overall depth of a beam designed by flexure "
+                      "(from memory)", (2.0, 10.0)),
             ratio_parameter(self.info.clause("-", "cylinder about 0.8 of cube strength: common "
                                              "practice, not ACI text")),
             Parameter("dead_only_factor", 1.4, c("combinations", "dead load alone: 1.4D"),
@@ -210,6 +216,8 @@ class Aci318:
                   params["fc_max"].description),
             Check("yield strength within the flexure limit", beam.yield_strength,
                   params.value("fy_max"), Sense.AT_MOST, params["fy_max"].clause, "fy", "MPa"),
+            *span_depth_check(beam, params.value("deep_beam_ratio"),
+                              params["deep_beam_ratio"].clause),
         ]
 
     # --- effective flange width ------------------------------------------------------

@@ -8,7 +8,7 @@ and the span (not the clear span) limits an L flange. Clause numbers and
 values are recalled from memory of the published code.
 
 Contents
-  scope ............. 1.1.1 concrete strength, 9.4 steel strength
+  scope ............. 1.1.1 concrete strength, 9.4 steel strength, 10.7.1 deep beams
   flange width ...... 8.12.2 T flange, 8.12.3 L flange, 8.12.4 isolated T
   concrete .......... 10.2.3 ultimate strain, 10.2.7.1 block, 10.2.7.3 β1
   steel ............. 10.2.4 elastic-plastic, 8.5.2 Es
@@ -49,6 +49,7 @@ CLAUSES_2011 = MappingProxyType({
     "flange_in_tension": "10.5.2",
     "minimum_steel_waiver": "10.5.3",
     "beam_strain": "10.3.5",
+    "deep_beam": "10.7.1",
 })
 
 

@@ -6,7 +6,7 @@ code): the tension-controlled limit follows the steel, εt ≥ εty + 0.003, wit
 εty = fy/Es for every grade (Table 21.2.2, 21.2.2.1).
 
 Contents
-  scope ............. 19.2.1.1 concrete strength, 20.2.2.4 steel strength
+  scope ............. 19.2.1.1 concrete strength, 20.2.2.4 steel strength, 9.9.1.1 deep beams
   flange width ...... 6.3.2.1 overhang limits, 6.3.2.2 isolated T
   concrete .......... 22.2.2.1 ultimate strain, 22.2.2.4.1 block, 22.2.2.4.3 β1
   steel ............. 20.2.2.1-2 elastic-plastic, Es

@@ -6,7 +6,7 @@ already the factored resistance Mr and the member factor is 1. Values from
 memory of the published standard; clause titles are our own words.
 
 Contents
-  scope ............. 8.6.1.1 concrete strength, 8.5.1 steel strength
+  scope ............. 8.6.1.1 concrete strength, 8.5.1 steel strength, 10.7.1 deep members
   flange width ...... 10.3.3 T-beam overhangs, 10.3.4 L-beam overhang
   concrete .......... 8.4.2 φc, 10.1.3 ultimate strain, 10.1.7 α1 and β1
   steel ............. 8.4.3 φs, 8.5.4.1 Es, elastic-plastic
@@ -54,6 +54,7 @@ from clausewise.provisions import (
     per_beam,
     ratio_parameter,
     smallest_of,
+    span_depth_check,
     sqrt,
     stirrup_diameter,
 )
@@ -89,6 +90,9 @@ def edition_parameters(context: Context) -> Sequence[Parameter]:
                   "greatest f'c", (50.0, 120.0), "MPa"),
         Parameter("fy_max", 500.0, clause("8.5.1", "greatest specified yield strength"),
                   "greatest fy used in design", (300.0, 700.0), "MPa"),
+        Parameter("deep_beam_ratio", 2.0, clause("10.7.1", "deep flexural members: clear span "
+                  "below 2 h"), "least clear span over overall depth of a member designed by "
+                  "flexure (from memory)", (1.0, 10.0)),
         Parameter("min_steel_coefficient", 0.2,
                   clause("10.5.1.2", "minimum tension reinforcement"),
                   "coefficient of √f'c/fy·bt·h", (0.1, 0.5)),
@@ -122,6 +126,7 @@ def applicability(beam: Beam, params: Parameters, context: Context) -> Sequence[
               Sense.AT_MOST, params["fc_max"].clause, "f'c", "MPa"),
         Check("yield strength within the design limit", beam.yield_strength,
               params.value("fy_max"), Sense.AT_MOST, params["fy_max"].clause, "fy", "MPa"),
+        *span_depth_check(beam, params.value("deep_beam_ratio"), params["deep_beam_ratio"].clause),
     ]
 
 

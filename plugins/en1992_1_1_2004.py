@@ -9,7 +9,8 @@ published standard; clause titles are our own words.
 Contents
   parameters ........ 2.4.2.4 partial factors, 3.1.6(1) αcc, 3.1.7 concrete model,
                       3.2.7 steel branch, 5.5(4) k1-k4, 9.2.1.1 steel ratios, EN 1990 6.10
-  scope ............. 3.1.2(2)P concrete classes, 3.2.2(3)P yield strength
+  scope ............. 3.1.2(2)P concrete classes, 3.2.2(3)P yield strength,
+                      5.3.1(3) deep beams
   flange width ...... 5.3.2.1 effective width, Figure 5.2 distance l0
   concrete .......... 3.1.6(1) fcd, Table 3.1 strains and fctm, 3.1.7 block or parabola
   steel ............. 3.2.7 design diagram, horizontal or inclined top branch
@@ -69,6 +70,7 @@ from clausewise.provisions import (
     power,
     ratio_parameter,
     shown,
+    span_depth_check,
 )
 
 EDITION = EditionInfo(
@@ -129,6 +131,8 @@ def edition_parameters(context: Context) -> Sequence[Parameter]:
                   "lowest fyk the rules cover", (200.0, 500.0), "MPa"),
         Parameter("fyk_max", 600.0, clause("3.2.2(3)P", "range of yield strength"),
                   "highest fyk the rules cover", (500.0, 700.0), "MPa"),
+        Parameter("deep_beam_ratio", 3.0, clause("5.3.1(3)", "a deep beam: span less than 3h"),
+                  "least span over overall depth of a beam (from memory)", (2.0, 10.0)),
         Parameter("redistribution_ratio", 1.0, ductility,
                   "δ, moment after redistribution over elastic moment (1: none)", (0.7, 1.0)),
         Parameter("neutral_axis_limit", WHERE_REDISTRIBUTED, clause(
@@ -211,6 +215,8 @@ def applicability(beam: Beam, params: Parameters, context: Context) -> Sequence[
               Sense.AT_LEAST, params["fyk_min"].clause, "fyk", "MPa"),
         Check("yield strength at most the highest covered", fyk, params.value("fyk_max"),
               Sense.AT_MOST, params["fyk_max"].clause, "fyk", "MPa"),
+        *span_depth_check(beam, params.value("deep_beam_ratio"), params["deep_beam_ratio"].clause,
+                          clear=False),
     ]
 
 

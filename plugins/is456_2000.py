@@ -8,7 +8,7 @@ ductility is a limit on the neutral-axis depth. Values from memory of the publis
 code; clause titles are our own words.
 
 Contents
-  scope ............. Table 2 concrete grades, 5.6 reinforcement grades
+  scope ............. Table 2 concrete grades, 5.6 reinforcement grades, 29.1 deep beams
   flange width ...... 23.1.2 (a) T-beams, (b) L-beams, (c) isolated beams
   concrete .......... 38.1(b) ultimate strain, 38.1(c) and Fig. 21 parabola-rectangle,
                       resultants as printed (0.36, 0.42) or the exact curve, by choice
@@ -59,6 +59,7 @@ from clausewise.provisions import (
     hookimpl,
     per_beam,
     ratio_parameter,
+    span_depth_check,
 )
 
 EDITION = EditionInfo(
@@ -147,6 +148,12 @@ def edition_parameters(context: Context) -> Sequence[Parameter]:
                   "least yield strength", (200.0, 300.0), "MPa"),
         Parameter("fy_max", 550.0, clause("5.6", "reinforcement grades: deformed bars up to "
                   "Fe 550"), "greatest yield strength", (415.0, 600.0), "MPa"),
+        Parameter("deep_beam_ratio_simple", 2.0, clause("29.1", "deep beams: simply supported "
+                  "below 2.0"), "least effective span over overall depth of a simply supported "
+                  "beam (from memory)", (1.0, 10.0)),
+        Parameter("deep_beam_ratio_continuous", 2.5, clause("29.1", "deep beams: continuous "
+                  "below 2.5"), "least effective span over overall depth of a continuous beam "
+                  "(from memory)", (1.0, 10.0)),
         Parameter("cube_from_cylinder", BY_CLASS_PAIRS, CONVERSION,
                   f"{BY_CLASS_PAIRS} (EN 1992-1-1:2004 Table 3.1, else the ratio) or "
                   f"{BY_RATIO} (cylinder_cube_ratio throughout)",
@@ -181,7 +188,18 @@ def applicability(beam: Beam, params: Parameters, context: Context) -> Sequence[
               Sense.AT_LEAST, params["fy_min"].clause, "fy", "MPa"),
         Check("yield strength at most the greatest grade", fy, params.value("fy_max"),
               Sense.AT_MOST, params["fy_max"].clause, "fy", "MPa"),
+        *_deep_beam(beam, params),
     ]
+
+
+def _deep_beam(beam: Beam, params: Parameters) -> list[Check]:
+    """29.1: a deep beam below 2.0 (simply supported) or 2.5 (continuous) span over depth;
+    a cantilever is not among its cases."""
+    if beam.layout is None or beam.layout.continuity is Continuity.CANTILEVER:
+        return []
+    name = "deep_beam_ratio_simple" if beam.layout.continuity is Continuity.SIMPLE else \
+        "deep_beam_ratio_continuous"
+    return span_depth_check(beam, params.value(name), params[name].clause, clear=False)
 
 
 # --- effective flange width -------------------------------------------------------------

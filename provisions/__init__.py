@@ -82,6 +82,7 @@ _EXPORTS = {
     "given_width": "clausewise.provisions.widths",
     "half_clear_distance": "clausewise.provisions.widths",
     "overhang_envelope": "clausewise.provisions.widths",
+    "span_depth_check": "clausewise.provisions.deep_beams",
     "Status": "clausewise.provisions.verdicts",
 }
 
@@ -121,6 +122,7 @@ if TYPE_CHECKING:
         dead_alone_and_with_live,
         factored_moment,
     )
+    from clausewise.provisions.deep_beams import span_depth_check
     from clausewise.provisions.detailing import DetailingLimits, aggregate_size, stirrup_diameter
     from clausewise.provisions.engine import (
         Assessment,
@@ -248,6 +250,7 @@ __all__ = [
     "given_width",
     "half_clear_distance",
     "overhang_envelope",
+    "span_depth_check",
     "Status",
 ]
 

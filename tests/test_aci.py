@@ -523,7 +523,7 @@ def test_batch_equals_single(registry, edition_id, context):
 SHARED_PARAMETERS = {
     "ultimate_strain", "block_intensity", "steel_modulus", "phi_tension", "phi_compression",
     "min_net_tensile_strain", "fc_min", "fc_max", "fy_max", "dead_only_factor", "dead_factor",
-    "live_factor", "cylinder_cube_ratio",
+    "live_factor", "cylinder_cube_ratio", "deep_beam_ratio",
 }
 
 

@@ -256,3 +256,37 @@ moments = { factored = "100 kN m" }
     assert problem.field == "compression[1]" and "steel the section can hold" in problem.expected
     assert "180 000 mm²" in problem.expected
     assert parse_schedule(text % "1600 mm2", "r.toml").entries  # a heavy, real beam is read
+
+
+@pytest.mark.parametrize(("edition", "least"), [
+    ("aci318-19", 4.0),  # ACI 318-19 9.9.1.1: deep beam, ln at most 4h (from memory)
+    ("aci318-11", 4.0),  # ACI 318-11 10.7.1 (from memory)
+    ("en1992-1-1:2004", 3.0),  # EN 1992-1-1 5.3.1(3): span less than 3h (from memory)
+    ("is456:2000", 2.0),  # IS 456 29.1: simply supported, span/depth below 2.0 (from memory)
+    ("csa-a23.3:19", 2.0),  # CSA A23.3-19 10.7.1: clear span below 2h (from memory)
+])
+def test_a_deep_beam_is_outside_every_edition_s_flexural_scope(edition, least):
+    """A 5 m deep beam over an 8 m simple span is no beam for plane sections: outside
+    scope, named by its clause; the same section over a span long enough is in scope."""
+    from dataclasses import replace
+
+    from clausewise.provisions import (
+        Actions,
+        Beam,
+        Bending,
+        Continuity,
+        FloorLayout,
+        Layer,
+        Shape,
+        assess,
+    )
+
+    beam = Beam("transfer", Shape.RECTANGLE, Bending.SAGGING, 400.0, 5000.0, 32.0, 500.0,
+                (Layer(6000.0, 4900.0),), layout=FloorLayout(8000.0, Continuity.SIMPLE),
+                actions=Actions(dead=2000e6))
+    deep = assess(beam, edition)
+    assert deep.status == "outside scope"
+    [check] = [c for c in deep.applicability if c.name.startswith("span-to-depth")]
+    assert check.value == pytest.approx(8000 / 5000) and check.limit == least
+    long_enough = replace(beam, layout=FloorLayout(5000.0 * least * 1.01, Continuity.SIMPLE))
+    assert assess(long_enough, edition).status != "outside scope"
