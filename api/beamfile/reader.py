@@ -35,6 +35,7 @@ from clausewise.units import (
 )
 
 _KINDS = {"mm": LENGTH, "mm²": AREA, "MPa": STRESS, "kN m": MOMENT}
+MOST_STEEL = 0.15  # of the concrete section: beyond any standard's limit, a slip of the unit
 
 _SHAPES = {"T": Shape.TEE, "L": Shape.ELL, "rectangular": Shape.RECTANGLE,
            "inverted T": Shape.TEE}
@@ -338,7 +339,7 @@ class _BeamReader:
         tension = self.layers("tension", m.tension, h, tension=True)
         compression = self.layers("compression", m.compression, h, tension=False)
         self._compression_inside(tension, compression)
-        _steel_held(self, tension, compression, bw, h, hf, bf)
+        self._steel_held(tension, compression, bw, h, hf, bf)
         if not m.tension:
             self.shown["tension steel"] = "to be designed"
         cover = q(m.cover, "cover", LENGTH, "cover to stirrups")
@@ -395,6 +396,32 @@ class _BeamReader:
             self.problem("effective_flange_width", bf[1], f"a flange width at least the web "
                          f"width ({bw[1]})")
 
+    def _steel_held(self, tension: list[Layer], compression: list[Layer],
+                    bw: tuple[float, str] | None, h: tuple[float, str] | None,
+                    hf: tuple[float, str] | None, bf: tuple[float, str] | None) -> None:
+        """Steel the section can hold: all of it within MOST_STEEL of the concrete (the
+        web, and the flange where its width is given). A layer given as an area is not
+        placed bar by bar, so this keeps an area the concrete could never hold from
+        passing."""
+        m = self.model
+        if bw is None or h is None or not (tension or compression) or (
+                len(tension), len(compression)) != (len(m.tension), len(m.compression)):
+            return  # a layer that could not be read is reported already
+        concrete = bw[0] * h[0]
+        if bf is not None and hf is not None:
+            concrete += (bf[0] - bw[0]) * hf[0]
+        total = sum(layer.area for layer in (*tension, *compression))
+        if total <= MOST_STEEL * concrete:
+            return
+        group, number, _ = max(((g, i, layer) for g, layers in (("tension", tension),
+                                                                ("compression", compression))
+                                for i, layer in enumerate(layers, 1)),
+                               key=lambda item: item[2].area)
+        self.problem(f"{group}[{number}]", self._texts[group][number - 1],
+                     f"steel the section can hold: {self.in_user_units(total, AREA)} in all "
+                     f"is more than {MOST_STEEL:.0%} of the concrete section "
+                     f"({self.in_user_units(concrete, AREA)}); is the area or its unit right?")
+
     def _compression_inside(self, tension: list[Layer], compression: list[Layer]) -> None:
         if not tension or not compression:
             return
@@ -405,35 +432,6 @@ class _BeamReader:
                              "compression steel nearer the "
                              "compression face than the tension steel (effective depth d = "
                              f"{self.in_user_units(d, LENGTH)})")
-
-
-MOST_STEEL = 0.15  # of the concrete section: beyond any standard's limit, a slip of the unit
-
-
-def _steel_held(self_: _BeamReader, tension: list[Layer], compression: list[Layer],
-                bw: tuple[float, str] | None, h: tuple[float, str] | None,
-                hf: tuple[float, str] | None, bf: tuple[float, str] | None) -> None:
-    """Steel the section can hold: all of it within MOST_STEEL of the concrete (the web,
-    and the flange where its width is given). A layer given as an area is not placed bar
-    by bar, so this is what keeps an area the concrete could never hold from passing."""
-    m = self_.model
-    if bw is None or h is None or not (tension or compression) or (
-            len(tension), len(compression)) != (len(m.tension), len(m.compression)):
-        return  # a layer that could not be read is reported already
-    concrete = bw[0] * h[0]
-    if bf is not None and hf is not None:
-        concrete += (bf[0] - bw[0]) * hf[0]
-    total = sum(layer.area for layer in (*tension, *compression))
-    if total <= MOST_STEEL * concrete:
-        return
-    group, number, layer = max(((g, i, layer) for g, layers in (("tension", tension),
-                                                               ("compression", compression))
-                                for i, layer in enumerate(layers, 1)),
-                               key=lambda item: item[2].area)
-    self_.problem(f"{group}[{number}]", self_._texts[group][number - 1],
-                  f"steel the section can hold: {self_.in_user_units(total, AREA)} in all is "
-                  f"more than {MOST_STEEL:.0%} of the concrete section "
-                  f"({self_.in_user_units(concrete, AREA)}); is the area or its unit right?")
 
 
 def _short(value: float) -> str:
