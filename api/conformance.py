@@ -11,6 +11,8 @@ from clausewise.annexfile import load_annex
 from clausewise.provisions import CAUTION, ClausewiseError, default_registry
 from clausewise.provisions.testing import PROPERTIES, check_properties
 
+SHOWN = 5  # findings of one property shown before the rest are counted (--verbose: all)
+
 
 def main(argv: Sequence[str] | None = None) -> int:
     """Check editions from the command line: 0 conforms, 1 findings, 2 bad arguments."""
@@ -46,9 +48,13 @@ def main(argv: Sequence[str] | None = None) -> int:
             if args.verbose:
                 print(f"  {'ok  ' if not found else 'FAIL'} {name}"
                       + (f" ({len(found)} finding(s))" if found else ""))
-            for finding in found:
+            shown = found if args.verbose else found[:SHOWN]
+            for finding in shown:
                 print(f"  - {finding.property}{f' [{finding.beam}]' if finding.beam else ''}: "
                       f"{finding.message}")
+            if len(found) > len(shown):
+                print(f"  - {name}: {len(found) - len(shown)} more finding(s) of this "
+                      "property (--verbose shows every one)")
     for record in registry.broken:
         print(f"broken plugin {record.name} ({record.source}): {record.error}")
     print(CAUTION)

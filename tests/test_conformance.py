@@ -373,3 +373,24 @@ def test_command_line_verbose_prints_every_property_and_its_outcome():
         assert f"ok   {prop.__name__}" in done.stdout
     quiet = run_kit(edition_id)
     assert "ok   hook_contract" not in quiet.stdout and f"{edition_id}: conforms" in quiet.stdout
+
+
+def test_the_command_shows_a_few_findings_of_a_property_and_counts_the_rest(monkeypatch,
+                                                                            capsys):
+    """A broken plugin breaks a property on every realistic beam: a few findings stand
+    for them, the rest are counted, and --verbose gives every one."""
+    from clausewise import conformance
+    from clausewise.provisions.testing import Finding
+
+    edition_id = next(iter(sorted(EDITIONS)))
+    many = [Finding("answers_make_sense", edition_id, f"φ = 1.2 on beam {i}", f"K{i}")
+            for i in range(40)]
+    monkeypatch.setattr(conformance, "check_properties",
+                        lambda edition: [("answers_make_sense", many)])
+    assert conformance.main([edition_id]) == 1
+    out = capsys.readouterr().out
+    assert f"{edition_id}: 40 finding(s)" in out
+    assert out.count("φ = 1.2 on beam") == conformance.SHOWN
+    assert f"{40 - conformance.SHOWN} more finding(s) of this property" in out
+    conformance.main([edition_id, "--verbose"])
+    assert capsys.readouterr().out.count("φ = 1.2 on beam") == 40
