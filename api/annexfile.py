@@ -120,11 +120,9 @@ def load_annex(path: Path | str, registry: Registry | None = None) -> PluginReco
 def _installed(registry: Registry) -> set[str]:
     """The ids in the registry and every installed edition plugin's, loaded or not (a run
     that names a few loads only those): a file never takes the place of either."""
-    from importlib.metadata import entry_points
+    from clausewise.provisions.registry import plugin_names
 
-    from clausewise.provisions.registry import GROUP
-
-    return set(registry.ids()) | {ep.name for ep in entry_points(group=GROUP)}
+    return set(registry.ids()) | plugin_names()
 
 
 def annex_heading(path: Path | str) -> tuple[str, str | None]:

@@ -273,16 +273,13 @@ def _only(annexes: Sequence[Path], named: Sequence[str]) -> frozenset[str] | Non
     chooses, or a name that is no entry point: the full registry then says what is known)."""
     if not named or os.environ.get("CLAUSEWISE_EDITIONS", "").strip():
         return None
-    from importlib.metadata import entry_points
-
     from clausewise.annexfile import annex_heading
-    from clausewise.provisions.registry import GROUP
+    from clausewise.provisions.registry import plugin_names
 
     heads = [annex_heading(path) for path in annexes]
     annex_ids = {edition_id for edition_id, _ in heads}
     wanted = {n for n in named if n not in annex_ids} | {base for _, base in heads if base}
-    available = {ep.name for ep in entry_points(group=GROUP)}
-    return frozenset(wanted) if wanted <= available else None
+    return frozenset(wanted) if wanted <= plugin_names() else None
 
 
 def _named(args: argparse.Namespace, schedule: Schedule | None = None) -> list[str]:
@@ -820,16 +817,11 @@ def _designs(args: argparse.Namespace, audit: bool, at_given_depth: bool = False
                          "explain: write the chosen bars into the beam file and run check "
                          "--out calcs.html")
     schedule = load_schedule(args.file, design=True)
-    _guard_inputs(args, *schedule.project.annexes)
-    registry = _registry([*args.annex, *schedule.project.annexes])
-    _name_broken(registry)
-    _require(registry, schedule.project.required)
-    form = args.form or schedule.project.form or "auto"
-    situation = args.situation or schedule.project.situation or "persistent"
+    registry, form, situation = _settings(args, schedule)
     editions = _editions(registry, args.edition or list(schedule.project.editions)
                          or registry.ids())
-    return schedule, design_schedule(schedule, editions, None if form == "auto" else form,
-                                     situation, audit=audit, at_given_depth=at_given_depth)
+    return schedule, design_schedule(schedule, editions, form, situation, audit=audit,
+                                     at_given_depth=at_given_depth)
 
 
 def _publish_designs(args: argparse.Namespace, schedule: Schedule, designs: list[Any],

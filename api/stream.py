@@ -24,6 +24,7 @@ from clausewise.provisions.batch import CHUNK, BatchTable, iter_assess_many
 from clausewise.provisions.beam import UnitSystem
 from clausewise.provisions.engine import CAPACITY_ONLY, CAUTION, FAIL, PASS
 from clausewise.provisions.registry import Edition
+from clausewise.provisions.verdicts import NO_ACTIONS, governed_head
 from clausewise.results.display import scale
 from clausewise.results.records import units_table
 from clausewise.results.writers import NUMBER_COLUMNS, result_columns
@@ -104,9 +105,6 @@ def _numbers(values: Any, factor: float = 1.0, digits: int = 6) -> Numbers:
     return Numbers(np.asarray(values, float) * factor, digits)
 
 
-_VERDICTS = {PASS: "passes", CAPACITY_ONLY: "capacity only (no actions given)"}
-
-
 def row_summaries(table: BatchTable) -> list[str]:
     """Each row's one line on what governs, as ``check`` writes it: the verdict, the
     governing check with its clause and utilisation; else why there is none (outside
@@ -120,13 +118,11 @@ def row_summaries(table: BatchTable) -> list[str]:
         if message or status not in (PASS, FAIL, CAPACITY_ONLY):
             lines.append(message)
         elif not check:
-            lines.append("capacity only: no actions given")
+            lines.append(NO_ACTIONS)
         else:
             head = heads.get((status, check, clause))
             if head is None:
-                head = heads[status, check, clause] = (
-                    f"{_VERDICTS.get(status, 'fails')}; governed by {check} ({clause}) at "
-                    "utilisation ")
+                head = heads[status, check, clause] = governed_head(status, check, clause)
             lines.append(f"{head}{utilisation:.3f}")
     return lines
 

@@ -31,7 +31,7 @@ from clausewise.core.solver import OK, STATUS_TEXT
 from clausewise.provisions.beam import NAMES, Beam, Context, field_roles, kind_of, number_fields
 from clausewise.provisions.engine import evaluate, resolve_form
 from clausewise.provisions.registry import Edition, Registry, default_registry
-from clausewise.provisions.verdicts import ERROR, governing, status
+from clausewise.provisions.verdicts import ERROR, governing, outside_scope_line, status
 
 CHUNK = 20_000
 """Beams run at a time through one edition. The arrays of a chunk this size stay in the
@@ -291,10 +291,9 @@ def _scope_messages(edition_id: str, checks: Sequence[Any], in_scope: NDArray[np
     pattern = np.zeros(in_scope.size, dtype=np.int64)
     for j, c in enumerate(checks):
         pattern |= np.where(np.asarray(c.passed, dtype=bool), 0, 1 << j)
-    texts = {}
-    for code in np.unique(pattern[~in_scope]).tolist():
-        failed = [f"{c.name} ({c.clause.ref})" for j, c in enumerate(checks) if code >> j & 1]
-        texts[code] = f"outside the scope of {edition_id}: " + "; ".join(failed)
+    texts = {code: outside_scope_line(edition_id, [(c.name, c.clause.ref) for j, c in
+                                                   enumerate(checks) if code >> j & 1])
+             for code in np.unique(pattern[~in_scope]).tolist()}
     return _texts([texts[p] if not ok else "" for p, ok in
                    zip(pattern.tolist(), in_scope.tolist(), strict=True)], in_scope.size)
 

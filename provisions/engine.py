@@ -39,11 +39,14 @@ from clausewise.provisions.verdicts import (  # noqa: F401 (re-exported)
     CAUTION,
     ERROR,
     FAIL,
+    NO_ACTIONS,
     NO_EQUILIBRIUM,
     OUT_OF_SCOPE,
     PASS,
     Status,
+    governed_head,
     governing,
+    outside_scope_line,
     status,
 )
 from clausewise.provisions.vocabulary import Check, Clause, Envelope, Factor, Sense, per_beam, shown
@@ -290,18 +293,16 @@ class Assessment:
     def summary(self) -> str:
         """One line saying what governs."""
         if self.status == OUT_OF_SCOPE:
-            failed = [c for c in self.applicability if not c.passed]
-            return (f"outside the scope of {self.edition_id}: "
-                    + "; ".join(f"{c.name} ({c.clause.ref})" for c in failed))
+            return outside_scope_line(self.edition_id, [(c.name, c.clause.ref)
+                                                        for c in self.applicability
+                                                        if not c.passed])
         if self.status == NO_EQUILIBRIUM and self.response is not None:
             return f"{self.response.message}"
         check = self.governing
         if check is None:
-            return "capacity only: no actions given"
-        verdict = {PASS: "passes", CAPACITY_ONLY: "capacity only (no actions given)"}.get(
-            self.status, "fails")
-        return (f"{verdict}; governed by {check.name} ({check.clause.edition} "
-                f"{check.clause.ref}) at utilisation {check.utilisation:.3f}")
+            return NO_ACTIONS
+        return governed_head(self.status, check.name, f"{check.clause.edition} "
+                             f"{check.clause.ref}") + f"{check.utilisation:.3f}"
 
 
 def _stack(edition: Edition) -> tuple[LayerRecord, ...]:

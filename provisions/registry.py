@@ -39,6 +39,13 @@ from clausewise.provisions.vocabulary import Check, Envelope, Parameter
 GROUP = "clausewise.editions"
 
 
+def plugin_names() -> frozenset[str]:
+    """The names of the installed edition plugins (their ids), loaded or not."""
+    from importlib.metadata import entry_points
+
+    return frozenset(ep.name for ep in entry_points(group=GROUP))
+
+
 class EditionError(ClausewiseError, LookupError):
     """An edition that is unknown, broken, or whose base is missing."""
 

@@ -93,3 +93,22 @@ def _one_status(in_scope: bool, equilibrium: bool, checks: Sequence[Check],
 
 
 _ORDER = (PASS, FAIL, OUT_OF_SCOPE, NO_EQUILIBRIUM, CAPACITY_ONLY)
+
+
+# --- the one line on what governs, as every result words it -----------------------------
+
+NO_ACTIONS = "capacity only: no actions given"
+_VERDICTS: dict[str, str] = {PASS: "passes", CAPACITY_ONLY: "capacity only (no actions given)"}
+
+
+def governed_head(status: str, check: str, clause: str) -> str:
+    """The line up to its utilisation: "passes; governed by flexural strength (aci318-19
+    9.5.1.1) at utilisation " (a batch writes the number after it, row by row)."""
+    return f"{_VERDICTS.get(status, 'fails')}; governed by {check} ({clause}) at utilisation "
+
+
+def outside_scope_line(edition_id: str, failed: Sequence[tuple[str, str]]) -> str:
+    """The line of a beam outside an edition's scope: each failed scope check by name and
+    clause reference."""
+    return f"outside the scope of {edition_id}: " + "; ".join(
+        f"{name} ({ref})" for name, ref in failed)

@@ -10,6 +10,7 @@ import tomllib
 from dataclasses import replace
 from pathlib import Path
 
+import numpy as np
 import pytest
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
@@ -29,6 +30,7 @@ from clausewise.provisions import (
     assess,
 )
 from clausewise.provisions.bars import METRIC
+from clausewise.provisions.batch import assess_many
 from clausewise.provisions.design import (
     COMPRESSION,
     DESIGNED,
@@ -351,10 +353,6 @@ def test_compression_steel_is_near_the_least_total_an_independent_sweep_finds(ed
     times the design's, tension 0.9 to 1.3 times), with the bars where the design puts
     them, assessed by the engine; none passes with 1 % less steel in all than the design
     reports (the search's grids are coarser, and its bars sit a little otherwise)."""
-    import numpy as np
-
-    from clausewise.provisions.batch import assess_many
-
     beam = rectangle(330e6, bw=300.0, h=450.0, fc=32.0, fy=500.0)
     result = design(beam, edition)
     assert result.status == COMPRESSION

@@ -5,6 +5,7 @@ from __future__ import annotations
 
 import time
 import warnings
+from dataclasses import replace
 from pathlib import Path
 
 import pytest
@@ -13,7 +14,17 @@ from clausewise.annexfile import AnnexError, load_annex
 from clausewise.beamfile import json_schema, parse_schedule
 from clausewise.beamfile.models import PLAUSIBLE
 from clausewise.cli import main
-from clausewise.provisions import Registry, assess
+from clausewise.provisions import (
+    Actions,
+    Beam,
+    Bending,
+    Continuity,
+    FloorLayout,
+    Layer,
+    Registry,
+    Shape,
+    assess,
+)
 
 RECTANGLE = """
 [project]
@@ -236,8 +247,6 @@ def test_steel_given_as_an_area_the_concrete_could_never_hold_is_refused():
     given as an area it is not placed bar by bar, so the total is bounded (15 % of the
     concrete, beyond any standard's maximum steel: ACI 318 and EN 1992 allow 4 to 8 %,
     from memory)."""
-    from clausewise.beamfile import parse_schedule
-
     text = """
 [[beam]]
 id = "R1"
@@ -268,19 +277,6 @@ moments = { factored = "100 kN m" }
 def test_a_deep_beam_is_outside_every_edition_s_flexural_scope(edition, least):
     """A 5 m deep beam over an 8 m simple span is no beam for plane sections: outside
     scope, named by its clause; the same section over a span long enough is in scope."""
-    from dataclasses import replace
-
-    from clausewise.provisions import (
-        Actions,
-        Beam,
-        Bending,
-        Continuity,
-        FloorLayout,
-        Layer,
-        Shape,
-        assess,
-    )
-
     beam = Beam("transfer", Shape.RECTANGLE, Bending.SAGGING, 400.0, 5000.0, 32.0, 500.0,
                 (Layer(6000.0, 4900.0),), layout=FloorLayout(8000.0, Continuity.SIMPLE),
                 actions=Actions(dead=2000e6))

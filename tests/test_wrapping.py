@@ -31,12 +31,14 @@ from clausewise.provisions import (
     PluginError,
     Registry,
     Resistance,
+    Sense,
     Shape,
     assess,
     evaluate,
     hookimpl,
+    per_beam,
 )
-from clausewise.provisions.batch import stack_beams
+from clausewise.provisions.batch import assess_many, stack_beams
 from clausewise.provisions.beam import Context
 from clausewise.provisions.widths import (
     SEPARATE,
@@ -403,8 +405,6 @@ class UtilisationCap:
 
     @hookimpl
     def additional_checks(self, response, demand, resistance):
-        from clausewise.provisions import Sense, per_beam
-
         if demand is None:
             return []
         cap = per_beam(0.95 * resistance.factor.value * response.nominal_moment)
@@ -417,8 +417,6 @@ class UtilisationCap:
 def test_a_firm_rule_sees_the_demand_and_the_resistance_in_both_paths(moment):
     """The cap sits at 0.95 M_Rd: its utilisation is the strength check's over 0.95
     (by hand), for one beam and a batch alike."""
-    from clausewise.provisions.batch import assess_many
-
     registry = en_registry(UtilisationCap())
     beam = unequal_tee(actions=Actions(factored=moment))
     a = assess(beam, "xx-cap:2025", registry=registry)
