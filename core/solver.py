@@ -154,42 +154,55 @@ def _neutral_axis(sec: _Columns, concrete: ConcreteLaw, rtol: float, max_iter: i
     status: NDArray[np.int_] = np.where(bracketed, NOT_CONVERGED, NOT_BRACKETED)
 
     rows = np.flatnonzero(bracketed)  # the working set, as indices into the batch
-    work, law = (sec, concrete) if rows.size == n else (sec.take(rows),
-                                                         take_rows(concrete, rows, n))
-    a, fa, b, fb = lo[rows], f_lo[rows], hi[rows], f_hi[rows]  # N(a) < 0 < N(b)
-    side = np.zeros(rows.size)
+    if rows.size == n:  # every section: the bracket's arrays are the working set's own
+        work, law, a, fa, b, fb = sec, concrete, lo, f_lo, hi, f_hi
+    else:
+        work, law = sec.take(rows), take_rows(concrete, rows, n)
+        a, fa, b, fb = lo[rows], f_lo[rows], hi[rows], f_hi[rows]  # N(a) < 0 < N(b)
+    moved_a = moved_b = np.zeros(rows.size, dtype=bool)  # which end the last step moved
     done = np.zeros(rows.size, dtype=bool)
-    final = None
-    for _ in range(max_iter):
-        if done.all():
-            break
-        secant = a - fa * (b - a) / (fb - fa)
-        x = np.where(np.isfinite(secant) & (secant > a) & (secant < b), secant, 0.5 * (a + b))
+    final, shrink = None, False
+    # Each step costs a few microseconds of numpy overhead per call whatever the batch
+    # size, so the bookkeeping is done in place and only on the steps where sections
+    # converge: for one section it was as costly as the forces themselves.
+    for step in range(1, max_iter + 1 if rows.size else 1):
+        width = b - a
+        secant = a - fa * width / (fb - fa)  # fb > 0 > fa: never a division by zero
+        x = 0.5 * (a + b)  # bisection where the secant is not strictly inside (or NaN)
+        np.copyto(x, secant, where=(secant > a) & (secant < b))
         trial = _forces(work, law, x)
-        fx, scale = trial.net, trial.scale
-        iterations[rows[~done]] += 1
-        converged = ((np.abs(fx) <= rtol * scale) | (b - a <= 4e-16 * b)) & ~done
-        if rows.size == n and converged.all():  # every section, none taken out before
-            final = trial
-        c[rows[converged]] = x[converged]
-        status[rows[converged]] = OK
-        done |= converged
-        if done.all():
-            break
+        fx = trial.net
+        converged = (np.abs(fx) <= rtol * trial.scale) | (width <= 4e-16 * b)
+        if converged.any():
+            converged &= ~done
+            if rows.size == n and converged.all():  # every section, none taken out before
+                final = trial
+            hit = rows[converged]
+            c[hit], status[hit], iterations[hit] = x[converged], OK, step
+            done |= converged
+            if done.all():
+                break
+            shrink = 4 * np.count_nonzero(done) >= done.size
         negative = fx < 0
+        positive = ~negative
         # Illinois: halve the stale end's value when the same end moves twice running
-        fb = np.where(negative & (side < 0), 0.5 * fb, fb)
-        fa = np.where(~negative & (side > 0), 0.5 * fa, fa)
-        a, fa = np.where(negative, x, a), np.where(negative, fx, fa)
-        b, fb = np.where(negative, b, x), np.where(negative, fb, fx)
-        side = np.where(negative, -1.0, 1.0)
-        if 4 * done.sum() >= done.size:  # shrink the working set
+        np.multiply(fb, 0.5, out=fb, where=negative & moved_a)
+        np.multiply(fa, 0.5, out=fa, where=positive & moved_b)
+        np.copyto(a, x, where=negative)
+        np.copyto(fa, fx, where=negative)
+        np.copyto(b, x, where=positive)
+        np.copyto(fb, fx, where=positive)
+        moved_a, moved_b = negative, positive
+        if shrink:  # a quarter or more converged: the working set shrinks
+            shrink = False
             keep = np.flatnonzero(~done)
-            rows, a, fa, b, fb, side = rows[keep], a[keep], fa[keep], b[keep], fb[keep], side[keep]
+            rows, a, fa, b, fb = rows[keep], a[keep], fa[keep], b[keep], fb[keep]
+            moved_a, moved_b = moved_a[keep], moved_b[keep]
             work, law = work.take(keep), take_rows(law, keep, done.size)
             done = done[keep]
     unfinished = rows[~done]
     c[unfinished] = 0.5 * (a + b)[~done]
+    iterations[unfinished] = max_iter
     return c, status, iterations, final
 
 
