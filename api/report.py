@@ -11,7 +11,9 @@ Imported only by the commands that print a report.
 
 from __future__ import annotations
 
+import itertools
 import math
+import re
 from collections import Counter
 from collections.abc import Callable, Iterable, Sequence
 from dataclasses import dataclass
@@ -20,6 +22,7 @@ from typing import TYPE_CHECKING, Any
 from rich import box
 from rich.cells import cell_len
 from rich.console import Console, ConsoleOptions, Group, RenderableType, RenderResult
+from rich.measure import Measurement
 from rich.rule import Rule
 from rich.table import Table
 from rich.text import Text
@@ -116,6 +119,61 @@ def _row(table: Table, *cells: RenderableType) -> None:
     table.add_row(*(Text(c) if isinstance(c, str) else c for c in cells))
 
 
+# a space after a number (or a limit's sign) that a unit, symbol or further digits follow
+# ("271.2 kN·m", "0.85 l", "≤ 20 018 mm²"): a line is never broken there
+_NUMBER_SPACE = re.compile(r"(?<=[\d≤≥]) (?=[^\s=≤≥<>+×(),;:])")
+
+
+class NumbersKept:
+    """Text that wraps at its spaces except after a number, so a number stays on the line
+    of its unit or symbol: "271.2 kN·m", never "271.2 / kN·m" (rich breaks at every
+    space, a no-break space included)."""
+
+    def __init__(self, text: Text | str) -> None:
+        self.text = Text(text) if isinstance(text, str) else text
+
+    @staticmethod
+    def _breaks(plain: str) -> list[int]:
+        kept = {m.start() for m in _NUMBER_SPACE.finditer(plain)}
+        return [i for i, ch in enumerate(plain) if ch == " " and i not in kept]
+
+    def __rich_measure__(self, console: Console, options: ConsoleOptions) -> Measurement:
+        lines = self.text.plain.splitlines() or [""]
+        longest = max(cell_len(line[a + 1:b]) for line in lines
+                      for a, b in itertools.pairwise([-1, *self._breaks(line), len(line)]))
+        widest = max(cell_len(line) for line in lines)
+        return Measurement(min(longest, options.max_width), min(widest, options.max_width))
+
+    @classmethod
+    def _wrapped(cls, line: Text, width: int) -> list[Text]:
+        """One line broken greedily at the last allowed space that fits; a word wider
+        than the line stands alone (and folds)."""
+        plain = line.plain
+        cuts: list[int] = []
+        start, last = 0, None
+        for i in [*cls._breaks(plain), len(plain)]:
+            if cell_len(plain[start:i]) <= width:
+                last = i
+                continue
+            if last is not None:
+                cuts.append(last)
+                start = last + 1
+                if cell_len(plain[start:i]) <= width:
+                    last = i
+                    continue
+            if i < len(plain):
+                cuts.append(i)
+                start = i + 1
+            last = None
+        pieces = line.divide(c for cut in cuts for c in (cut, cut + 1))
+        return list(pieces)[::2]  # every other piece is the space broken at
+
+    def __rich_console__(self, console: Console, options: ConsoleOptions) -> RenderResult:
+        lines = [part for line in self.text.split("\n", allow_blank=True)
+                 for part in self._wrapped(line, options.max_width)]
+        yield Text("\n", justify=options.justify, overflow="fold").join(lines)
+
+
 def two_lines(main: str, sub: str) -> Text:
     """A cell with a plain first line and a dim second one (never read as markup)."""
     text = Text(main)
@@ -130,6 +188,11 @@ def _facts() -> Table:
     table.add_column(style="dim", no_wrap=True)
     table.add_column(ratio=1, overflow="fold")
     return table
+
+
+def _fact(table: Table, label: str, value: str | Text) -> None:
+    """A row of a :func:`_facts` table; its value keeps each number with its unit."""
+    table.add_row(Text(label), NumbersKept(value))
 
 
 def _sign(sense: Sense) -> str:
@@ -166,8 +229,9 @@ def _inputs_table(outcome: Outcome, pairs: int = 1) -> RenderableType:
             table.add_column(style="dim", no_wrap=True)
             table.add_column(ratio=1, overflow="fold")
         for i in range(rows):
-            cells = [text for label_value in items[i::rows] for text in label_value]
-            _row(table, *cells, *[""] * (2 * n - len(cells)))
+            cells = [cell for label, value in items[i::rows]
+                     for cell in (Text(label), NumbersKept(value))]
+            table.add_row(*cells, *[""] * (2 * n - len(cells)))
         return table
 
     return ByWidth(build)
@@ -179,31 +243,31 @@ def _findings_table(outcome: Outcome, a: Assessment, units: Units) -> Table:
     if a.effective_width is not None:
         e = a.effective_width
         g = e.governing_candidate
-        _row(table, "effective flange width",
+        _fact(table, "effective flange width",
              f"{e.symbol} = {units.length(e.value)}, from {g.label} "
              f"[{_where(g.clause, a.edition_id)}]")
     r = a.response
     if r is not None:
-        _row(table, "compression zone", f"{r.block_case}; depth {units.length(r.zone_depth)}")
-        _row(table, "neutral axis", f"{n.neutral_axis} = {units.length(r.c)}, "
+        _fact(table, "compression zone", f"{r.block_case}; depth {units.length(r.zone_depth)}")
+        _fact(table, "neutral axis", f"{n.neutral_axis} = {units.length(r.c)}, "
              f"{n.neutral_axis}/d = {number(r.c_over_d, 3)}")
-        _row(table, "net tensile strain", f"{n.strain} = {number(r.net_tensile_strain, 3)}")
+        _fact(table, "net tensile strain", f"{n.strain} = {number(r.net_tensile_strain, 3)}")
     if a.resistance is not None:
         f, regime = a.resistance.factor, a.resistance.regime
-        _row(table, "regime", f"{regime.name} [{_where(regime.clause, a.edition_id)}]")
-        _row(table, "resistance factor", f"{f.symbol} = {number(f.value, 3)}")
+        _fact(table, "regime", f"{regime.name} [{_where(regime.clause, a.edition_id)}]")
+        _fact(table, "resistance factor", f"{f.symbol} = {number(f.value, 3)}")
     if r is not None and n.nominal != n.resistance:
-        _row(table, "nominal moment", f"{n.nominal} = {units.moment(r.nominal_moment)}")
+        _fact(table, "nominal moment", f"{n.nominal} = {units.moment(r.nominal_moment)}")
     if a.design_resistance is not None:
-        _row(table, "design resistance",
+        _fact(table, "design resistance",
              Text(f"{n.resistance} = {units.moment(a.design_resistance.value)}",
                   style="bold"))
     if a.demand is not None:
-        _row(table, "design moment",
+        _fact(table, "design moment",
              Text(f"{n.demand} = {units.moment(a.demand.value)} "
                   f"({a.demand.governing_candidate.label} governs)", style="bold"))
     else:
-        _row(table, "design moment", Text(f"none given: {CAPACITY_ONLY}", style="cyan"))
+        _fact(table, "design moment", Text(f"none given: {CAPACITY_ONLY}", style="cyan"))
     return table
 
 
@@ -247,8 +311,8 @@ def checks_table(checks: Sequence[Check], units: Units, edition: str, title: str
             utilisation = (Text(utilisation_text(c.utilisation)) if narrow
                            else utilisation_bar(c.utilisation))
             clause = _where(c.clause, edition)
-            _row(table, name, f"{symbol}{units.value(c.value, c.unit)}",
-                 f"{_sign(c.sense)} {units.value(c.limit, c.unit)}",
+            _row(table, name, NumbersKept(f"{symbol}{units.value(c.value, c.unit)}"),
+                 NumbersKept(f"{_sign(c.sense)} {units.value(c.limit, c.unit)}"),
                  utilisation, _status(PASS if c.passed else FAIL),
                  _narrow_clause(c.clause, edition) if narrow
                  else two_lines(clause, c.clause.title))
@@ -383,7 +447,7 @@ def header(schedule: Schedule, what: str, situation: str | None = None,
                          ("design situation", situation or ""),
                          ("editions", ", ".join(editions))):
         if value:
-            _row(facts, label, value)
+            _fact(facts, label, value)
     return Group(Rule(Text(f"clausewise · {what}"), align="left", style="bold"), facts)
 
 
@@ -1004,15 +1068,15 @@ def _response_tables(a: Assessment, units: Units, n: Notation) -> list[Renderabl
     if r is None:
         return []
     state = _facts()
-    _row(state, "equilibrium", r.message)
-    _row(state, "compression zone", f"{r.block_case}; depth {units.length(r.zone_depth)}")
+    _fact(state, "equilibrium", r.message)
+    _fact(state, "compression zone", f"{r.block_case}; depth {units.length(r.zone_depth)}")
     x = n.neutral_axis
-    _row(state, "neutral axis", f"{x} = {units.length(r.c)}; {x}/d = {number(r.c_over_d, 4)}; "
+    _fact(state, "neutral axis", f"{x} = {units.length(r.c)}; {x}/d = {number(r.c_over_d, 4)}; "
          f"{x}/dt = {number(r.c_over_dt, 4)}")
-    _row(state, "depths", f"d = {units.length(r.effective_depth)}; "
+    _fact(state, "depths", f"d = {units.length(r.effective_depth)}; "
          f"dt = {units.length(r.extreme_tension_depth)}")
-    _row(state, "net tensile strain", f"{n.strain} = {number(r.net_tensile_strain, 4)}")
-    _row(state, "solver", f"{r.iterations} iterations, force residual {r.residual:.1e}")
+    _fact(state, "net tensile strain", f"{n.strain} = {number(r.net_tensile_strain, 4)}")
+    _fact(state, "solver", f"{r.iterations} iterations, force residual {r.residual:.1e}")
     forces = _plain_table("concrete", "force", "depth of resultant")
     if r.overhang_force > 0:
         _row(forces, "flange overhangs", units.value(r.overhang_force, "N"),
@@ -1042,11 +1106,11 @@ def explain_report(schedule: Schedule, outcome: Outcome) -> Group:
         return Group(*parts)
     units, n = _units(outcome), outcome.notation
     facts = _facts()
-    _row(facts, "beam", beam.id + (f" · {beam.title}" if beam.title else ""))
-    _row(facts, "edition", f"{a.edition_id} · {a.edition_title}")
-    _row(facts, "form", f"{a.form} ({a.form_basis})")
-    _row(facts, "design situation", outcome.situation)
-    _row(facts, "status", _status(outcome.status))
+    _fact(facts, "beam", beam.id + (f" · {beam.title}" if beam.title else ""))
+    _fact(facts, "edition", f"{a.edition_id} · {a.edition_title}")
+    _fact(facts, "form", f"{a.form} ({a.form_basis})")
+    _fact(facts, "design situation", outcome.situation)
+    _fact(facts, "status", _status(outcome.status))
     parts += [Text(""), facts, _section("inputs"), _inputs_table(outcome),
               _section("edition stack (base first)"), _stack_table(a),
               _section("who answered each topic"), topics_table(a.topics),

@@ -50,3 +50,24 @@ def test_the_edition_stack_never_cuts_a_module_path(columns, monkeypatch, capsys
     out = capsys.readouterr().out
     assert "clausewise.plugins.en1992_1_1_2004" in out
     assert max(map(len, out.splitlines())) <= columns
+
+
+UNIT_WORDS = ("mm", "mm²", "kN·m", "kN", "MPa", "m", "l", "in", "kip·ft", "psi", "ksi")
+
+
+@pytest.mark.parametrize("columns", [80, 120])
+@pytest.mark.parametrize("edition", ["en1992-1-1:2004", "aci318-19", "as3600:2018"])
+def test_a_number_stays_on_the_line_of_its_unit(columns, edition, monkeypatch, capsys):
+    """Every beam's details at 80 and 120 columns: no line ends in a number whose unit or
+    symbol opens the next line ("271.2 / kN·m", "0.85 / l" were printed at 80)."""
+    monkeypatch.setenv("COLUMNS", str(columns))
+    assert main(["check", str(DEMO), "--edition", edition, "--details"]) == 1  # B9 fails
+    lines = capsys.readouterr().out.splitlines()
+    assert any("kN·m" in line for line in lines)
+    for above, below in zip(lines, lines[1:], strict=False):
+        last = above.split()[-1] if above.split() else ""
+        first = below.split()[0] if below.split() else ""
+        number = last.replace(".", "", 1).isdigit()
+        assert not (number and first in UNIT_WORDS), f"{above!r} / {below!r}"
+        assert not (last in ("≤", "≥") and first[:1].isdigit()), f"{above!r} / {below!r}"
+    assert max(map(len, lines)) <= columns
