@@ -6,7 +6,8 @@ ultimate strength Muo into the design strength. Values from memory of the
 published standard; clause titles are our own words.
 
 Contents
-  scope ............. 1.1.2 / 3.1.1 concrete strength, 3.2.1 steel strength
+  scope ............. 1.1.2 / 3.1.1 concrete strength, 3.2.1 steel strength,
+                      12.1.1 non-flexural members (deep beams)
   flange width ...... 8.8.2 bw + 0.2a (T), bw + 0.1a (L), half the clear distance
   concrete .......... 8.1.3 ultimate strain, α2 and γ (capped at 0.85 or not, by choice)
   steel ............. 3.2.2 Es, elastic-plastic
@@ -59,6 +60,7 @@ from clausewise.provisions import (
     per_beam,
     ratio_parameter,
     smallest_of,
+    span_depth_check,
     sqrt,
 )
 
@@ -71,6 +73,8 @@ clause = EDITION.clause
 LOADS = clause("AS/NZS 1170.0 4.2.2", "strength load combinations of the loading standard")
 PHI_TABLE = clause("Table 2.2.2", "capacity reduction factor")
 LOWER_LIMIT_ONLY, BOTH_LIMITS = "at least 0.67", "0.67 to 0.85"
+NON_FLEXURAL = clause("12.1.1", "non-flexural members: deep beams, by clear span or "
+                      "projection over overall depth")
 ZERO_MOMENT_ESTIMATE = clause("8.8.2 (estimate of a)", "distance between points of zero "
                               "moment estimated from the span: common practice, not AS text")
 
@@ -111,6 +115,12 @@ def edition_parameters(context: Context) -> Sequence[Parameter]:
                   "greatest f'c (also 3.1.1)", (50.0, 150.0), "MPa"),
         Parameter("fsy_max", 500.0, clause("3.2.1", "yield strength of reinforcement"),
                   "greatest fsy covered", (300.0, 700.0), "MPa"),
+        Parameter("deep_beam_ratio_cantilever", 1.5, NON_FLEXURAL, "least projection over "
+                  "overall depth of a cantilever (from memory)", (1.0, 10.0)),
+        Parameter("deep_beam_ratio_simple", 3.0, NON_FLEXURAL, "least clear span over overall "
+                  "depth of a simply supported beam (from memory)", (1.0, 10.0)),
+        Parameter("deep_beam_ratio_continuous", 4.0, NON_FLEXURAL, "least clear span over "
+                  "overall depth of a continuous beam (from memory)", (1.0, 10.0)),
         Parameter("zero_moment_simple", 1.0, ZERO_MOMENT_ESTIMATE,
                   "a / span of a simply supported span", (0.5, 1.0)),
         Parameter("zero_moment_end", 0.85, ZERO_MOMENT_ESTIMATE,
@@ -137,7 +147,23 @@ def applicability(beam: Beam, params: Parameters, context: Context) -> Sequence[
               Sense.AT_MOST, params["fc_max"].clause, "f'c", "MPa"),
         Check("yield strength within the range covered", beam.yield_strength,
               params.value("fsy_max"), Sense.AT_MOST, params["fsy_max"].clause, "fsy", "MPa"),
+        *_deep_beam(beam, params),
     ]
+
+
+DEEP_BEAM_RATIOS = {Continuity.CANTILEVER: "deep_beam_ratio_cantilever",
+                    Continuity.SIMPLE: "deep_beam_ratio_simple",
+                    Continuity.END: "deep_beam_ratio_continuous",
+                    Continuity.INTERIOR: "deep_beam_ratio_continuous"}
+
+
+def _deep_beam(beam: Beam, params: Parameters) -> list[Check]:
+    """12.1.1: a non-flexural member (a deep beam) below 1.5 (cantilever), 3 (simply
+    supported) or 4 (continuous) clear span or projection over overall depth."""
+    if beam.layout is None:
+        return []
+    name = DEEP_BEAM_RATIOS[beam.layout.continuity]
+    return span_depth_check(beam, params.value(name), params[name].clause)
 
 
 # --- effective flange width -------------------------------------------------------------

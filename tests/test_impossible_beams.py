@@ -273,6 +273,7 @@ moments = { factored = "100 kN m" }
     ("en1992-1-1:2004", 3.0),  # EN 1992-1-1 5.3.1(3): span less than 3h (from memory)
     ("is456:2000", 2.0),  # IS 456 29.1: simply supported, span/depth below 2.0 (from memory)
     ("csa-a23.3:19", 2.0),  # CSA A23.3-19 10.7.1: clear span below 2h (from memory)
+    ("as3600:2018", 3.0),  # AS 3600-2018 12.1.1: simply supported, below 3 (from memory)
 ])
 def test_a_deep_beam_is_outside_every_edition_s_flexural_scope(edition, least):
     """A 5 m deep beam over an 8 m simple span is no beam for plane sections: outside
@@ -286,3 +287,19 @@ def test_a_deep_beam_is_outside_every_edition_s_flexural_scope(edition, least):
     assert check.value == pytest.approx(8000 / 5000) and check.limit == least
     long_enough = replace(beam, layout=FloorLayout(5000.0 * least * 1.01, Continuity.SIMPLE))
     assert assess(long_enough, edition).status != "outside scope"
+
+
+@pytest.mark.parametrize(("continuity", "least", "slender"), [
+    (Continuity.CANTILEVER, 1.5, True), (Continuity.SIMPLE, 3.0, False),
+    (Continuity.END, 4.0, False), (Continuity.INTERIOR, 4.0, False),
+])  # AS 3600-2018 12.1.1 non-flexural members: 1.5, 3 and 4 (from memory)
+def test_as3600_deep_beam_limit_follows_the_support(continuity, least, slender):
+    """The limit is taken on the clear span where the floor gives it: ln/h = 2.8 is a
+    slender cantilever but a deep beam between supports."""
+    beam = Beam("transfer", Shape.RECTANGLE, Bending.SAGGING, 400.0, 2000.0, 32.0, 500.0,
+                (Layer(4000.0, 1900.0),), actions=Actions(dead=500e6),
+                layout=FloorLayout(6000.0, continuity, clear_span=5600.0))
+    [check] = [c for c in assess(beam, "as3600:2018").applicability
+               if c.name.startswith("span-to-depth")]
+    assert check.symbol == "ln/h" and check.value == pytest.approx(5600.0 / 2000.0)
+    assert check.limit == least and check.passed is slender
