@@ -15,6 +15,7 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass, fields
+from functools import cache
 from typing import Any, Protocol, TypeVar
 
 import numpy as np
@@ -281,6 +282,12 @@ def stack_laws(laws: list[_Law]) -> _Law:
                    for f in fields(kind)})  # type: ignore[arg-type]
 
 
+@cache
+def _parameter_names(kind: type) -> tuple[str, ...]:
+    """A law type's parameters (``dataclasses.fields`` is slow to ask on every solve)."""
+    return tuple(f.name for f in fields(kind))
+
+
 def law_size(law: Any) -> int:
     """How many sections a law's parameters describe (1 when none is an array)."""
 
@@ -291,7 +298,8 @@ def law_size(law: Any) -> int:
             return [value.shape[0]]
         return []
 
-    found = {s for f in fields(law) for s in sizes(getattr(law, f.name))} - {1}
+    found = {s for name in _parameter_names(type(law)) for s in sizes(getattr(law, name))}
+    found.discard(1)
     if len(found) > 1:
         raise SectionError(f"{type(law).__name__} has parameter arrays of different lengths "
                            f"{sorted(found)}")
@@ -320,7 +328,7 @@ def take_rows(law: _Law, rows: NDArray[np.int_], size: int) -> _Law:
             return value[rows]
         return value
 
-    names = [f.name for f in fields(law)]  # type: ignore[arg-type]
+    names = _parameter_names(type(law))
     if not any(isinstance(getattr(law, name), np.ndarray | tuple) for name in names):
         return law
     subset = object.__new__(type(law))  # the rows of a checked law need no new checks

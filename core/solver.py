@@ -277,8 +277,8 @@ class Response:
 
 
 def _centroid(moment: Array, force: Array) -> Array:
-    with np.errstate(invalid="ignore", divide="ignore"):
-        return np.where(force > 0, moment / np.where(force > 0, force, 1.0), np.nan)
+    """Depth of a resultant: its moment over its force, NaN where there is no force."""
+    return np.divide(moment, force, out=np.full(np.shape(force), np.nan), where=force > 0)
 
 
 @dataclass(frozen=True)
