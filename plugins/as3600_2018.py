@@ -77,6 +77,8 @@ NON_FLEXURAL = clause("12.1.1", "non-flexural members: deep beams, by clear span
                       "projection over overall depth")
 ZERO_MOMENT_ESTIMATE = clause("8.8.2 (estimate of a)", "distance between points of zero "
                               "moment estimated from the span: common practice, not AS text")
+ZERO_MOMENT_CONTINUOUS = clause("8.8.2", "distance between points of zero moment: for "
+                                "continuous beams a may be taken as 0.7L (from memory)")
 
 
 @hookimpl
@@ -123,9 +125,9 @@ def edition_parameters(context: Context) -> Sequence[Parameter]:
                   "overall depth of a continuous beam (from memory)", (1.0, 10.0)),
         Parameter("zero_moment_simple", 1.0, ZERO_MOMENT_ESTIMATE,
                   "a / span of a simply supported span", (0.5, 1.0)),
-        Parameter("zero_moment_end", 0.85, ZERO_MOMENT_ESTIMATE,
+        Parameter("zero_moment_end", 0.7, ZERO_MOMENT_CONTINUOUS,
                   "a / span of an end span", (0.5, 1.0)),
-        Parameter("zero_moment_interior", 0.7, ZERO_MOMENT_ESTIMATE,
+        Parameter("zero_moment_interior", 0.7, ZERO_MOMENT_CONTINUOUS,
                   "a / span of an interior span", (0.5, 1.0)),
         ratio_parameter(clause("-", "cylinder about 0.8 of cube strength: common practice, "
                                "not AS text")),
@@ -168,9 +170,11 @@ def _deep_beam(beam: Beam, params: Parameters) -> list[Check]:
 
 # --- effective flange width -------------------------------------------------------------
 
-ESTIMATES = {Continuity.SIMPLE: ("zero_moment_simple", "simply supported span"),
-             Continuity.END: ("zero_moment_end", "end span"),
-             Continuity.INTERIOR: ("zero_moment_interior", "interior span")}
+ESTIMATES = {Continuity.SIMPLE: ("zero_moment_simple", "simply supported span: common "
+                                  "practice, not AS text"),
+             Continuity.END: ("zero_moment_end", "end span: 8.8.2 for continuous beams"),
+             Continuity.INTERIOR: ("zero_moment_interior", "interior span: 8.8.2 for "
+                                   "continuous beams")}
 
 
 def zero_moment_length(beam: Beam, layout: FloorLayout, params: Parameters) -> tuple[Any, str]:
@@ -184,7 +188,7 @@ def zero_moment_length(beam: Beam, layout: FloorLayout, params: Parameters) -> t
     name, kind = ESTIMATES[layout.continuity]
     ratio = params.value(name)
     return ratio * np.asarray(layout.span, float), \
-        f"a = {ratio:g} l, {kind}: common practice, not AS text"
+        f"a = {ratio:g} l, {kind}"
 
 
 @hookimpl

@@ -190,7 +190,8 @@ def test_minimum_strength_with_flange_in_tension():
 
 @pytest.mark.parametrize(("shape", "layout", "label", "width"), [
     # bef = bw + 0.2a (T), bw + 0.1a (L), overhang ≤ half the clear distance
-    # (AS 3600-2018 8.8.2, from memory); estimates of a are common practice
+    # (AS 3600-2018 8.8.2, from memory: a may be taken as 0.7L in continuous beams; a = l
+    # of a simple span is common practice)
     (Shape.TEE, FloorLayout(6000.0, Continuity.END, clear_left=3000.0, clear_right=3000.0,
                             zero_moment_length=5000.0),
      "bw + 0.1a (a as given) on each side", 300 + 0.2 * 5000),
@@ -198,18 +199,18 @@ def test_minimum_strength_with_flange_in_tension():
      "bw + 0.1a (a = 1 l, simply supported span: common practice, not AS text) on each side",
      300 + 0.2 * 6000),
     (Shape.TEE, FloorLayout(6000.0, Continuity.END, clear_left=3000.0, clear_right=3000.0),
-     "bw + 0.1a (a = 0.85 l, end span: common practice, not AS text) on each side",
-     300 + 0.2 * 0.85 * 6000),
+     "bw + 0.1a (a = 0.7 l, end span: 8.8.2 for continuous beams) on each side",
+     300 + 0.2 * 0.7 * 6000),
     (Shape.TEE, FloorLayout(6000.0, Continuity.INTERIOR, clear_left=3000.0,
                             clear_right=3000.0),
-     "bw + 0.1a (a = 0.7 l, interior span: common practice, not AS text) on each side",
+     "bw + 0.1a (a = 0.7 l, interior span: 8.8.2 for continuous beams) on each side",
      300 + 0.2 * 0.7 * 6000),
     (Shape.TEE, FloorLayout(6000.0, Continuity.SIMPLE, clear_left=800.0, clear_right=800.0),
      "bw + half the clear distance to the next web on each side", 300 + 800),
     (Shape.TEE, FloorLayout(6000.0, Continuity.SIMPLE, clear_left=600.0, clear_right=4000.0),
      "bw + overhangs, each side by its own smallest limit", 300 + 300 + 600),
     (Shape.ELL, FloorLayout(6000.0, Continuity.INTERIOR, clear_left=3000.0),
-     "bw + 0.1a (a = 0.7 l, interior span: common practice, not AS text) on the slab side",
+     "bw + 0.1a (a = 0.7 l, interior span: 8.8.2 for continuous beams) on the slab side",
      300 + 0.1 * 0.7 * 6000),
     (Shape.ELL, FloorLayout(6000.0, Continuity.SIMPLE, clear_right=500.0),
      "bw + half the clear distance to the next web on the slab side", 300 + 250),
