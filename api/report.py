@@ -294,18 +294,25 @@ def checks_table(checks: Sequence[Check], units: Units, edition: str, title: str
     limit_width = max((len(f"{_sign(c.sense)} {units.value(c.limit, c.unit)}") for c in checks),
                       default=5)
 
+    clause_width = max((len(line) for c in checks
+                        for line in _narrow_clause(c.clause, edition).plain.splitlines()),
+                       default=6)
+
     def build(width: int) -> RenderableType:
         narrow = width < NARROW
+        # narrow: one space between columns, which rich otherwise takes from the clause
+        # column by cutting its end ("en1992-1-1:200")
         table = Table(title=title or None, title_justify="left", title_style="bold",
-                      box=box.SIMPLE_HEAD, pad_edge=False, expand=narrow)
+                      box=box.SIMPLE_HEAD, pad_edge=False, expand=narrow,
+                      collapse_padding=narrow)
         table.add_column("check", ratio=None if narrow else 3, overflow="fold",
                          min_width=longest_word)
         table.add_column("value", justify="right", overflow="fold", min_width=value_width)
         table.add_column("limit", justify="right", overflow="fold", min_width=limit_width)
         table.add_column("utilisation" if not narrow else "util.", no_wrap=True)
         table.add_column("result", no_wrap=True)
-        table.add_column("clause", no_wrap=narrow, overflow="fold",
-                         min_width=None if narrow else 18)  # a reference is never split
+        table.add_column("clause", no_wrap=narrow, overflow="fold",  # never split or cut
+                         min_width=clause_width if narrow else 18)
         for c, name in zip(checks, names, strict=True):
             symbol = f"{say(c.symbol, n)} " if c.symbol else ""
             utilisation = (Text(utilisation_text(c.utilisation)) if narrow
@@ -688,7 +695,7 @@ def details_tables(outcomes: Sequence[Outcome]) -> list[RenderableType]:
         unit = _units(first).unit("N·mm")
         table = Table(title=f"{beam_id}" + (f" · {beam.title}" if beam.title else "")
                       + f" (moments in {unit})", title_justify="left", title_style="bold",
-                      box=box.SIMPLE_HEAD, pad_edge=False)
+                      box=box.SIMPLE_HEAD, pad_edge=False, collapse_padding=True)
         table.add_column("edition", no_wrap=True)
         table.add_column("status", no_wrap=True)
         table.add_column("util.", justify="right", no_wrap=True)
@@ -714,6 +721,9 @@ def details_tables(outcomes: Sequence[Outcome]) -> list[RenderableType]:
                         n.resistance),
                  moment(a.demand.value if a.demand else None, n.demand),
                  f"{check.name} [{_where(check.clause, edition)}]" if check else a.summary())
+        governing = table.columns[-1]  # its words kept whole: "[en1992-1-1:2004", not cut
+        governing.min_width = min(LONGEST_KEPT_WORD, max(
+            (len(word) for cell in governing.cells for word in str(cell).split()), default=1))
         parts.append(table)
     return parts
 

@@ -3,11 +3,13 @@ file, a terminal of 80 columns behind a pipe), else 110 columns."""
 
 from __future__ import annotations
 
+import re
 from pathlib import Path
 
 import pytest
 
 from clausewise.cli import REPORT_WIDTH, main
+from clausewise.provisions import default_registry
 
 DEMO = Path(__file__).resolve().parents[1] / "fixtures" / "demo" / "quellmoor-library.toml"
 
@@ -71,3 +73,20 @@ def test_a_number_stays_on_the_line_of_its_unit(columns, edition, monkeypatch, c
         assert not (number and first in UNIT_WORDS), f"{above!r} / {below!r}"
         assert not (last in ("≤", "≥") and first[:1].isdigit()), f"{above!r} / {below!r}"
     assert max(map(len, lines)) <= columns
+
+
+@pytest.mark.parametrize("columns", [80, 120])
+@pytest.mark.parametrize("command", [["check", "--details"], ["compare", "--details"]])
+def test_edition_ids_are_never_cut_in_the_details(columns, command, monkeypatch, capsys):
+    """Every installed edition, the local ones citing their base's clauses: each id that
+    appears is whole ("en1992-1-1:200" lost its last digit in the clause column at 80,
+    and the governing cell split "[en1992-1-1:2 / 004 6.1]")."""
+    monkeypatch.setenv("COLUMNS", str(columns))
+    main([command[0], str(DEMO), *command[1:]])
+    out = capsys.readouterr().out
+    ids = set(default_registry().ids())
+    seen = set(re.findall(r"[a-z][a-z0-9.-]*:\d+", out))
+    assert "en1992-1-1:2004" in seen
+    assert seen <= ids, sorted(seen - ids)
+    assert max(map(len, out.splitlines())) <= columns
+    assert "governing check" in out if command[0] == "compare" else "clause" in out
