@@ -162,7 +162,7 @@ def design_report(schedule: Schedule, designs: Sequence[Design]) -> Group:
     from rich.table import Table
     from rich.text import Text
 
-    from clausewise.report import caution, header, problems_table
+    from clausewise.report import NumbersKept, caution, header, problems_table
 
     entries = {e.beam.id: e for e in schedule.entries}
     lightest = _lightest(designs)
@@ -181,7 +181,7 @@ def design_report(schedule: Schedule, designs: Sequence[Design]) -> Group:
         us = beam.unit_system is UnitSystem.US
         area_unit, mass_unit = ("in²", "lb/ft") if us else ("mm²", "kg/m")
         steel = table(("edition", "left", False), (f"As req\n{area_unit}", "right", False),
-                      ("bars chosen", "left", False), (f"As prov\n{area_unit}", "right", False),
+                      ("bars chosen", "left", True), (f"As prov\n{area_unit}", "right", False),
                       ("util.", "right", False), (mass_unit, "right", False),
                       ("+" + mass_unit, "right", False))
         why = table(("edition", "left", False), ("required area set by", "left", True),
@@ -197,31 +197,28 @@ def design_report(schedule: Schedule, designs: Sequence[Design]) -> Group:
             provided = _area(d.provided_area, us)
             if a is not None and a.compression is not None:
                 provided += f"\n{_area(a.compression_area, us)} top"
-            steel.add_row(Text(d.edition_id), Text(required), Text(bars), Text(provided),
+            steel.add_row(Text(d.edition_id), Text(required), NumbersKept(bars), Text(provided),
                           Text(f"{d.utilisation:.2f}" if a else "–"),
                           Text(_mass(d.mass_per_metre, us)), Text(extra))
             set_by = f"{d.set_by} ({_ref(d.set_by_clause)})" if d.set_by_clause else d.set_by
             governs = f"{d.governing} ({_ref(d.governing_clause)})" if a else d.message
             why.add_row(Text(d.edition_id), Text(set_by), Text(governs))
-            grow = []
-            if d.least_depth:
-                grow.append(f"overall depth {d.least_depth:.0f} mm")
-            if d.least_width:
-                grow.append(f"web width {d.least_width:.0f} mm")
+            grow = [f"{what} {_depths([size], us)}" for what, size in (
+                ("overall depth", d.least_depth), ("web width", d.least_width)) if size]
             if grow:
                 notes.append(f"{d.edition_id}: tension steel alone passes from "
                              f"{' or '.join(grow)}")
         title = beam_id + (f" · {beam.title}" if beam.title else "")
         parts += [Rule(Text(title), align="left"), steel, why]
-        parts += [Text(n, style="dim") for n in notes]
+        parts += [NumbersKept(Text(n, style="dim")) for n in notes]
     parts += _steel_by_edition(designs, entries)
     if schedule.problems:
         parts.append(problems_table(schedule.problems))
     parts.append(Text("As req: the least tension steel that passes every check at the trial "
                       "depth (top: compression steel); bars chosen: of the arrangements "
                       f"that pass, within {PRACTICAL_MARGIN:.0%} of the lightest one's mass, "
-                      "the fewest layers, then the fewest bars; +: steel above the lightest "
-                      "edition.",
+                      "the fewest layers, then the fewest bars; +kg/m or +lb/ft: steel mass above "
+                      "the lightest edition's; in the summary, +: compression steel needed too.",
                       style="dim"))
     parts.append(caution())
     return Group(*parts)
@@ -313,7 +310,7 @@ def steel_comparison_report(schedule: Schedule, designs: Sequence[Design]) -> Gr
                      if d.set_by and d.set_by != "flexural strength"})
     for edition_id, what in set_by:
         beams = [d.beam_id for d in designs if (d.edition_id, d.set_by) == (edition_id, what)]
-        parts.append(Text(f"{edition_id}: {what} sets the area of {', '.join(beams)}",
+        parts.append(Text(f"{edition_id}: the area of {', '.join(beams)} is set by {what}",
                           style="dim"))
     if schedule.problems:
         parts.append(problems_table(schedule.problems))

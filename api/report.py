@@ -119,9 +119,10 @@ def _row(table: Table, *cells: RenderableType) -> None:
     table.add_row(*(Text(c) if isinstance(c, str) else c for c in cells))
 
 
-# a space after a number (or a limit's sign) that a unit, symbol or further digits follow
-# ("271.2 kN·m", "0.85 l", "≤ 20 018 mm²"): a line is never broken there
-_NUMBER_SPACE = re.compile(r"(?<=[\d≤≥]) (?=[^\s=≤≥<>+×(),;:])")
+# a space after a number (or a limit's sign) that a unit, symbol or further digits follow,
+# or inside a count of bars ("271.2 kN·m", "0.85 l", "≤ 20 018 mm²", "5 x 12 mm"): a
+# line is never broken there
+_NUMBER_SPACE = re.compile(r"(?<=[\d≤≥]) (?=[^\s=≤≥<>+×(),;:])|(?<= [x×]) (?=\d)")
 
 
 class NumbersKept:
@@ -137,10 +138,16 @@ class NumbersKept:
         kept = {m.start() for m in _NUMBER_SPACE.finditer(plain)}
         return [i for i, ch in enumerate(plain) if ch == " " and i not in kept]
 
+    @classmethod
+    def words(cls, plain: str) -> list[str]:
+        """The pieces a line may break between: words, a number with its unit as one."""
+        return [piece for line in plain.splitlines() for a, b in
+                itertools.pairwise([-1, *cls._breaks(line), len(line)])
+                if (piece := line[a + 1:b].strip())]
+
     def __rich_measure__(self, console: Console, options: ConsoleOptions) -> Measurement:
         lines = self.text.plain.splitlines() or [""]
-        longest = max(cell_len(line[a + 1:b]) for line in lines
-                      for a, b in itertools.pairwise([-1, *self._breaks(line), len(line)]))
+        longest = max(map(cell_len, self.words(self.text.plain)), default=0)
         widest = max(cell_len(line) for line in lines)
         return Measurement(min(longest, options.max_width), min(widest, options.max_width))
 
@@ -900,7 +907,7 @@ def migration_report(schedule: Schedule, outcomes: Sequence[Outcome], source: st
         for cause in c.causes:
             text.append(f"\n· {cause}")
         _row(table, Text(c.beam, style="bold"), _cell(c.before, codes), _cell(c.after, codes),
-             text)
+             NumbersKept(text))
     keys: dict[str, str] = {}
     shown: RenderableType = table if changes else Text(
         f"No beam of {beams} changes status, governing check or design resistance by more "
@@ -935,7 +942,8 @@ class WordTable(Table):
             texts = [c for c in (column.header, *cells) if isinstance(c, str)]
             longest_line = max((len(line) for t in texts for line in t.splitlines()),
                                default=1)
-            longest_word = max((len(w) for t in texts for w in t.split()), default=1)
+            longest_word = max((len(w) for t in texts for w in NumbersKept.words(t)),
+                               default=1)
             natural.append(longest_line)
             fixed.append(column.no_wrap)
             widths.append(longest_line if column.no_wrap else

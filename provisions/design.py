@@ -433,7 +433,8 @@ def _without_tension_only(group: _Group, missing: NDArray[np.int_], depth: NDArr
         if np.isfinite(best_total[j]):
             out[i] = Design(group.beams[i].id, group.edition.id, COMPRESSION,
                             float(best_total[j] - best[j]), float(depth[i]),
-                            "tension steel alone: strength needs more than ductility allows",
+                            "strength with compression steel: tension steel alone would "
+                            "break a ductility limit",
                             compression_area=float(best[j]), message="no tension-only area "
                             "passes: compression steel designed", **grow)
         else:

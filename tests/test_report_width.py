@@ -90,3 +90,28 @@ def test_edition_ids_are_never_cut_in_the_details(columns, command, monkeypatch,
     assert seen <= ids, sorted(seen - ids)
     assert max(map(len, out.splitlines())) <= columns
     assert "governing check" in out if command[0] == "compare" else "clause" in out
+
+
+DESIGN_DEMO = DEMO.with_name("orrin-vale-depot-design.toml")
+
+
+@pytest.mark.parametrize("columns", [80, 120])
+def test_the_design_report_keeps_its_headers_and_units(columns, monkeypatch, capsys):
+    """Every edition's design of the demo beams: the mass column's header is whole in every
+    beam's table (M7's compression bars widened its table and cut "+kg/m" to "+kg/"), a
+    number stays with its unit, and the legend says what each "+" means."""
+    monkeypatch.setenv("COLUMNS", str(columns))
+    main(["design", str(DESIGN_DEMO)])
+    out = capsys.readouterr().out
+    lines = out.splitlines()
+    tables = sum(line.startswith("edition") and "bars chosen" in line for line in lines)
+    assert tables >= 10
+    assert sum(line.rstrip().endswith(("+kg/m", "+lb/ft")) for line in lines) == tables
+    for above, below in zip(lines, lines[1:], strict=False):
+        last = above.split()[-1] if above.split() else ""
+        first = below.split()[0] if below.split() else ""
+        assert not (last.replace(".", "", 1).isdigit() and first in UNIT_WORDS), (above, below)
+    assert "steel mass above the lightest edition's" in " ".join(out.split())
+    assert "+: compression steel needed too" in " ".join(out.split())
+    assert "ductility allows" not in out
+    assert max(map(len, lines)) <= columns
