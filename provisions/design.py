@@ -297,6 +297,9 @@ class _Bracket:
     set_by_clause: NDArray[np.str_]
 
 
+NO_CHECK_SETS_IT = "no check: the least area searched passes (no minimum steel applies)"
+
+
 def _least_area(group: _Group, depth: NDArray[np.float64], top: NDArray[np.float64],
                 beams: NDArray[np.int_], compression: tuple[Layer, ...] = (),
                 shares: NDArray[np.float64] | None = None) -> _Bracket:
@@ -318,6 +321,8 @@ def _least_area(group: _Group, depth: NDArray[np.float64], top: NDArray[np.float
     below = rows * GRID + np.maximum(first - 1, 0)
     set_by = np.asarray(table.governing_check, dtype=object)[below]
     clause = np.asarray(table.governing_clause, dtype=object)[below]
+    none_fails = found & (first == 0)  # the search's least area passes: no check set it
+    set_by[none_fails], clause[none_fails] = NO_CHECK_SETS_IT, ""
     ok = np.flatnonzero(found & (first > 0))
     if ok.size:
         steps = np.linspace(0.0, 1.0, POINTS + 1)[1:]

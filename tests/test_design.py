@@ -34,6 +34,7 @@ from clausewise.provisions.batch import assess_many
 from clausewise.provisions.design import (
     COMPRESSION,
     DESIGNED,
+    NO_CHECK_SETS_IT,
     PRACTICAL_MARGIN,
     Arrangement,
     design,
@@ -366,6 +367,18 @@ def test_compression_steel_is_near_the_least_total_an_independent_sweep_finds(ed
     totals = [t + c for (t, c), s in zip(pairs, table.status, strict=True) if s == "pass"]
     reported = result.required_area + result.compression_area
     assert totals and min(totals) > 0.99 * reported
+
+
+def test_a_zero_moment_names_no_check_as_setting_the_area():
+    """Moments given as zero: ACI 318-19 9.6.1.3 waives the minimum where the steel is 4/3
+    of that required by analysis, here none (from memory), so every area of the search
+    passes. No check set the area; an upper limit (net tensile strain) was named."""
+    beam = replace(rectangle(100e6, bw=300.0, h=600.0, fc=30.0, fy=420.0),
+                   actions=Actions(dead=0.0, live=0.0))
+    result = design(beam, "aci318-19")
+    assert result.passed and result.set_by == NO_CHECK_SETS_IT and not result.set_by_clause
+    with_minimum = design(replace(beam, actions=Actions(dead=1e6, live=1e6)), "aci318-19")
+    assert with_minimum.set_by != NO_CHECK_SETS_IT  # a real moment: a check sets the area
 
 
 def test_a_beam_without_moments_is_designed_for_minimum_steel():
