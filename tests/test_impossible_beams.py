@@ -303,3 +303,55 @@ def test_as3600_deep_beam_limit_follows_the_support(continuity, least, slender):
                if c.name.startswith("span-to-depth")]
     assert check.symbol == "ln/h" and check.value == pytest.approx(5600.0 / 2000.0)
     assert check.limit == least and check.passed is slender
+
+
+DESIGN_BEAM = """
+[project]
+name = "Harrowgate stores"
+units = "%s"
+
+[[beam]]
+id = "Y"
+shape = "rectangular"
+web_width = "%s"
+overall_depth = "600 mm"
+concrete_strength = "30 MPa"
+yield_strength = "420 MPa"
+moments = { dead = "100 kN m", live = "50 kN m" }
+%s
+"""
+
+
+def _design_problems(extra: str, units: str = "SI", bw: str = "300 mm") -> list:
+    return parse_schedule(DESIGN_BEAM % (units, bw, extra), "y.toml", design=True).problems
+
+
+def test_bar_sizes_are_read_as_the_file_gives_them():
+    """A plain number in an SI file is a diameter in mm; names that are no bar size, sizes
+    of two catalogues and plain numbers in US units are problems at reading, each naming
+    its entry (they were an error row under every edition, and [20] was 'text in
+    quotes'); a design file's refused field never adds 'tension (missing)'."""
+    read = parse_schedule(DESIGN_BEAM % ("SI", "300 mm", "bar_sizes = [20, 25]"), "y.toml",
+                          design=True)
+    assert not read.problems and read.entries[0].beam.bar_sizes == ("20 mm", "25 mm")
+    unknown = _design_problems('bar_sizes = ["17 mm", "5 kN"]')
+    assert [(p.field, p.value) for p in unknown] == [("bar_sizes[1]", "17 mm"),
+                                                     ("bar_sizes[2]", "5 kN")]
+    assert all("'#8'" in p.expected for p in unknown)
+    [mixed] = _design_problems('bar_sizes = ["20 mm", "#8"]')
+    assert mixed.field == "bar_sizes" and "one catalogue" in mixed.expected
+    [us] = _design_problems("bar_sizes = [8]", units="US", bw="12 in")
+    assert us.field == "bar_sizes[1]" and "'#8'" in us.expected
+    refused = _design_problems("bar_sizes = [true]")
+    assert [p.field for p in refused] == ["bar_sizes[1]"]
+
+
+def test_a_cover_that_leaves_no_room_for_bars_is_refused():
+    """Cover beyond any beam (600 mm), or cover and stirrups that fill the web: no bar
+    could be placed, so the beam is refused at the field (it was designed as 'the section
+    must grow'). Common practice: 2(cover + stirrup) must be less than bw."""
+    [far] = _design_problems('cover = "600 mm"')
+    assert far.field == "cover" and "plausible range" in far.expected
+    [full] = _design_problems('cover = "120 mm"\nstirrup_diameter = "12 mm"', bw="250 mm")
+    assert full.field == "cover" and "264 mm" in full.expected and "web width" in full.expected
+    assert not _design_problems('cover = "40 mm"')

@@ -178,7 +178,7 @@ def _read_beams(beams: Iterable[Any], source: str, project: ProjectInfo | None,
             model = _validate_beam(raw)
         except ValidationError as exc:
             report(raw, index, _from_pydantic(exc, _BEAM_FIELDS)
-                   + _beyond_the_shape(raw, exc, project))
+                   + _beyond_the_shape(raw, exc, project, design))
             continue
         if model.id in first_seen:
             report(raw, index, [("id", model.id, f"an id not used by another beam (beam "
@@ -213,7 +213,8 @@ def _default_units_warning(source: str, shown_beams: list[tuple[str, list[str]]]
 
 
 def _beyond_the_shape(raw: dict[str, Any], exc: ValidationError,
-                      project: ProjectInfo | None) -> list[tuple[str, str, str]]:
+                      project: ProjectInfo | None, design: bool = False
+                      ) -> list[tuple[str, str, str]]:
     """The value problems (units, ranges, bars) of a beam whose shape was refused, read
     from the fields that were not, so that one reading finds every problem. Nothing
     when the rest cannot be read without the refused fields."""
@@ -224,7 +225,7 @@ def _beyond_the_shape(raw: dict[str, Any], exc: ValidationError,
         return []
     system = _SYSTEMS[model.units] if model.units else (
         project.unit_system if project else UnitSystem.SI)
-    reader = _BeamReader(model, system)
+    reader = _BeamReader(model, system, design)
     reader.read()
     return [p for p in reader.problems if p[0].split(".")[0].split("[")[0] not in refused]
 

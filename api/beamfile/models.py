@@ -64,6 +64,9 @@ PLAUSIBLE: dict[str, Plausible] = {
     "yield_strength": Plausible(150.0, 1_000.0, "MPa"),
     "steel_modulus": Plausible(100_000.0, 300_000.0, "MPa"),
     "moment": Plausible(0.0, 100_000.0 * KN_M, "kN m"),
+    "cover": Plausible(5.0, 200.0, "mm"),
+    "stirrup_diameter": Plausible(4.0, 40.0, "mm"),
+    "aggregate_size": Plausible(4.0, 100.0, "mm"),
 }
 
 
@@ -101,6 +104,13 @@ BarText = Annotated[str, StringConstraints(max_length=QUANTITY_LENGTH),
                     _Expect(f"{BARS_EXPECTED}, at most {QUANTITY_LENGTH} characters")]
 Text = Annotated[str, StringConstraints(max_length=SHORT_TEXT),
                  _Expect(f"text in quotes, at most {SHORT_TEXT} characters")]
+BAR_SIZE_EXPECTED = ("a bar size of one catalogue: metric '20 mm' (a plain number in an SI "
+                     "file: mm), US '#8', CSA '25M' or Australian 'N20'")
+BarSizeName = Annotated[Annotated[str, StringConstraints(max_length=QUANTITY_LENGTH)] | float,
+                        WithJsonSchema({"anyOf": [{"type": "string"}, {"type": "number"}],
+                                        "maxLength": QUANTITY_LENGTH,
+                                        "examples": ["20 mm", 20, "#8", "25M", "N20"]}),
+                        _Expect(BAR_SIZE_EXPECTED)]
 LongText = Annotated[str, StringConstraints(max_length=LONG_TEXT),
                      _Expect(f"text in quotes, at most {LONG_TEXT} characters")]
 PathText = Annotated[str, StringConstraints(max_length=PATH_TEXT),
@@ -246,15 +256,18 @@ class BeamModel(_Model):
     moments: MomentsModel | None = Field(
         default=None, description="the actions; leave out for the capacity only")
     cover: Length | None = Field(
-        default=None, description="clear cover to the stirrups (links); leave out for the "
+        default=None, json_schema_extra=_range("cover"),
+        description="clear cover to the stirrups (links); leave out for the "
         "edition's default")
     stirrup_diameter: Length | None = Field(
-        default=None, description="diameter of the stirrups (links); default 10 mm (#3 in "
+        default=None, json_schema_extra=_range("stirrup_diameter"),
+        description="diameter of the stirrups (links); default 10 mm (#3 in "
         "US units)")
     aggregate_size: Length | None = Field(
-        default=None, description="nominal maximum size of the coarse aggregate; default "
+        default=None, json_schema_extra=_range("aggregate_size"),
+        description="nominal maximum size of the coarse aggregate; default "
         "20 mm (3/4 in in US units)")
-    bar_sizes: list[Text] = Field(
+    bar_sizes: list[BarSizeName] = Field(
         default_factory=list, description="for design: the bar sizes allowed, e.g. ['16 mm', "
         "'20 mm', '25 mm'] or ['#6', '#8']; empty: the whole catalogue of the beam's units")
 

@@ -7,7 +7,13 @@ from functools import cache, lru_cache
 from typing import Any
 
 from clausewise.beamfile.errors import _text
-from clausewise.beamfile.models import PLAUSIBLE, BeamModel, LayerModel, Plausible
+from clausewise.beamfile.models import (
+    BAR_SIZE_EXPECTED,
+    PLAUSIBLE,
+    BeamModel,
+    LayerModel,
+    Plausible,
+)
 from clausewise.provisions import (
     Actions,
     Beam,
@@ -19,6 +25,7 @@ from clausewise.provisions import (
     StrengthBasis,
     UnitSystem,
 )
+from clausewise.provisions.bars import CATALOGUES, BarSize, restrict
 from clausewise.units import (
     AREA,
     BARS_EXPECTED,
@@ -52,6 +59,14 @@ _SHAPE_TEXT = {(shape, bending): f"{shape}, {bending}" for shape in _SHAPES
     ("T", "hogging"): "T, hogging (slab in tension)",
     ("L", "hogging"): "L, hogging (slab in tension)",
 }
+
+
+def _known(sizes: tuple[BarSize, ...], name: str) -> bool:
+    try:
+        restrict(sizes, (name,))
+    except KeyError:
+        return False
+    return True
 
 
 @lru_cache(maxsize=256)
@@ -345,6 +360,7 @@ class _BeamReader:
         cover = q(m.cover, "cover", LENGTH, "cover to stirrups")
         stirrup = q(m.stirrup_diameter, "stirrup_diameter", LENGTH, "stirrup diameter")
         aggregate = q(m.aggregate_size, "aggregate_size", LENGTH, "aggregate size")
+        self._room_inside_cover(cover, stirrup, bw, h)
         actions = self.actions()
         determinate = m.statically_determinate
         if determinate is None:
@@ -359,6 +375,7 @@ class _BeamReader:
             self.shown["statically determinate"] = "yes" if determinate else "no"
         if m.isolated:
             self.shown["isolated T"] = "yes: the flange is not part of a slab"
+        bar_sizes = self.bar_sizes()
         if self.problems or bw is None or h is None or fc is None or fy is None:
             return None
         return Beam(
@@ -373,8 +390,47 @@ class _BeamReader:
             unit_system=self.system, statically_determinate=determinate,
             isolated=m.isolated, title=m.title,
             cover=_v(cover), stirrup_diameter=_v(stirrup), aggregate_size=_v(aggregate),
-            bar_sizes=tuple(m.bar_sizes),
+            bar_sizes=bar_sizes,
         )
+
+    def _room_inside_cover(self, cover: tuple[float, str] | None,
+                           stirrup: tuple[float, str] | None, bw: tuple[float, str] | None,
+                           h: tuple[float, str] | None) -> None:
+        """Cover and stirrups on both faces leave room for bars across the web and the
+        depth; else no bar could be placed and the beam cannot be built."""
+        if cover is None or bw is None or h is None:
+            return
+        link = stirrup[0] if stirrup is not None else 0.0
+        inside = 2 * (cover[0] + link)
+        for size, what in ((bw, "web width"), (h, "overall depth")):
+            if inside >= size[0]:
+                self.problem("cover", cover[1], f"a cover that leaves room for bars: on both "
+                             f"faces, cover and stirrups take "
+                             f"{self.in_user_units(inside, LENGTH)}, the whole {what} "
+                             f"({size[1]})")
+                return
+
+    def bar_sizes(self) -> tuple[str, ...]:
+        """The sizes design may use, as catalogue names ("20 mm" for a plain 20 in an SI
+        file); names that are no bar size, or sizes from two catalogues, are problems."""
+        names: list[str] = []
+        for i, given in enumerate(self.model.bar_sizes, 1):
+            if isinstance(given, str):
+                names.append(given)
+            elif self.system is UnitSystem.SI:
+                names.append(f"{given:g} mm")
+            else:
+                self.problem(f"bar_sizes[{i}]", _text(given), f"{BAR_SIZE_EXPECTED}: in US "
+                             "units give the designation in quotes ('#8')")
+        unknown = [(i, n) for i, n in enumerate(names, 1)
+                   if not any(_known(sizes, n) for sizes in CATALOGUES.values())]
+        for i, name in unknown:
+            self.problem(f"bar_sizes[{i}]", name, BAR_SIZE_EXPECTED)
+        if names and not unknown and not any(
+                all(_known(sizes, n) for n in names) for sizes in CATALOGUES.values()):
+            self.problem("bar_sizes", ", ".join(names), f"sizes from one catalogue, not mixed "
+                         f"({BAR_SIZE_EXPECTED})")
+        return tuple(names)
 
     def _flange(self, flanged: bool, bw: tuple[float, str] | None, h: tuple[float, str] | None,
                 hf: tuple[float, str] | None, bf: tuple[float, str] | None) -> None:
