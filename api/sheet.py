@@ -23,7 +23,15 @@ from typing import TYPE_CHECKING
 
 from clausewise.provisions import CAUTION, ClausewiseError
 from clausewise.provisions.vocabulary import Check, Envelope, Factor, Sense
-from clausewise.report import _where, input_label, same_cylinder, say
+from clausewise.report import (
+    STATUS_MARK,
+    _cell,
+    _where,
+    governing_codes,
+    input_label,
+    same_cylinder,
+    say,
+)
 from clausewise.results import Outcome, Units, number, utilisation_text
 
 if TYPE_CHECKING:
@@ -58,7 +66,12 @@ td.n { text-align: right; white-space: nowrap; }
 .dim { color: #666; }
 figure { margin: 2mm 0; }
 figure svg { width: 100%; height: auto; }
-nav ol { columns: 2; margin: 1mm 0; }
+nav ol { columns: 2; column-gap: 8mm; margin: 1mm 0; padding-left: 7mm; }
+table.side { font-size: 7.5pt; width: 100%; table-layout: fixed; }
+table.side th { overflow-wrap: anywhere; font-weight: 600; }
+table.side td, table.side th:first-child { white-space: nowrap; overflow-wrap: normal; }
+table.side a { text-decoration: none; }
+nav li { break-inside: avoid; }  /* a second column's numbers sit in its own gap */
 section.beam { break-before: page; page-break-before: always; }
 h1, h2, h3, h4 { break-after: avoid; page-break-after: avoid; }
 .facts.pairs td:nth-child(3) { color: #555; }
@@ -226,6 +239,30 @@ def _edition_part(outcome: Outcome, figures: bool) -> str:
     return "".join(parts)
 
 
+def _side_by_side(by_beam: dict[str, list[Outcome]], editions: Sequence[str]) -> str:
+    """Beams as rows, editions as columns: utilisation, a status mark and the code of the
+    governing check, with the codes spelled out below (the sheet of ``compare``)."""
+    outcomes = [o for group in by_beam.values() for o in group]
+    codes = governing_codes(outcomes)
+    rows = []
+    for beam_id, group in by_beam.items():
+        by_edition = {o.edition: o for o in group}
+        cells = [f'<a href="#{_anchor(beam_id)}">{_e(beam_id)}</a>']
+        for edition in editions:
+            o = by_edition.get(edition)
+            cells.append("—" if o is None else f'<a href="#{_anchor(beam_id, edition)}" '
+                         f'class="{_status_class(o.status)}">{_e(_cell(o, codes).plain)}</a>')
+        rows.append(cells)
+    names = {code: name for (name, _), code in codes.items()}
+    legend = "; ".join(f"<i>{_e(code)}</i> {_e(name)}" for code, name in names.items())
+    return ("<h2>Editions side by side</h2>"
+            + _table(("beam", *editions), rows, numeric=range(1, len(editions) + 1),
+                     css="side")
+            + "<p class=dim>Each cell: the governing utilisation, the status ("
+            + ", ".join(f"{mark} {_e(status)}" for status, mark in STATUS_MARK.items())
+            + f"), then the governing check: {legend}.</p>")
+
+
 def calculation_sheet(schedule: Schedule, outcomes: Sequence[Outcome],
                       what: str = "flexural check", figures: bool = True,
                       paper: str = "") -> str:
@@ -253,6 +290,7 @@ def calculation_sheet(schedule: Schedule, outcomes: Sequence[Outcome],
             ("beam", "field", "given", "expected"),
             [(_e(q.beam or "(file)"), _e(q.field), _e(q.value or "(missing)"),
               _e(q.expected)) for q in schedule.problems])
+    side = _side_by_side(by_beam, editions) if len(editions) > 1 else ""
     sections = []
     for beam_id, group in by_beam.items():
         beam = group[0].entry.beam
@@ -274,7 +312,7 @@ def calculation_sheet(schedule: Schedule, outcomes: Sequence[Outcome],
         f"<p class=dim>{_e(what)}: calculation sheet</p>{head}"
         f'<div class="caution"><b>Caution.</b> {_e(CAUTION)}</div>'
         f"<p class=dim>{_e(same_cylinder(outcomes))}</p></header>"
-        f"<nav><h2>Contents</h2><ol>{contents}</ol></nav>{problems}"
+        f"<nav><h2>Contents</h2><ol>{contents}</ol></nav>{side}{problems}"
         + "".join(sections)
         + f'<footer><div class="caution"><b>Caution.</b> {_e(CAUTION)}</div></footer>'
         "</body></html>\n")

@@ -219,3 +219,22 @@ def test_the_sheet_s_figures_print_near_their_own_size(sheet):
     keeps 85 % of its size or more."""
     widths = [float(w) for w in re.findall(r'<svg[^>]*\swidth="([\d.]+)pt"', sheet)]
     assert widths and max(widths) <= 600
+
+
+def test_the_compare_sheet_puts_the_editions_side_by_side(outcomes):
+    """Several editions: a table of beams by editions after the contents, each cell the
+    governing utilisation, status mark and check code, linked to its part of the sheet
+    and equal to the one-line summary's utilisation; one edition has no such table."""
+    schedule, _ = outcomes
+    registry = default_registry()
+    editions = [registry.edition(e) for e in ("aci318-19", "en1992-1-1:2004", "as3600:2018")]
+    found = list(run(schedule, editions, None, "persistent"))
+    page = calculation_sheet(schedule, found, "editions compared", figures=False)
+    side = page[page.index("Editions side by side"):page.index("<section")]
+    assert side.count("<tr>") == 1 + len(schedule.entries)  # the head and a row per beam
+    for o in found:
+        check = o.assessment.governing
+        assert f'href="#b-{o.entry.beam.id}--' in side
+        assert f"{check.utilisation:.2f}" in side and check.name in side
+    assert "✓ pass" in side and "✗ fail" in side
+    assert "Editions side by side" not in calculation_sheet(schedule, outcomes[1])
