@@ -585,14 +585,19 @@ def _publish(args: argparse.Namespace, schedule: Schedule, outcomes: Sequence[Ou
         paper = args.paper if kind == "pdf" else ""
         _emit_sheet(calculation_sheet(schedule, outcomes, what, paper=paper), kind, args.out)
     else:
-        units = args.units
-        if kind == "csv" and units == "beam" and len(
-                {e.beam.unit_system for e in schedule.entries}) > 1:
-            print(f"{PROGRAM}: the file mixes SI and US customary beams; the CSV is in SI "
-                  "(one unit per column)", file=sys.stderr)
-            units = "SI"
-        _emit_document(results.document(schedule, outcomes, units=units,
+        _emit_document(results.document(schedule, outcomes, units=_units(args, kind, schedule),
                                         digits=args.digits), kind, args.out)
+
+
+def _units(args: argparse.Namespace, kind: str, schedule: Schedule) -> str:
+    """The unit system of machine-readable results: as asked, but SI in a CSV of a file
+    that mixes SI and US customary beams (one unit per column), said on stderr."""
+    if kind == "csv" and args.units == "beam" and len(
+            {e.beam.unit_system for e in schedule.entries}) > 1:
+        print(f"{PROGRAM}: the file mixes SI and US customary beams; the CSV is in SI "
+              "(one unit per column)", file=sys.stderr)
+        return "SI"
+    return str(args.units)
 
 
 def batch_command(args: argparse.Namespace) -> int:
@@ -832,7 +837,8 @@ def _publish_designs(args: argparse.Namespace, schedule: Schedule, designs: list
     if kind == "text":
         _emit_report(report, width=80, out=args.out)
     else:
-        _emit_document(design_document(schedule, designs), kind, args.out, design_csv)
+        _emit_document(design_document(schedule, designs, _units(args, kind, schedule),
+                                       args.digits), kind, args.out, design_csv)
     return design_status(designs, schedule)
 
 

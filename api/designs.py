@@ -15,6 +15,7 @@ from clausewise.provisions.design import PRACTICAL_MARGIN, Design, bars_text, de
 from clausewise.provisions.engine import CAPACITY_ONLY, PASS
 from clausewise.provisions.verdicts import CAUTION
 from clausewise.results.display import convert
+from clausewise.results.records import DIGITS, significant
 
 if TYPE_CHECKING:
     from rich.console import Group
@@ -62,71 +63,123 @@ def _lightest(designs: Sequence[Design]) -> dict[str, float]:
     return best
 
 
-def _num(value: float | None) -> float | None:
-    return None if value is None or not math.isfinite(value) else float(value)
+LB_PER_FT_PER_KG_PER_M = 0.3048 / 0.45359237  # exact by the definitions of ft and lb
+DESIGN_UNITS = {UnitSystem.SI: {"area": "mm²", "length": "mm", "mass": "kg/m"},
+                UnitSystem.US: {"area": "in²", "length": "in", "mass": "lb/ft"}}
+_COLUMN_UNIT = {"mm²": "mm2", "in²": "in2", "mm": "mm", "in": "in", "kg/m": "kg_per_m",
+                "lb/ft": "lb_per_ft"}
 
 
-def design_record(d: Design, lightest: float | None) -> dict[str, Any]:
-    a = d.arrangement
+class _DesignNumbers:
+    """A design's values (mm², mm, kg/m inside) in one unit system, to ``digits``
+    significant figures; None where a value does not exist (JSON has no NaN)."""
+
+    def __init__(self, system: UnitSystem, digits: int) -> None:
+        self.us, self.digits = system is UnitSystem.US, digits
+
+    def _shown(self, value: float | None) -> float | None:
+        if value is None or not math.isfinite(value):
+            return None
+        return significant(float(value), self.digits)
+
+    def area(self, value: float | None) -> float | None:
+        return self._shown(None if value is None else convert(value, "mm²", UnitSystem.US)[0]
+                           if self.us else value)
+
+    def length(self, value: float | None) -> float | None:
+        return self._shown(None if value is None else convert(value, "mm", UnitSystem.US)[0]
+                           if self.us else value)
+
+    def mass(self, value: float | None) -> float | None:
+        return self._shown(None if value is None else value * LB_PER_FT_PER_KG_PER_M
+                           if self.us else value)
+
+
+def design_record(d: Design, lightest: float | None, system: UnitSystem = UnitSystem.SI,
+                  digits: int = DIGITS) -> dict[str, Any]:
+    """One beam under one edition, its numbers in ``system`` (named in ``units``)."""
+    a, q = d.arrangement, _DesignNumbers(system, digits)
     return {
-        "beam": d.beam_id, "edition": d.edition_id, "status": d.status,
-        "required_area": _num(d.required_area), "compression_area": _num(d.compression_area),
-        "trial_depth": _num(d.trial_depth), "set_by": d.set_by,
+        "beam": d.beam_id, "edition": d.edition_id, "status": d.status, "caution": CAUTION,
+        "units": DESIGN_UNITS[system],
+        "required_area": q.area(d.required_area),
+        "compression_area": q.area(d.compression_area),
+        "trial_depth": q.length(d.trial_depth), "set_by": d.set_by,
         "set_by_clause": d.set_by_clause, "bars": a.text if a else "",
-        "layers": list(a.counts) if a else [], "layer_depths": list(a.depths) if a else [],
-        "provided_area": _num(d.provided_area),
-        "provided_compression_area": _num(a.compression_area) if a else None,
-        "compression_depth": _num(a.compression[2]) if a and a.compression else None,
-        "mass_per_metre": _num(d.mass_per_metre),
-        "more_than_lightest": _num(d.mass_per_metre - lightest) if a and lightest else None,
-        "utilisation": _num(d.utilisation), "governing": d.governing,
-        "governing_clause": d.governing_clause, "least_depth": _num(d.least_depth),
-        "least_width": _num(d.least_width), "candidates": d.candidates,
+        "layers": list(a.counts) if a else [],
+        "layer_depths": [q.length(x) for x in a.depths] if a else [],
+        "provided_area": q.area(d.provided_area),
+        "provided_compression_area": q.area(a.compression_area) if a else None,
+        "compression_depth": q.length(a.compression[2]) if a and a.compression else None,
+        "mass_per_metre": q.mass(d.mass_per_metre),
+        "more_than_lightest": q.mass(d.mass_per_metre - lightest) if a and lightest else None,
+        "utilisation": q._shown(d.utilisation), "governing": d.governing,
+        "governing_clause": d.governing_clause, "least_depth": q.length(d.least_depth),
+        "least_width": q.length(d.least_width), "candidates": d.candidates,
         "message": d.message,
     }
 
 
-def design_document(schedule: Schedule, designs: Sequence[Design]) -> dict[str, Any]:
-    """The whole design run; areas in mm², lengths in mm, mass in kg/m."""
+def design_document(schedule: Schedule, designs: Sequence[Design], units: str = "beam",
+                    digits: int = DIGITS) -> dict[str, Any]:
+    """The whole design run. ``units``: "beam" (each beam's own system, named in each
+    record's ``units``) or "SI" (mm², mm, kg/m); numbers to ``digits`` significant
+    figures."""
     from clausewise import __version__
 
     p = schedule.project
     lightest = _lightest(designs)
+    systems = {e.beam.id: UnitSystem.SI if units == "SI" else e.beam.unit_system
+               for e in schedule.entries}
     return {
         "caution": CAUTION, "tool": "clausewise", "version": __version__,
         "source": str(schedule.source),
         "project": {"name": p.name, "building": p.building, "town": p.town,
                     "engineer": p.engineer, "notes": p.notes},
-        "units": {"area": "mm²", "length": "mm", "mass": "kg/m"},
-        "designs": [design_record(d, lightest.get(d.beam_id)) for d in designs],
+        "units": units, "digits": digits,
+        "designs": [design_record(d, lightest.get(d.beam_id),
+                                  systems.get(d.beam_id, UnitSystem.SI), digits)
+                    for d in designs],
         "problems": [{"beam": q.beam, "field": q.field, "message": q.message}
                      for q in schedule.problems],
     }
 
 
-# record key -> CSV column (the unit in the name; records are in SI)
+# record key -> CSV column; a unit kind in braces takes the records' unit ("_mm2")
 CSV_COLUMNS = {"beam": "beam", "edition": "edition", "status": "status",
-               "required_area": "required_area_mm2", "compression_area": "compression_area_mm2",
+               "required_area": "required_area_{area}",
+               "compression_area": "compression_area_{area}",
+               "trial_depth": "trial_depth_{length}",
                "set_by": "set_by", "set_by_clause": "set_by_clause", "bars": "bars",
-               "provided_area": "provided_area_mm2", "mass_per_metre": "mass_kg_per_m",
-               "more_than_lightest": "more_than_lightest_kg_per_m",
+               "layer_depths": "layer_depths_{length}",
+               "provided_area": "provided_area_{area}",
+               "provided_compression_area": "provided_compression_area_{area}",
+               "compression_depth": "compression_depth_{length}",
+               "mass_per_metre": "mass_{mass}",
+               "more_than_lightest": "more_than_lightest_{mass}",
                "utilisation": "utilisation", "governing": "governing",
-               "governing_clause": "governing_clause", "least_depth": "least_depth_mm",
-               "least_width": "least_width_mm", "candidates": "candidates",
+               "governing_clause": "governing_clause", "least_depth": "least_depth_{length}",
+               "least_width": "least_width_{length}", "candidates": "candidates",
                "message": "message", "caution": "caution"}
 
 
 def design_csv(data: dict[str, Any]) -> str:
     """One row per beam and edition, then one per refused beam: the header is the first
     row, as for check, compare and batch, and the caution is a column of every row."""
+    systems = {tuple(r["units"].items()) for r in data["designs"]}
+    if len(systems) > 1:
+        raise ValueError("these designs mix unit systems; a CSV needs one: use --units SI")
+    units = data["designs"][0]["units"] if data["designs"] else DESIGN_UNITS[UnitSystem.SI]
+    names = {k: v.format(**{kind: _COLUMN_UNIT[u] for kind, u in units.items()})
+             for k, v in CSV_COLUMNS.items()}
     out = io.StringIO()
-    columns = csv.DictWriter(out, list(CSV_COLUMNS.values()), lineterminator="\n",
+    columns = csv.DictWriter(out, list(names.values()), lineterminator="\n",
                              extrasaction="ignore")
     columns.writeheader()
     for rec in data["designs"]:
-        row = {CSV_COLUMNS[k]: "" if v is None else v for k, v in rec.items()
-               if k in CSV_COLUMNS}
-        columns.writerow(row | {"caution": data["caution"]})
+        row = {names[k]: "" if v is None else "; ".join(map(str, v)) if isinstance(v, list)
+               else v for k, v in rec.items() if k in names}
+        columns.writerow(row)
     for problem in data["problems"]:
         columns.writerow({"beam": problem["beam"] or "", "status": "input problem",
                           "message": problem["message"], "caution": data["caution"]})

@@ -391,3 +391,30 @@ def test_a_beam_without_moments_is_designed_for_minimum_steel():
     least = max(0.25 * math.sqrt(32.0), 1.4) / 500.0 * 300.0 * d
     assert result.required_area == pytest.approx(least, rel=2e-3)
     assert result.set_by.startswith("minimum") and "no moments given" in result.message
+
+
+def test_design_results_follow_units_and_digits(tmp_path, capsys):
+    """Machine-readable design results honour --units and --digits as check's do: demo M10
+    (US customary) in in², in and lb/ft by default, in SI when asked; 6 significant
+    figures by default. 1 in² = 645.16 mm², 1 kg/m = 0.671969 lb/ft (by definition)."""
+    demo = DEMO
+
+    def m10(*options: str) -> dict:
+        out = tmp_path / "d.json"
+        main(["design", str(demo), "--edition", "aci318-19", "--out", str(out), *options])
+        data = json.loads(out.read_text(encoding="utf-8"))
+        return next(d for d in data["designs"] if d["beam"] == "M10")
+
+    own, si, short = m10(), m10("--units", "SI"), m10("--units", "SI", "--digits", "3")
+    assert own["units"] == {"area": "in²", "length": "in", "mass": "lb/ft"}
+    assert si["units"] == {"area": "mm²", "length": "mm", "mass": "kg/m"}
+    assert own["required_area"] == pytest.approx(si["required_area"] / 645.16, rel=1e-5)
+    assert own["layer_depths"][0] == pytest.approx(si["layer_depths"][0] / 25.4, rel=1e-5)
+    assert own["mass_per_metre"] == pytest.approx(si["mass_per_metre"] * 0.671969, rel=1e-5)
+    assert len(f"{si['required_area']:g}".replace(".", "")) <= 6
+    assert short["required_area"] == float(f"{si['required_area']:.3g}")
+    capsys.readouterr()
+    assert main(["design", str(demo), "--edition", "aci318-19", "--format", "csv"]) == 0
+    captured = capsys.readouterr()
+    assert "mixes SI and US customary beams; the CSV is in SI" in captured.err
+    assert "required_area_mm2" in captured.out.splitlines()[0]

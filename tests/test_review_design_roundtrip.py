@@ -26,9 +26,11 @@ def _layers(record: dict) -> tuple[list[dict], list[dict]]:
     main_bars, _, top = record["bars"].partition("; compression ")
     size = re.sub(r"^\d+\s*(x\s*)?", "", main_bars.split(" (")[0])
     joiner = " x " if "mm" in size else " "
-    tension = [{"bars": f"{n}{joiner}{size}", "depth": f"{depth} mm"}
+    unit = record["units"]["length"]  # the beam's own units, as the record names them
+    tension = [{"bars": f"{n}{joiner}{size}", "depth": f"{depth} {unit}"}
                for n, depth in zip(record["layers"], record["layer_depths"], strict=True)]
-    compression = [{"bars": top, "depth": f"{record['compression_depth']} mm"}] if top else []
+    compression = [{"bars": top, "depth": f"{record['compression_depth']} {unit}"}
+                   ] if top else []
     return tension, compression
 
 
