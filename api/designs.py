@@ -354,7 +354,7 @@ def steel_comparison_report(schedule: Schedule, designs: Sequence[Design]) -> Gr
     from rich.console import Group
     from rich.text import Text
 
-    from clausewise.report import caution, header, problems_table
+    from clausewise.report import NumbersKept, caution, header, problems_table
 
     entries = {e.beam.id: e for e in schedule.entries}
     parts: list[Any] = [header(schedule, "required steel compared")]
@@ -365,6 +365,15 @@ def steel_comparison_report(schedule: Schedule, designs: Sequence[Design]) -> Gr
         beams = [d.beam_id for d in designs if (d.edition_id, d.set_by) == (edition_id, what)]
         parts.append(Text(f"{edition_id}: the area of {', '.join(beams)} is set by {what}",
                           style="dim"))
+    for d in designs:  # a blank cell says why
+        if not math.isfinite(d.required_area):
+            us = entries[d.beam_id].beam.unit_system is UnitSystem.US
+            grow = " or ".join(f"{what} {_depths([size], us)}" for what, size in (
+                ("overall depth", d.least_depth), ("web width", d.least_width)) if size)
+            parts.append(NumbersKept(Text(
+                f"{d.edition_id}: – for {d.beam_id}: {d.message or d.status}"
+                + (f"; tension steel alone passes from {grow}" if grow else ""),
+                style="dim")))
     if schedule.problems:
         parts.append(problems_table(schedule.problems))
     parts.append(Text("required: the least tension steel that passes every check of the "

@@ -73,3 +73,14 @@ def test_the_required_steel_is_found_where_the_file_places_its_steel(tmp_path, c
                        "json"])
         capsys.readouterr()
         assert (status == 0) is passes
+
+
+def test_a_blank_required_area_is_explained(capsys, monkeypatch):
+    """Demo B12 under CSA A23.3-19 needs more than any steel can give at its size: the
+    blank cell ("– mm²") is followed by why, and the least depth or width that would do."""
+    monkeypatch.setenv("COLUMNS", "80")
+    main(["compare", "--steel", str(DEMO), "--edition", "csa-a23.3:19"])
+    out = " ".join(capsys.readouterr().out.split())
+    assert "– mm²" in out
+    assert "csa-a23.3:19: – for B12: no area of steel passes: the section must grow; " \
+        "tension steel alone passes from overall depth" in out
