@@ -259,7 +259,7 @@ def _section_extent(a: Assessment, arrays: Any, labels: Sequence[str],
         wanted = PANEL_HEIGHT * (extent - left) * scale / height
         section_width = float(np.clip(wanted, *SECTION_WIDTH))
         mm_per_point = (extent - left) / (section_width * 72)
-        extent = max(right, web / 2 + room * mm_per_point * 1.05)
+        extent = max(right, web / 2 + room * mm_per_point * 1.15)
     return (left * scale, extent * scale), section_width, wanted
 
 
@@ -327,7 +327,10 @@ def _draw_section(ax: Any, a: Assessment, arrays: Any, frame: _Frame, to_scale: 
                 ax.add_patch(Circle((x, y), diameter / 2 * s, facecolor=STEEL,
                                     edgecolor="none", gid="bar"))
         label = labels[i] if i < len(labels) else _layer_label(layer, group, units)
-        ax.annotate(label, (float(xs.max()), y), xytext=(LABEL_OFFSET, 0),
+        # from the outermost bar's edge, and never inside the web: a large bar or a bar
+        # near the face put the label's first character on the bar or the web's edge
+        reach = float(xs.max()) + (group[1] / 2 * s if group is not None else 0.0)
+        ax.annotate(label, (max(reach, web / 2 * s), y), xytext=(LABEL_OFFSET, 0),
                     textcoords="offset points",
                     va="center", fontsize=SMALL)
     ax.set_title(f"section: {r.block_case}" + ("" if to_scale else " (not to scale)"),
