@@ -35,6 +35,7 @@ from clausewise.provisions.verdicts import CAPACITY_ONLY, ERROR, Status
 from clausewise.provisions.vocabulary import Check, Clause, Envelope, Factor, Sense
 from clausewise.provisions.widths import OverhangEnvelope
 from clausewise.results import Outcome, Units, convert, number, utilisation_text
+from clausewise.results.display import input_label
 
 if TYPE_CHECKING:
     from pathlib import Path
@@ -75,16 +76,6 @@ def say(symbol: str, notation: Notation) -> str:
     """The engine's neutral symbol in the edition's own notation."""
     return {"M_Rd": notation.resistance, "M_Ed": notation.demand, "Mn": notation.nominal,
             "c": notation.neutral_axis, "εt": notation.strain}.get(symbol, symbol)
-
-
-def input_label(label: str, notation: Notation) -> str:
-    """An input's label in the edition's symbols (a cylinder strength keeps its own name
-    under an edition that works in cube strength, and the other way round)."""
-    if label == "f'c":
-        return "cylinder strength f'c" if notation.cube else notation.concrete
-    if label == "fck,cube":
-        return notation.concrete if notation.cube else "cube strength fck,cube"
-    return notation.steel if label == "fy" else label
 
 
 def check_code(check: Check, in_scope: bool = True) -> str:

@@ -28,11 +28,11 @@ from clausewise.report import (
     _cell,
     _where,
     governing_codes,
-    input_label,
     same_cylinder,
     say,
 )
 from clausewise.results import Outcome, Units, number, utilisation_text
+from clausewise.results.display import input_label
 
 if TYPE_CHECKING:
     from clausewise.beamfile import Schedule

@@ -323,3 +323,16 @@ def test_a_folder_that_cannot_be_written_is_named_with_the_file_asked_for(
     assert main(["check", str(beams), "--edition", "aci318-19", "--out", str(out)]) == 2
     err = capsys.readouterr().err
     assert f"cannot write {out}: Read-only file system" in err and ".tmp" not in err
+
+
+def test_json_inputs_are_labelled_in_each_edition_s_symbols(capsys):
+    """The inputs of a record read as its edition writes them (EN 1992-1-1 fck and fyk,
+    ACI 318 f'c and fy), as the report and the notation table do."""
+    demo = Path(__file__).resolve().parents[1] / "fixtures" / "demo" / "quellmoor-library.toml"
+    main(["check", str(demo), "--edition", "en1992-1-1:2004", "--edition", "aci318-19",
+          "--format", "json"])
+    records = {(r["beam"], r["edition"]): r for r in json.loads(capsys.readouterr().out)
+               ["results"]}
+    en, aci = records["B1", "en1992-1-1:2004"]["inputs"], records["B1", "aci318-19"]["inputs"]
+    assert en["fck"] == aci["f'c"] == "32 MPa" and en["fyk"] == aci["fy"] == "500 MPa"
+    assert "f'c" not in en and "fy" not in en

@@ -2,7 +2,8 @@
 
 Machine-readable results are in each beam's own unit system unless SI is asked for,
 to a stated number of significant figures; each record names its units and the
-edition's notation, and the inputs are kept as the engineer wrote them. Every record
+edition's notation, and the inputs are kept as the engineer wrote them (labelled in
+the edition's symbols). Every record
 carries the edition id, the form, the stack's versions, the status, the governing
 check and the caution. CSV files of check, compare and batch share one column scheme
 (``writers.result_columns``).

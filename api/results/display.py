@@ -7,7 +7,7 @@ from dataclasses import dataclass
 from functools import cache
 from typing import Any
 
-from clausewise.provisions import UnitSystem
+from clausewise.provisions import Notation, UnitSystem
 
 # internal unit -> shown unit per unit system, as (pint spelling, shown spelling)
 _SHOWN: dict[UnitSystem, dict[str, tuple[str, str]]] = {
@@ -85,3 +85,13 @@ class Units:
     def length(self, value: Any) -> str:
         return self.value(value, "mm")
 
+
+
+def input_label(label: str, notation: Notation) -> str:
+    """An input's label in the edition's symbols (a cylinder strength keeps its own name
+    under an edition that works in cube strength, and the other way round)."""
+    if label == "f'c":
+        return "cylinder strength f'c" if notation.cube else notation.concrete
+    if label == "fck,cube":
+        return notation.concrete if notation.cube else "cube strength fck,cube"
+    return notation.steel if label == "fy" else label

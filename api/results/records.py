@@ -17,7 +17,7 @@ from clausewise.provisions import (
 )
 from clausewise.provisions.verdicts import Status
 from clausewise.provisions.widths import OverhangEnvelope
-from clausewise.results.display import convert
+from clausewise.results.display import convert, input_label
 
 if TYPE_CHECKING:
     from clausewise.beamfile import InputProblem, Schedule
@@ -153,7 +153,8 @@ def record(outcome: Outcome, units: str = "beam", digits: int = DIGITS) -> dict[
     base: dict[str, Any] = {
         "beam": entry.beam.id, "title": entry.beam.title, "edition": outcome.edition,
         "situation": outcome.situation, "status": outcome.status, "caution": CAUTION,
-        "units": units_table(system), "inputs": dict(entry.shown),
+        "units": units_table(system),
+        "inputs": {input_label(k, outcome.notation): v for k, v in entry.shown.items()},
     }
     if a is None:
         return base | {"error": outcome.error}
