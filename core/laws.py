@@ -15,7 +15,6 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass, fields
-from functools import cache
 from typing import Any, Protocol, TypeVar
 
 import numpy as np
@@ -282,10 +281,15 @@ def stack_laws(laws: list[_Law]) -> _Law:
                    for f in fields(kind)})  # type: ignore[arg-type]
 
 
-@cache
+_PARAMETER_NAMES: dict[type, tuple[str, ...]] = {}
+
+
 def _parameter_names(kind: type) -> tuple[str, ...]:
     """A law type's parameters (``dataclasses.fields`` is slow to ask on every solve)."""
-    return tuple(f.name for f in fields(kind))
+    names = _PARAMETER_NAMES.get(kind)
+    if names is None:
+        names = _PARAMETER_NAMES[kind] = tuple(f.name for f in fields(kind))
+    return names
 
 
 def law_size(law: Any) -> int:

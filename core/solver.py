@@ -182,7 +182,7 @@ def _neutral_axis(sec: _Columns, concrete: ConcreteLaw, rtol: float, max_iter: i
             done |= converged
             if done.all():
                 break
-            shrink = 4 * np.count_nonzero(done) >= done.size
+            shrink = bool(4 * np.count_nonzero(done) >= done.size)
         negative = fx < 0
         positive = ~negative
         # Illinois: halve the stale end's value when the same end moves twice running
