@@ -1240,7 +1240,8 @@ def batch_summary(schedule: Schedule, summary: BatchSummary, out: Path | None,
     for edition, tally in summary.counts.items():
         counts.add_row(edition, *(f"{tally.get(s, 0):,}" if tally.get(s) else "·"
                                   for s in statuses))
-    worst = Table(title="highest utilisation", title_justify="left", title_style="bold",
+    worst = Table(title="highest utilisation, each beam at its worst edition",
+                  title_justify="left", title_style="bold",
                   box=box.SIMPLE_HEAD)
     for column in ("beam", "edition", "utilisation"):
         worst.add_column(column, no_wrap=True)

@@ -9,7 +9,6 @@ way: counts by status per edition and the worst beams.
 from __future__ import annotations
 
 import csv
-import heapq
 import json
 import math
 import time
@@ -47,13 +46,15 @@ def schedule_system(schedule: Schedule) -> UnitSystem:
 class Summary:
     """Counts by status per edition, and the beams with the highest utilisation.
 
-    The worst kept are the ``keep`` highest by (utilisation, beam, edition, check), a
-    total order (ids are unique in a run), so they do not depend on how the beams were
-    cut into tables or processes: summaries of the parts of a run merge into the
-    summary of the whole."""
+    The worst kept are the ``keep`` beams whose highest (utilisation, beam, edition,
+    check) under any edition is highest, each beam once with its worst edition (a beam
+    that fails under every edition filled the list with itself). It is a total order (ids
+    are unique in a run), so the list does not depend on how the beams were cut into
+    tables or processes: summaries of the parts of a run merge into the summary of the
+    whole."""
 
     counts: dict[str, Counter[str]] = field(default_factory=dict)
-    worst: list[tuple[float, str, str, str]] = field(default_factory=list)
+    worst: dict[str, tuple[float, str, str, str]] = field(default_factory=dict)  # by beam
     rows: int = 0
     keep: int = 10
 
@@ -66,9 +67,10 @@ class Summary:
             return
         util = np.where(np.isfinite(table.governing_utilisation),
                         table.governing_utilisation, np.inf)
-        # a beam below the least kept one cannot enter the heap: look only at the others,
-        # and of those only at the highest ``keep`` utilisations, ties included
-        rows = (np.flatnonzero(util >= self.worst[0][0]) if len(self.worst) == self.keep
+        # a beam below the least kept one cannot enter: look only at the others, and of
+        # those only at the highest ``keep`` utilisations, ties included (a table holds
+        # each beam once)
+        rows = (np.flatnonzero(util >= self._least()[0]) if len(self.worst) == self.keep
                 else np.arange(table.size))
         if rows.size > self.keep:
             least = np.partition(util[rows], rows.size - self.keep)[rows.size - self.keep]
@@ -77,18 +79,27 @@ class Summary:
             self._offer((float(util[i]), table.beam_ids[i], table.edition_id,
                          str(table.governing_check[i])))
 
+    def _least(self) -> tuple[float, str, str, str]:
+        return min(self.worst.values())
+
     def _offer(self, item: tuple[float, str, str, str]) -> None:
-        if len(self.worst) < self.keep:
-            heapq.heappush(self.worst, item)
-        else:
-            heapq.heappushpop(self.worst, item)
+        """Keep ``item`` if it is its beam's worst so far and among the ``keep`` worst
+        beams; the least kept only rises, so a beam left out never had a place."""
+        beam = item[1]
+        if beam in self.worst:
+            self.worst[beam] = max(self.worst[beam], item)
+        elif len(self.worst) < self.keep:
+            self.worst[beam] = item
+        elif item > (least := self._least()):
+            del self.worst[least[1]]
+            self.worst[beam] = item
 
     def merge(self, other: Summary) -> None:
         """Take in the summary of another part of the same run."""
         for edition_id, counts in other.counts.items():
             self.counts.setdefault(edition_id, Counter()).update(counts)
         self.rows += other.rows
-        for item in other.worst:
+        for item in other.worst.values():
             self._offer(item)
 
     def refused(self, edition_ids: Sequence[str], count: int) -> None:
@@ -96,7 +107,7 @@ class Summary:
             self.counts.setdefault(edition_id, Counter())[REFUSED] += count
 
     def worst_first(self) -> list[tuple[float, str, str, str]]:
-        return sorted(self.worst, reverse=True)
+        return sorted(self.worst.values(), reverse=True)
 
 
 def _numbers(values: Any, factor: float = 1.0, digits: int = 6) -> Numbers:

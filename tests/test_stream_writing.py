@@ -289,7 +289,9 @@ def test_the_summary_keeps_the_highest_utilisations_and_counts_in_order():
                     for t in tables for i, (u, b) in enumerate(
                         zip(t.governing_utilisation.tolist(), t.beam_ids, strict=True))),
                    reverse=True)
-    assert summary.worst_first() == every[:7]  # the seven highest, by hand
+    worst_of_each = [item for i, item in enumerate(every)  # each beam at its worst edition
+                     if item[1] not in {earlier[1] for earlier in every[:i]}]
+    assert summary.worst_first() == worst_of_each[:7]  # the seven highest, by hand
     for edition in ("aci318-19", "is456:2000"):
         statuses = [str(s) for t in tables if t.edition_id == edition for s in t.status]
         assert dict(summary.counts[edition]) == {s: statuses.count(s) for s in set(statuses)}

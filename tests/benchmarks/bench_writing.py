@@ -16,7 +16,6 @@ from __future__ import annotations
 
 import argparse
 import csv
-import heapq
 import json
 import tempfile
 import time
@@ -126,13 +125,13 @@ def former_summary_add(summary, table):
     summary.rows += table.size
     util = np.where(np.isfinite(table.governing_utilisation),
                     table.governing_utilisation, np.inf)
-    for i in np.argsort(-util, kind="stable")[: summary.keep]:
+    worst = dict(summary.worst)  # by beam, its worst edition: the kept, then this table's
+    for i in range(table.size):
         item = (float(util[i]), table.beam_ids[i], table.edition_id,
                 str(table.governing_check[i]))
-        if len(summary.worst) < summary.keep:
-            heapq.heappush(summary.worst, item)
-        else:
-            heapq.heappushpop(summary.worst, item)
+        worst[item[1]] = max(worst.get(item[1], item), item)
+    summary.worst = dict(sorted(worst.items(), key=lambda kv: kv[1], reverse=True)
+                         [: summary.keep])
 
 
 def former(tables, stacks, kind, path):
