@@ -47,16 +47,18 @@ FORMATS = ("text", "html", "pdf", "json", "toml", "csv")
 REPORT_WIDTH = 110  # columns of a report that does not go to a terminal (unless COLUMNS says)
 BATCH_FROM = 2_000  # beam-editions beyond which check takes the batch path (text or CSV)
 
+ENVIRONMENT = """
+environment:
+  CLAUSEWISE_EDITIONS  comma-separated edition ids: load only these (and their bases)
+  CLAUSEWISE_STRICT    1: a broken edition plugin stops every command
+"""
+
 EXIT_STATUS = """exit status:
   0  every check passes (beams without actions report "capacity only")
   1  a check fails, or a beam is outside an edition's scope or has no equilibrium
   2  bad input or usage; also when some beams of the file were refused or an edition
      could not assess a beam (the others are still checked and reported)
-
-environment:
-  CLAUSEWISE_EDITIONS  comma-separated edition ids: load only these (and their bases)
-  CLAUSEWISE_STRICT    1: a broken edition plugin stops every command
-"""
+""" + ENVIRONMENT
 
 
 EDITIONS_STATUS = """exit status:
@@ -793,7 +795,7 @@ DESIGN_STATUS = """exit status:
      is outside the edition's scope)
   2  bad input or usage; also when some beams of the file were refused or an edition
      could not design a beam (the others are still designed and reported)
-"""
+""" + ENVIRONMENT
 
 
 def _design_parser(commands: Any) -> None:

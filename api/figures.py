@@ -346,15 +346,17 @@ def _draw_strains(ax: Any, a: Assessment, eps_cu: float, frame: _Frame, n: Notat
     ax.fill_betweenx(frame.up(depths), 0, strains, color=STRAIN, alpha=0.7)
     ax.plot(strains, frame.up(depths), color="black", lw=1.0)
     ax.axvline(0, color="black", lw=0.6)
+    span = max(abs(strains).max(), eps_cu)
+    # beside the strain line's end, clear of the zero line (centred on it, the zero line
+    # crossed it): to its right where the panel has room, else ending at it
     ax.annotate(f"εcu = {eps_cu:.4g}", (eps_cu, frame.y(0.0)), fontsize=SMALL,
-                **frame.beyond_face())
+                **(frame.beyond_face() | {"ha": "left" if eps_cu < 0.5 * span else "right"}))
     for s in r.layers:
         ax.plot([s.strain], [frame.y(s.depth)], "o", color=STEEL, ms=4)
         side = "left" if s.strain < 0 else "right"
         ax.annotate(f"{s.strain:.4g}", (s.strain, frame.y(s.depth)),
                     xytext=(5 if side == "left" else -5, -2), textcoords="offset points",
                     ha=side, va="top", fontsize=SMALL)
-    span = max(abs(strains).max(), eps_cu)
     ax.set_xlim(-1.15 * span, 1.15 * span)
     ax.xaxis.set_major_locator(MaxNLocator(5))
     ax.set_title(f"strains: {n.neutral_axis} = {frame.units.length(r.c)}, "

@@ -380,3 +380,24 @@ def test_labels_of_forty_close_layers_are_spread_apart_measuring_each_once(monke
     for i, a in enumerate(boxes):
         for b in boxes[i + 1:]:
             assert not a.overlaps(b), (a, b)
+
+
+def test_the_ultimate_strain_label_keeps_clear_of_the_zero_line(outcomes):
+    """The εcu label sits beside the strain line's end, not across the zero-strain line
+    (it was centred on the end, a few hundredths of the panel from zero), and inside the
+    strain panel."""
+    from matplotlib.backends.backend_agg import FigureCanvasAgg
+
+    drawn = [figs.beam_figure(o.assessment, o.notation, o.entry.bar_groups)
+             for o in outcomes.values() if o.assessment is not None
+             and o.assessment.response is not None and o.assessment.response.equilibrium]
+    assert drawn
+    for figure in drawn:
+        renderer = FigureCanvasAgg(figure).get_renderer()
+        strain = figure.axes[1]
+        panel = strain.get_window_extent(renderer)
+        [label] = [t for t in strain.texts if t.get_text().startswith("εcu")]
+        box = label.get_window_extent(renderer)
+        zero = strain.transData.transform((0.0, 0.0))[0]
+        assert not box.x0 < zero < box.x1, label.get_text()
+        assert panel.x0 <= box.x0 and box.x1 <= panel.x1
