@@ -421,7 +421,7 @@ def _without_tension_only(group: _Group, missing: NDArray[np.int_], depth: NDArr
         c_step, t_step = shares[1] / shares[0], tension_shares[1] / tension_shares[0]
         fine_c = best[has, None] * np.geomspace(c_step ** -2, c_step, 3 * FINE + 1)[None, :]
         fine_t = tension[has, None] * np.geomspace(1 / t_step, t_step, 2 * FINE + 1)[None, :]
-        best[has], _ = _least_pair(group, scoped[has], fine_c, depth, at, fine_t)
+        best[has], tension[has] = _least_pair(group, scoped[has], fine_c, depth, at, fine_t)
         has = np.isfinite(best)
     best_total = np.full(k, np.inf)
     if has.any():

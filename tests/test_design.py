@@ -418,3 +418,17 @@ def test_design_results_follow_units_and_digits(tmp_path, capsys):
     captured = capsys.readouterr()
     assert "mixes SI and US customary beams; the CSV is in SI" in captured.err
     assert "required_area_mm2" in captured.out.splitlines()[0]
+
+
+@pytest.mark.parametrize("edition", ["en1992-1-1:2004", "is456:2000", "csa-a23.3:19",
+                                     "aci318-19"])
+def test_a_shallow_beam_gets_compression_steel_not_told_to_grow(edition):
+    """250 x 400 mm, fck 25 MPa, fy 500 MPa, MEd 230 kN·m: tension steel alone breaks a
+    ductility limit, but 3 + 3 x 25 mm with 2 x 25 mm at the top passes EN 1992-1-1 by
+    hand (As + As' = 3927 mm² ≤ 0.04 Ac = 4000 mm², 9.2.1.1(3)); design said "the section
+    must grow", as the refined pair kept the coarse grid's tension area."""
+    beam = rectangle(230e6, bw=250.0, h=400.0, fc=25.0, fy=500.0)
+    result = design(beam, edition)
+    assert result.status == COMPRESSION and result.compression_area > 0
+    assert result.arrangement is not None
+    assert assess(with_bars(beam, result.arrangement), edition).passed  # re-checked
