@@ -15,7 +15,8 @@ from clausewise.provisions.design import PRACTICAL_MARGIN, Design, bars_text, de
 from clausewise.provisions.engine import CAPACITY_ONLY, PASS
 from clausewise.provisions.verdicts import CAUTION
 from clausewise.results.display import convert
-from clausewise.results.records import DIGITS, significant
+from clausewise.results.records import DIGITS, ShownNumbers, units_table
+from clausewise.results.writers import COLUMN_UNITS
 
 if TYPE_CHECKING:
     from rich.console import Group
@@ -63,59 +64,38 @@ def _lightest(designs: Sequence[Design]) -> dict[str, float]:
     return best
 
 
-LB_PER_FT_PER_KG_PER_M = 0.3048 / 0.45359237  # exact by the definitions of ft and lb
-DESIGN_UNITS = {UnitSystem.SI: {"area": "mm²", "length": "mm", "mass": "kg/m"},
-                UnitSystem.US: {"area": "in²", "length": "in", "mass": "lb/ft"}}
-_COLUMN_UNIT = {"mm²": "mm2", "in²": "in2", "mm": "mm", "in": "in", "kg/m": "kg_per_m",
-                "lb/ft": "lb_per_ft"}
-
-
-class _DesignNumbers:
-    """A design's values (mm², mm, kg/m inside) in one unit system, to ``digits``
-    significant figures; None where a value does not exist (JSON has no NaN)."""
-
-    def __init__(self, system: UnitSystem, digits: int) -> None:
-        self.us, self.digits = system is UnitSystem.US, digits
-
-    def _shown(self, value: float | None) -> float | None:
-        if value is None or not math.isfinite(value):
-            return None
-        return significant(float(value), self.digits)
-
-    def area(self, value: float | None) -> float | None:
-        return self._shown(None if value is None else convert(value, "mm²", UnitSystem.US)[0]
-                           if self.us else value)
-
-    def length(self, value: float | None) -> float | None:
-        return self._shown(None if value is None else convert(value, "mm", UnitSystem.US)[0]
-                           if self.us else value)
-
-    def mass(self, value: float | None) -> float | None:
-        return self._shown(None if value is None else value * LB_PER_FT_PER_KG_PER_M
-                           if self.us else value)
+DESIGN_KINDS = (("area", "mm²"), ("length", "mm"), ("mass", "kg/m"))
 
 
 def design_record(d: Design, lightest: float | None, system: UnitSystem = UnitSystem.SI,
                   digits: int = DIGITS) -> dict[str, Any]:
     """One beam under one edition, its numbers in ``system`` (named in ``units``)."""
-    a, q = d.arrangement, _DesignNumbers(system, digits)
+    a, q = d.arrangement, ShownNumbers(system, digits)
+
+    def area(value: float | None) -> float | None:
+        return q.value(value, "mm²")
+
+    def length(value: float | None) -> float | None:
+        return q.value(value, "mm")
+
     return {
         "beam": d.beam_id, "edition": d.edition_id, "status": d.status, "caution": CAUTION,
-        "units": DESIGN_UNITS[system],
-        "required_area": q.area(d.required_area),
-        "compression_area": q.area(d.compression_area),
-        "trial_depth": q.length(d.trial_depth), "set_by": d.set_by,
+        "units": units_table(system, DESIGN_KINDS),
+        "required_area": area(d.required_area),
+        "compression_area": area(d.compression_area),
+        "trial_depth": length(d.trial_depth), "set_by": d.set_by,
         "set_by_clause": d.set_by_clause, "bars": a.text if a else "",
         "layers": list(a.counts) if a else [],
-        "layer_depths": [q.length(x) for x in a.depths] if a else [],
-        "provided_area": q.area(d.provided_area),
-        "provided_compression_area": q.area(a.compression_area) if a else None,
-        "compression_depth": q.length(a.compression[2]) if a and a.compression else None,
-        "mass_per_metre": q.mass(d.mass_per_metre),
-        "more_than_lightest": q.mass(d.mass_per_metre - lightest) if a and lightest else None,
-        "utilisation": q._shown(d.utilisation), "governing": d.governing,
-        "governing_clause": d.governing_clause, "least_depth": q.length(d.least_depth),
-        "least_width": q.length(d.least_width), "candidates": d.candidates,
+        "layer_depths": [length(x) for x in a.depths] if a else [],
+        "provided_area": area(d.provided_area),
+        "provided_compression_area": area(a.compression_area) if a else None,
+        "compression_depth": length(a.compression[2]) if a and a.compression else None,
+        "mass_per_metre": q.value(d.mass_per_metre, "kg/m"),
+        "more_than_lightest": q.value(d.mass_per_metre - lightest, "kg/m")
+        if a and lightest else None,
+        "utilisation": q.plain(d.utilisation), "governing": d.governing,
+        "governing_clause": d.governing_clause, "least_depth": length(d.least_depth),
+        "least_width": length(d.least_width), "candidates": d.candidates,
         "message": d.message,
     }
 
@@ -169,8 +149,9 @@ def design_csv(data: dict[str, Any]) -> str:
     systems = {tuple(r["units"].items()) for r in data["designs"]}
     if len(systems) > 1:
         raise ValueError("these designs mix unit systems; a CSV needs one: use --units SI")
-    units = data["designs"][0]["units"] if data["designs"] else DESIGN_UNITS[UnitSystem.SI]
-    names = {k: v.format(**{kind: _COLUMN_UNIT[u] for kind, u in units.items()})
+    units = data["designs"][0]["units"] if data["designs"] else units_table(UnitSystem.SI,
+                                                                           DESIGN_KINDS)
+    names = {k: v.format(**{kind: COLUMN_UNITS[u] for kind, u in units.items()})
              for k, v in CSV_COLUMNS.items()}
     out = io.StringIO()
     columns = csv.DictWriter(out, list(names.values()), lineterminator="\n",
@@ -256,11 +237,9 @@ def design_report(schedule: Schedule, designs: Sequence[Design]) -> Group:
             set_by = f"{d.set_by} ({_ref(d.set_by_clause)})" if d.set_by_clause else d.set_by
             governs = f"{d.governing} ({_ref(d.governing_clause)})" if a else d.message
             why.add_row(Text(d.edition_id), Text(set_by), Text(governs))
-            grow = [f"{what} {_depths([size], us)}" for what, size in (
-                ("overall depth", d.least_depth), ("web width", d.least_width)) if size]
+            grow = _growth(d, us)
             if grow:
-                notes.append(f"{d.edition_id}: tension steel alone passes from "
-                             f"{' or '.join(grow)}")
+                notes.append(f"{d.edition_id}: tension steel alone passes from {grow}")
         title = beam_id + (f" · {beam.title}" if beam.title else "")
         parts += [Rule(Text(title), align="left"), steel, why]
         parts += [NumbersKept(Text(n, style="dim")) for n in notes]
@@ -275,6 +254,12 @@ def design_report(schedule: Schedule, designs: Sequence[Design]) -> Group:
                       style="dim"))
     parts.append(caution())
     return Group(*parts)
+
+
+def _growth(d: Design, us: bool) -> str:
+    """The least overall depth or web width at which tension steel alone passes."""
+    return " or ".join(f"{what} {_depths([size], us)}" for what, size in (
+        ("overall depth", d.least_depth), ("web width", d.least_width)) if size)
 
 
 def _depths(depths: Sequence[float], us: bool) -> str:
@@ -367,9 +352,7 @@ def steel_comparison_report(schedule: Schedule, designs: Sequence[Design]) -> Gr
                           style="dim"))
     for d in designs:  # a blank cell says why
         if not math.isfinite(d.required_area):
-            us = entries[d.beam_id].beam.unit_system is UnitSystem.US
-            grow = " or ".join(f"{what} {_depths([size], us)}" for what, size in (
-                ("overall depth", d.least_depth), ("web width", d.least_width)) if size)
+            grow = _growth(d, entries[d.beam_id].beam.unit_system is UnitSystem.US)
             parts.append(NumbersKept(Text(
                 f"{d.edition_id}: – for {d.beam_id}: {d.message or d.status}"
                 + (f"; tension steel alone passes from {grow}" if grow else ""),

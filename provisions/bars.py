@@ -78,3 +78,14 @@ def restrict(sizes: tuple[BarSize, ...], names: tuple[str, ...]) -> tuple[BarSiz
                            f"{', '.join(b.name for b in sizes)})")
         chosen.append(by_name[key])
     return tuple(sorted(set(chosen), key=lambda b: b.diameter))
+
+
+def catalogue_of(names: tuple[str, ...]) -> tuple[str, tuple[BarSize, ...]] | None:
+    """The notation system and sizes of the one catalogue that holds every name, or None
+    (a name of no catalogue, or names of two)."""
+    for system, sizes in CATALOGUES.items():
+        try:
+            return system, restrict(sizes, names)
+        except KeyError:
+            continue
+    return None

@@ -45,7 +45,7 @@ import numpy as np
 from numpy.typing import NDArray
 
 from clausewise.core.errors import ClausewiseError
-from clausewise.provisions.bars import CATALOGUES, BarSize, restrict
+from clausewise.provisions.bars import CATALOGUES, BarSize, catalogue_of
 from clausewise.provisions.batch import (
     BatchTable,
     _floats,
@@ -206,11 +206,9 @@ def bar_sizes(beam: Beam) -> tuple[str, tuple[BarSize, ...]]:
     if not beam.bar_sizes:
         system = "US" if beam.unit_system is UnitSystem.US else "metric"
         return system, CATALOGUES[system]
-    for system, sizes in CATALOGUES.items():
-        try:
-            return system, restrict(sizes, beam.bar_sizes)
-        except KeyError:
-            continue
+    found = catalogue_of(beam.bar_sizes)
+    if found is not None:
+        return found
     raise DesignError(f"beam {beam.id!r}: bar_sizes {list(beam.bar_sizes)} are not all from "
                       "one catalogue (metric '20 mm', US '#8', CSA '25M' or Australian 'N20')")
 

@@ -25,7 +25,7 @@ from clausewise.provisions import (
     StrengthBasis,
     UnitSystem,
 )
-from clausewise.provisions.bars import CATALOGUES, BarSize, restrict
+from clausewise.provisions.bars import catalogue_of
 from clausewise.units import (
     AREA,
     BARS_EXPECTED,
@@ -59,14 +59,6 @@ _SHAPE_TEXT = {(shape, bending): f"{shape}, {bending}" for shape in _SHAPES
     ("T", "hogging"): "T, hogging (slab in tension)",
     ("L", "hogging"): "L, hogging (slab in tension)",
 }
-
-
-def _known(sizes: tuple[BarSize, ...], name: str) -> bool:
-    try:
-        restrict(sizes, (name,))
-    except KeyError:
-        return False
-    return True
 
 
 @lru_cache(maxsize=256)
@@ -422,12 +414,10 @@ class _BeamReader:
             else:
                 self.problem(f"bar_sizes[{i}]", _text(given), f"{BAR_SIZE_EXPECTED}: in US "
                              "units give the designation in quotes ('#8')")
-        unknown = [(i, n) for i, n in enumerate(names, 1)
-                   if not any(_known(sizes, n) for sizes in CATALOGUES.values())]
+        unknown = [(i, n) for i, n in enumerate(names, 1) if catalogue_of((n,)) is None]
         for i, name in unknown:
             self.problem(f"bar_sizes[{i}]", name, BAR_SIZE_EXPECTED)
-        if names and not unknown and not any(
-                all(_known(sizes, n) for n in names) for sizes in CATALOGUES.values()):
+        if names and not unknown and catalogue_of(tuple(names)) is None:
             self.problem("bar_sizes", ", ".join(names), f"sizes from one catalogue, not mixed "
                          f"({BAR_SIZE_EXPECTED})")
         return tuple(names)

@@ -34,9 +34,10 @@ def significant(value: float, digits: int) -> float:
     return float(f"{value:.{digits}g}") if digits > 0 and value else value
 
 
-class _Numbers:
-    """Internal values (N, mm, MPa, N·mm) as one unit system's numbers, rounded to a
-    number of significant figures; None where a value does not exist (JSON has no NaN)."""
+class ShownNumbers:
+    """Internal values (N, mm, MPa, N·mm, kg/m) as one unit system's numbers, rounded to
+    a number of significant figures; None where a value does not exist (JSON has no
+    NaN)."""
 
     def __init__(self, system: UnitSystem, digits: int) -> None:
         self.system, self.digits = system, digits
@@ -54,27 +55,30 @@ class _Numbers:
         return self.plain(number), shown
 
     def value(self, value: Any, unit: str) -> float | None:
-        return self.unit(value, unit)[0]
+        return None if value is None else self.unit(value, unit)[0]
 
 
-def units_table(system: UnitSystem) -> dict[str, str]:
-    """The unit of each kind of quantity in ``system``."""
-    return {kind: convert(1.0, internal, system)[1] for kind, internal in
-            (("moment", "N·mm"), ("force", "N"), ("length", "mm"), ("area", "mm²"),
-             ("stress", "MPa"))}
+RESULT_KINDS = (("moment", "N·mm"), ("force", "N"), ("length", "mm"), ("area", "mm²"),
+                ("stress", "MPa"))
+
+
+def units_table(system: UnitSystem, kinds: tuple[tuple[str, str], ...] = RESULT_KINDS
+                ) -> dict[str, str]:
+    """The unit of each kind of quantity (by its internal unit) in ``system``."""
+    return {kind: convert(1.0, internal, system)[1] for kind, internal in kinds}
 
 
 def _clause(clause: Clause) -> dict[str, str]:
     return {"ref": clause.ref, "title": clause.title, "edition": clause.edition}
 
 
-def _factor(factor: Factor, q: _Numbers) -> dict[str, Any]:
+def _factor(factor: Factor, q: ShownNumbers) -> dict[str, Any]:
     value, unit = q.unit(factor.value, factor.unit)
     return {"symbol": factor.symbol, "value": value, "unit": unit, "basis": factor.basis,
             "clause": _clause(factor.clause)}
 
 
-def _envelope(envelope: Envelope, q: _Numbers) -> dict[str, Any]:
+def _envelope(envelope: Envelope, q: ShownNumbers) -> dict[str, Any]:
     value, unit = q.unit(envelope.value, envelope.unit)
     return {
         "name": envelope.name, "symbol": envelope.symbol, "bound": str(envelope.bound),
@@ -87,7 +91,7 @@ def _envelope(envelope: Envelope, q: _Numbers) -> dict[str, Any]:
     } | _overhangs(envelope, q)
 
 
-def _overhangs(envelope: Envelope, q: _Numbers) -> dict[str, Any]:
+def _overhangs(envelope: Envelope, q: ShownNumbers) -> dict[str, Any]:
     """Per slab side, the overhang and the rule that governs it (per-side width rules)."""
     if not isinstance(envelope, OverhangEnvelope):
         return {}
@@ -96,7 +100,7 @@ def _overhangs(envelope: Envelope, q: _Numbers) -> dict[str, Any]:
                           for o in envelope.overhangs]}
 
 
-def _check(check: Check, q: _Numbers) -> dict[str, Any]:
+def _check(check: Check, q: ShownNumbers) -> dict[str, Any]:
     value, unit = q.unit(check.value, check.unit)
     return {"name": check.name, "symbol": check.symbol, "value": value,
             "limit": q.value(check.limit, check.unit), "unit": unit, "sense": str(check.sense),
@@ -104,7 +108,7 @@ def _check(check: Check, q: _Numbers) -> dict[str, Any]:
             "clause": _clause(check.clause), "note": check.note}
 
 
-def _governing(a: Assessment, q: _Numbers) -> dict[str, Any] | None:
+def _governing(a: Assessment, q: ShownNumbers) -> dict[str, Any] | None:
     check = a.governing
     if check is None:
         return None
@@ -112,7 +116,7 @@ def _governing(a: Assessment, q: _Numbers) -> dict[str, Any] | None:
             "clause": _clause(check.clause)}
 
 
-def _section(a: Assessment, q: _Numbers) -> dict[str, Any] | None:
+def _section(a: Assessment, q: ShownNumbers) -> dict[str, Any] | None:
     r = a.response
     if r is None:
         return None
@@ -133,7 +137,7 @@ def _section(a: Assessment, q: _Numbers) -> dict[str, Any] | None:
     }
 
 
-def _resistance(a: Assessment, q: _Numbers) -> dict[str, Any] | None:
+def _resistance(a: Assessment, q: ShownNumbers) -> dict[str, Any] | None:
     if a.resistance is None or a.design_resistance is None:
         return None
     return {"factor": _factor(a.resistance.factor, q), "regime": a.resistance.regime.name,
@@ -148,7 +152,7 @@ def record(outcome: Outcome, units: str = "beam", digits: int = DIGITS) -> dict[
     figures; the record's ``units`` table names the unit of each kind of quantity."""
     entry, a = outcome.entry, outcome.assessment
     system = UnitSystem.SI if units == "SI" else entry.beam.unit_system
-    q = _Numbers(system, digits)
+    q = ShownNumbers(system, digits)
     n = outcome.notation
     base: dict[str, Any] = {
         "beam": entry.beam.id, "title": entry.beam.title, "edition": outcome.edition,

@@ -31,14 +31,16 @@ def to_toml(data: dict[str, Any]) -> str:
     return tomli_w.dumps(_without_none(data))
 
 
-_COLUMN_UNITS = {"kN·m": "kNm", "kip·ft": "kip_ft", "mm": "mm", "in": "in"}
+COLUMN_UNITS = {"kN·m": "kNm", "kip·ft": "kip_ft", "mm": "mm", "in": "in", "mm²": "mm2",
+                "in²": "in2", "kg/m": "kg_per_m", "lb/ft": "lb_per_ft"}
+"""A unit as it is spelled in a CSV column's name."""
 
 
 def result_columns(units: dict[str, str]) -> tuple[str, ...]:
     """The one column scheme of every CSV of results (check, compare, batch): the unit
     in the name of every column that has one; the caution in every row, so a file or
     a filtered copy of it never loses it and the header stays the first row."""
-    moment, length = _COLUMN_UNITS[units["moment"]], _COLUMN_UNITS[units["length"]]
+    moment, length = COLUMN_UNITS[units["moment"]], COLUMN_UNITS[units["length"]]
     return ("beam", "edition", "form", "situation", "status", "utilisation",
             "governing_check", "governing_clause", f"M_Ed_{moment}", f"M_Rd_{moment}",
             f"Mn_{moment}", "resistance_factor", f"b_eff_{length}", "width_governed_by",
