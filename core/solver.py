@@ -6,10 +6,12 @@ Net compression grows with the neutral-axis depth ``c`` (the laws are monotone)
 except where a uniform block's edge passes a bar and the concrete that bar
 displaces switches on; the bracket is cut before such a step when a root lies
 below it, so the shallowest equilibrium is the one returned and is unique in the
-bracket between a vanishing ``c`` and the depth of the deepest layer. The root
-is polished by regula falsi with the Illinois modification (bisection when the
-secant leaves the bracket) until the force residual is below ``rtol`` of the
-total force; converged sections leave the working set.
+bracket between a vanishing ``c`` and the depth of the deepest layer. That bracket
+is first split at the balanced depth (the deepest steel at its yield strain), where
+the usual beam's net force turns from linear to curved, and the root is polished
+by regula falsi with the Illinois modification (bisection when the secant leaves
+the bracket) until the force residual is below ``rtol`` of the total force;
+converged sections leave the working set.
 
 One implementation serves a single section and a batch: ``solve`` wraps
 ``solve_arrays`` on a batch of one.
@@ -17,6 +19,7 @@ One implementation serves a single section and a batch: ``solve`` wraps
 
 from __future__ import annotations
 
+from collections.abc import Sequence
 from dataclasses import dataclass
 from typing import NamedTuple
 
@@ -63,6 +66,12 @@ class _Forces(NamedTuple):  # made at every trial depth: a tuple is quick to mak
 
 
 _ELEMENTWISE = (ElasticPlastic, BilinearHardening, PiecewiseLinear)
+
+SIDE_BY_SIDE = 64
+"""Up to this many sections, trial depths that do not depend on one another are evaluated
+in one call on the sections repeated side by side: numpy's fixed cost per call is then
+paid once, and outweighs the work of the extra trials (a single section: three bracket
+trials for the cost of about one)."""
 
 
 @dataclass(frozen=True)
@@ -142,23 +151,40 @@ def _neutral_axis(sec: _Columns, concrete: ConcreteLaw, rtol: float, max_iter: i
     if law_size(concrete) not in (1, n):
         raise SectionError(f"concrete law has parameters for {law_size(concrete)} sections "
                            f"but the batch has {n}")
-    hi = sec.depths.max(axis=0)
-    lo = hi * 1e-9
-    if hasattr(concrete, "stress_steps"):
-        hi = _before_first_step(sec, concrete, lo, hi)
-    f_lo, _ = _net(sec, concrete, lo)
-    f_hi, _ = _net(sec, concrete, hi)
-    bracketed = (f_lo < 0) & (f_hi > 0)
+    deepest = sec.depths.max(axis=0)
+    lo = deepest * 1e-9
+    hi = _before_first_step(sec, concrete, lo, deepest) if hasattr(
+        concrete, "stress_steps") else deepest
+    # The bracket is the split and whichever end lies across the root from it; the ends
+    # are asked only where needed, so the split costs no evaluation of its own.
+    split = _balanced_depth(sec, concrete, deepest, lo, hi)
+    if n <= SIDE_BY_SIDE:
+        f_split, f_lo, f_hi = _nets_side_by_side(sec, concrete, (split, lo, hi))
+        below = f_split > 0  # the root lies below the split
+        fa, fb = np.where(below, f_lo, f_split), np.where(below, f_split, f_hi)
+    else:
+        f_split = _net_of_rows(sec, concrete, split, None)
+        below = f_split > 0
+        fa, fb = f_split.copy(), f_split.copy()
+        for end, f_end, rows in ((lo, fa, np.flatnonzero(below)),
+                                 (hi, fb, np.flatnonzero(~below))):
+            if rows.size:
+                f_end[rows] = _net_of_rows(sec, concrete, end, rows)
+    a, b = np.where(below, lo, split), np.where(below, split, hi)
+    bracketed = (fa < 0) & (fb > 0)
     c = np.full(n, np.nan)
     iterations = np.zeros(n, dtype=int)
     status: NDArray[np.int_] = np.where(bracketed, NOT_CONVERGED, NOT_BRACKETED)
+    exact = f_split == 0  # the split is the root itself
+    if exact.any():
+        c[exact], status[exact] = split[exact], OK
 
     rows = np.flatnonzero(bracketed)  # the working set, as indices into the batch
     if rows.size == n:  # every section: the bracket's arrays are the working set's own
-        work, law, a, fa, b, fb = sec, concrete, lo, f_lo, hi, f_hi
+        work, law = sec, concrete
     else:
         work, law = sec.take(rows), take_rows(concrete, rows, n)
-        a, fa, b, fb = lo[rows], f_lo[rows], hi[rows], f_hi[rows]  # N(a) < 0 < N(b)
+        a, fa, b, fb = a[rows], fa[rows], b[rows], fb[rows]  # N(a) < 0 < N(b)
     moved_a = moved_b = np.zeros(rows.size, dtype=bool)  # which end the last step moved
     done = np.zeros(rows.size, dtype=bool)
     final, shrink = None, False
@@ -206,6 +232,40 @@ def _neutral_axis(sec: _Columns, concrete: ConcreteLaw, rtol: float, max_iter: i
     return c, status, iterations, final
 
 
+def _balanced_depth(sec: _Columns, concrete: ConcreteLaw, deepest: Array, lo: Array,
+                    hi: Array) -> Array:
+    """Where to split the bracket first: the depth at which the deepest steel is at its
+    law's yield strain as the extreme fibre reaches the ultimate strain (the balanced
+    depth). Below it that steel has yielded and, in the usual beam, net compression is
+    linear in ``c``, so the first secant step from the split lands on the root. The middle
+    of the bracket where the split is not strictly inside it."""
+    eps_cu = np.asarray(concrete.ultimate_strain, dtype=float)
+    eps_y = np.asarray(sec.steel[0].yield_strain, dtype=float)
+    with np.errstate(invalid="ignore", divide="ignore", over="ignore"):
+        split = deepest * (eps_cu / (eps_cu + eps_y))
+    middle = 0.5 * (lo + hi)
+    np.copyto(middle, split, where=(split > lo) & (split < hi))
+    return middle
+
+
+def _nets_side_by_side(sec: _Columns, concrete: ConcreteLaw, depths: Sequence[Array]
+                       ) -> list[Array]:
+    """Net force of every section at each of several trial depths, in one evaluation of
+    the sections repeated side by side: the same numbers as one evaluation per depth."""
+    n, count = sec.size, len(depths)
+    rows = np.tile(np.arange(n), count)
+    net = _net(sec.take(rows), take_rows(concrete, rows, n), np.concatenate(depths))[0]
+    return [net[i * n:(i + 1) * n] for i in range(count)]
+
+
+def _net_of_rows(sec: _Columns, concrete: ConcreteLaw, c: Array,
+                 rows: NDArray[np.int_] | None) -> Array:
+    """Net force at depths ``c`` of the sections at ``rows`` (None: every section)."""
+    if rows is None or rows.size == sec.size:
+        return _net(sec, concrete, c)[0]
+    return _net(sec.take(rows), take_rows(concrete, rows, sec.size), c[rows])[0]
+
+
 def _before_first_step(sec: _Columns, concrete: ConcreteLaw, lo: Array,
                        hi: Array) -> Array:
     """Keep the shallowest equilibrium where more than one exists.
@@ -217,15 +277,19 @@ def _before_first_step(sec: _Columns, concrete: ConcreteLaw, lo: Array,
     """
     steps = concrete.stress_steps(sec.depths) * (1.0 - 1e-12)  # type: ignore[attr-defined]
     hi = hi.copy()
+    if sec.size <= SIDE_BY_SIDE:  # every edge that lies in a bracket, in one evaluation
+        layers = np.flatnonzero(((steps > lo) & (steps < hi)).any(axis=1)).tolist()
+        nets = _nets_side_by_side(sec, concrete, [steps[j] for j in layers]) if layers else []
+        for j, net in zip(layers, nets, strict=True):
+            edge = steps[j]
+            positive = (edge > lo) & (edge < hi) & (net > 0)
+            hi[positive] = edge[positive]
+        return hi
     for edge in steps:  # one row per layer
         rows = np.flatnonzero((edge > lo) & (edge < hi))
         if rows.size == 0:
             continue
-        if rows.size == sec.size:  # every section (always so for one): no copy needed
-            net, _ = _net(sec, concrete, edge)
-        else:
-            net, _ = _net(sec.take(rows), take_rows(concrete, rows, sec.size), edge[rows])
-        positive = rows[net > 0]
+        positive = rows[_net_of_rows(sec, concrete, edge, rows) > 0]
         hi[positive] = edge[positive]
     return hi
 

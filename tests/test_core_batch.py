@@ -164,3 +164,60 @@ def test_a_shared_steel_law_in_one_call_equals_one_law_per_layer(law):
     for name in ("c", "nominal_moment", "layer_stress", "layer_strain"):
         assert np.array_equal(getattr(shared, name), getattr(separate, name)), name
         assert np.array_equal(getattr(small, name), getattr(shared, name)[:8]), name
+
+
+@pytest.mark.parametrize("law", [RectangularBlock(0.85 * 30.0, 0.85, 0.003),
+                                 ParabolaRectangle(20.0, 0.002, 0.0035)])
+def test_a_large_batch_and_its_rows_in_small_batches_give_the_same_numbers(law):
+    """A small batch asks its bracket's trial depths side by side in one call, a large one
+    only where each is needed: the same trials, so the same numbers bit for bit, with
+    compression steel (whose block edges cut the bracket) and steel yielding or not."""
+    from clausewise.core.solver import SIDE_BY_SIDE
+
+    rng = np.random.default_rng(11)
+    n = 3 * SIDE_BY_SIDE + 5
+    bf, bw, hf, h, d, area = random_tees(rng, n)
+    steel = ElasticPlastic(200_000.0, 500.0)
+
+    def sections(rows):
+        return SectionArrays.from_profile(
+            [hf[rows], (h - hf)[rows]], [bf[rows], bw[rows]], ("flange", "web"),
+            [area[rows], 0.3 * area[rows]], [d[rows], np.full(rows.size, 55.0)], [steel] * 2)
+
+    whole = solve_arrays(sections(np.arange(n)), law)
+    assert len(set(whole.iterations.tolist())) > 2  # rows that converge at different steps
+    for start in range(0, n, SIDE_BY_SIDE // 2):
+        rows = np.arange(start, min(start + SIDE_BY_SIDE // 2, n))
+        part = solve_arrays(sections(rows), law)
+        for name in ("c", "nominal_moment", "layer_strain", "status", "iterations"):
+            assert np.array_equal(getattr(part, name), getattr(whole, name)[rows],
+                                  equal_nan=True), name
+
+
+def test_balanced_section_solves_at_the_balanced_depth():
+    """Tension steel of the balanced area: the deepest bar reaches fy/Es just as the
+    extreme fibre reaches εcu, at c_b = d εcu / (εcu + εy), and As fy = 0.85 f'c b β1 c_b
+    (the balanced section of the trade: common practice, no source)."""
+    fc, b, d, fy, es, beta, eps_cu = 30.0, 300.0, 540.0, 420.0, 200_000.0, 0.836, 0.003
+    c_b = d * eps_cu / (eps_cu + fy / es)
+    area = 0.85 * fc * b * beta * c_b / fy
+    steel = ElasticPlastic(es, fy)
+    response = solve(Section.rectangle(b, d + 60.0, [SteelLayer(area, d, steel)]),
+                     RectangularBlock(0.85 * fc, beta, eps_cu))
+    assert response.status == 0
+    assert response.c == pytest.approx(c_b, rel=1e-9)
+    assert response.layers[0].strain == pytest.approx(-fy / es, rel=1e-9)
+    assert response.nominal_moment == pytest.approx(area * fy * (d - beta * c_b / 2), rel=1e-9)
+
+
+def test_an_exact_root_at_the_first_split_is_taken_as_found():
+    """Numbers chosen so that net force is exactly zero at the split (powers of two): the
+    root is the split itself, not a bracket with a zero end taken for no equilibrium."""
+    steel = ElasticPlastic(modulus=1.0, yield_stress=0.5)  # yield strain 0.5
+    law = RectangularBlock(stress=1.0, depth_factor=0.5, ultimate_strain=0.5)
+    # split = 512 * 0.5 / (0.5 + 0.5) = 256; block 128 x 1 x 1 = 128 = 256 mm² x 0.5
+    section = Section.rectangle(1.0, 600.0, [SteelLayer(256.0, 512.0, steel)])
+    response = solve(section, law)
+    assert response.status == 0
+    assert response.c == 256.0
+    assert response.nominal_moment == pytest.approx(128.0 * (512.0 - 64.0), rel=1e-12)
