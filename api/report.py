@@ -35,7 +35,7 @@ from clausewise.provisions.verdicts import CAPACITY_ONLY, ERROR, Status
 from clausewise.provisions.vocabulary import Check, Clause, Envelope, Factor, Sense
 from clausewise.provisions.widths import OverhangEnvelope
 from clausewise.results import Outcome, Units, convert, number, utilisation_text
-from clausewise.results.display import input_label
+from clausewise.results.display import in_notation, input_label
 
 if TYPE_CHECKING:
     from pathlib import Path
@@ -70,12 +70,6 @@ def _where(clause: Clause, edition: str = "") -> str:
     """A clause reference, with its supplier unless that is ``edition`` itself."""
     return f"{clause.edition} {clause.ref}" if clause.edition not in ("", edition) \
         else clause.ref
-
-
-def say(symbol: str, notation: Notation) -> str:
-    """The engine's neutral symbol in the edition's own notation."""
-    return {"M_Rd": notation.resistance, "M_Ed": notation.demand, "Mn": notation.nominal,
-            "c": notation.neutral_axis, "εt": notation.strain}.get(symbol, symbol)
 
 
 def check_code(check: Check, in_scope: bool = True) -> str:
@@ -312,7 +306,7 @@ def checks_table(checks: Sequence[Check], units: Units, edition: str, title: str
         table.add_column("clause", no_wrap=narrow, overflow="fold",  # never split or cut
                          min_width=clause_width if narrow else 18)
         for c, name in zip(checks, names, strict=True):
-            symbol = f"{say(c.symbol, n)} " if c.symbol else ""
+            symbol = f"{in_notation(c.symbol, n)} " if c.symbol else ""
             utilisation = (Text(utilisation_text(c.utilisation)) if narrow
                            else utilisation_bar(c.utilisation))
             clause = _where(c.clause, edition)

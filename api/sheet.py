@@ -29,10 +29,9 @@ from clausewise.report import (
     _where,
     governing_codes,
     same_cylinder,
-    say,
 )
 from clausewise.results import Outcome, Units, number, utilisation_text
-from clausewise.results.display import input_label
+from clausewise.results.display import in_notation, input_label
 
 if TYPE_CHECKING:
     from clausewise.beamfile import Schedule
@@ -146,7 +145,7 @@ def _checks(checks: Sequence[Check], outcome: Outcome, units: Units, edition: st
     rows = []
     for c in checks:
         sign = "≤" if c.sense is Sense.AT_MOST else "≥"
-        symbol = f"{say(c.symbol, outcome.notation)} " if c.symbol else ""
+        symbol = f"{in_notation(c.symbol, outcome.notation)} " if c.symbol else ""
         verdict = "pass" if c.passed else "fail"
         rows.append((_e(c.name), _e(symbol + units.value(c.value, c.unit)),
                      _e(f"{sign} {units.value(c.limit, c.unit)}"),

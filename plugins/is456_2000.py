@@ -235,11 +235,11 @@ def effective_flange_width(beam: Beam, params: Parameters, context: Context) -> 
     l0 = np.asarray(l0, float)
     halves = half_clear_distance(beam)
     candidates: list[Candidate] = []
-    if all(h is None for h in halves):  # no neighbouring web: an isolated beam
+    if beam.isolated:  # the engineer marks the flange as not part of a slab
         if beam.flange_width is None:
-            raise BeamDataError(f"beam {beam.id!r}: with no clear distance to a next web "
-                                f"IS 456 takes the {beam.shape.value} beam as isolated and "
-                                "needs its actual flange width (effective_flange_width, mm)")
+            raise BeamDataError(f"beam {beam.id!r}: an isolated {beam.shape.value} beam "
+                                "(isolated = true) needs its actual flange width under "
+                                "IS 456 23.1.2(c) (effective_flange_width, mm)")
         b = np.asarray(beam.flange_width, float)
         share, label = (1.0, "l0/(l0/b + 4) + bw") if tee else (0.5, "0.5 l0/(l0/b + 4) + bw")
         isolated = clause("23.1.2(c)", "isolated beams, never wider than the actual flange")

@@ -355,27 +355,44 @@ def test_zero_moment_length_when_given():
 
 def test_isolated_tee_and_ell():
     layout = FloorLayout(span=6000.0)
-    envelope, governing = width_of(tee(layout=layout, flange_width=1200.0))
+    envelope, governing = width_of(tee(layout=layout, flange_width=1200.0, isolated=True))
     # hand sum: l0/(l0/b + 4) + bw = 6000/(5 + 4) + 300 = 966.7 mm (IS 456:2000 23.1.2(c),
     # from memory)
     assert envelope.value == pytest.approx(6000 / 9 + 300)
     assert governing.clause.ref == "23.1.2(c)"
-    envelope, _ = width_of(tee(Shape.ELL, layout=layout, flange_width=1200.0))
+    envelope, _ = width_of(tee(Shape.ELL, layout=layout, flange_width=1200.0, isolated=True))
     # L: 0.5 l0/(l0/b + 4) + bw = 333.3 + 300 (IS 456:2000 23.1.2(c), from memory)
     assert envelope.value == pytest.approx(0.5 * 6000 / 9 + 300)
 
 
 def test_isolated_tee_never_wider_than_its_flange():
-    envelope, governing = width_of(tee(layout=FloorLayout(span=6000.0), flange_width=400.0))
+    envelope, governing = width_of(tee(layout=FloorLayout(span=6000.0), flange_width=400.0,
+                                       isolated=True))
     # hand sum: 6000/(15 + 4) + 300 = 615.8 mm exceeds the actual 400 mm, which governs
     assert envelope.value == pytest.approx(400.0)
     assert governing.label == "actual flange width"
 
 
+def test_a_beam_in_a_floor_without_clear_distances_is_not_taken_as_isolated():
+    """Clear distances to the next webs are optional; left out, the T- and L-beam rules
+    still apply, with the width the engineer gave as one more limit. Only a beam marked
+    isolated takes 23.1.2(c)."""
+    layout = FloorLayout(span=4000.0)
+    envelope, governing = width_of(tee(layout=layout, flange_width=1500.0))
+    # hand sum: l0/6 + bw + 6Df = 666.7 + 300 + 720 = 1686.7 mm > 1500 given (IS 456:2000
+    # 23.1.2(a), from memory): the width given governs
+    assert envelope.value == pytest.approx(1500.0)
+    assert [c.value for c in envelope.candidates] == pytest.approx([1500.0, 4000 / 6 + 1020])
+    envelope, governing = width_of(tee(Shape.ELL, layout=layout))
+    # L: l0/12 + bw + 3Df = 333.3 + 300 + 360 (IS 456:2000 23.1.2(b), from memory)
+    assert envelope.value == pytest.approx(4000 / 12 + 660)
+    assert governing.clause.ref == "23.1.2(b)"
+
+
 def test_width_inputs_missing_are_named():
     # bad input, not a plugin fault: the field of the beam file to add is named
     with pytest.raises(BeamDataError, match="effective_flange_width"):
-        assess(tee(layout=FloorLayout(span=6000.0)), ID)
+        assess(tee(layout=FloorLayout(span=6000.0), isolated=True), ID)
     with pytest.raises(BeamDataError, match="zero_moment_length"):
         assess(tee(layout=FloorLayout(span=3000.0, continuity=Continuity.CANTILEVER,
                                       clear_left=2000.0, clear_right=2000.0)), ID)

@@ -200,6 +200,21 @@ def test_each_edition_reports_in_its_own_notation(schedule, everything, edition,
         assert symbol not in text, symbol
 
 
+@pytest.mark.parametrize("edition, demand", [("aci318-19", "Mu"), ("en1992-1-1:2004", "M_Ed"),
+                                             ("csa-a23.3:19", "Mf"), ("as3600:2018", "M*")])
+def test_machine_readable_checks_use_the_editions_symbols(tmp_path, capsys, edition, demand):
+    """JSON names the demand of the strength check as the text report and the edition's
+    notation do, not by the engine's neutral symbol."""
+    path = tmp_path / "hall.toml"
+    path.write_text(SCHEDULE, encoding="utf-8")
+    main(["check", str(path), "--edition", edition, "--format", "json"])
+    doc = json.loads(capsys.readouterr().out)
+    result = next(r for r in doc["results"] if r.get("checks"))
+    strength = next(c for c in result["checks"] if c["name"] == "flexural strength")
+    assert strength["symbol"] == demand == result["notation"]["demand"]
+    assert result["demand"]["symbol"] == demand
+
+
 # --- capacity only, and check without editions ----------------------------------------------------
 
 def test_a_beam_without_moments_is_capacity_only(schedule, everything):

@@ -222,8 +222,10 @@ class BeamModel(_Model):
         default=None, description="flange (slab) thickness hf",
         json_schema_extra=_range("slab_thickness"))
     effective_flange_width: Length | None = Field(
-        default=None, description="an effective flange width given outright, instead of the "
-        "rules", json_schema_extra=_range("effective_flange_width"))
+        default=None, description="an effective flange width the engineer gives (from the "
+        "floor's analysis, say): an upper limit, never wider than the edition's own rules "
+        "allow (the smallest of it and the clause limits governs); the actual flange width "
+        "of a beam marked isolated", json_schema_extra=_range("effective_flange_width"))
     floor: FloorModel | None = Field(default=None, description="the floor layout")
     concrete_strength: Stress = Field(description="specified concrete strength",
                                       json_schema_extra=_range("concrete_strength"))

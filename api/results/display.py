@@ -87,6 +87,12 @@ class Units:
 
 
 
+def in_notation(symbol: str, notation: Notation) -> str:
+    """The engine's neutral symbol (M_Rd, M_Ed, Mn, c, εt) in the edition's own notation."""
+    return {"M_Rd": notation.resistance, "M_Ed": notation.demand, "Mn": notation.nominal,
+            "c": notation.neutral_axis, "εt": notation.strain}.get(symbol, symbol)
+
+
 def input_label(label: str, notation: Notation) -> str:
     """An input's label in the edition's symbols (a cylinder strength keeps its own name
     under an edition that works in cube strength, and the other way round)."""

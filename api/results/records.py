@@ -13,11 +13,12 @@ from clausewise.provisions import (
     Clause,
     Envelope,
     Factor,
+    Notation,
     UnitSystem,
 )
 from clausewise.provisions.verdicts import Status
 from clausewise.provisions.widths import OverhangEnvelope
-from clausewise.results.display import convert, input_label
+from clausewise.results.display import convert, in_notation, input_label
 
 if TYPE_CHECKING:
     from clausewise.beamfile import InputProblem, Schedule
@@ -78,10 +79,11 @@ def _factor(factor: Factor, q: ShownNumbers) -> dict[str, Any]:
             "clause": _clause(factor.clause)}
 
 
-def _envelope(envelope: Envelope, q: ShownNumbers) -> dict[str, Any]:
+def _envelope(envelope: Envelope, q: ShownNumbers, n: Notation) -> dict[str, Any]:
     value, unit = q.unit(envelope.value, envelope.unit)
     return {
-        "name": envelope.name, "symbol": envelope.symbol, "bound": str(envelope.bound),
+        "name": envelope.name, "symbol": in_notation(envelope.symbol, n),
+        "bound": str(envelope.bound),
         "value": value, "unit": unit, "governing": envelope.governing_candidate.label,
         "candidates": [
             {"label": c.label, "value": q.value(c.value, envelope.unit),
@@ -100,9 +102,10 @@ def _overhangs(envelope: Envelope, q: ShownNumbers) -> dict[str, Any]:
                           for o in envelope.overhangs]}
 
 
-def _check(check: Check, q: ShownNumbers) -> dict[str, Any]:
+def _check(check: Check, q: ShownNumbers, n: Notation) -> dict[str, Any]:
+    """A check, its symbol in the edition's notation (as the text report writes it)."""
     value, unit = q.unit(check.value, check.unit)
-    return {"name": check.name, "symbol": check.symbol, "value": value,
+    return {"name": check.name, "symbol": in_notation(check.symbol, n), "value": value,
             "limit": q.value(check.limit, check.unit), "unit": unit, "sense": str(check.sense),
             "utilisation": q.plain(check.utilisation), "passed": bool(check.passed),
             "clause": _clause(check.clause), "note": check.note}
@@ -170,12 +173,12 @@ def record(outcome: Outcome, units: str = "beam", digits: int = DIGITS) -> dict[
         "stack": [{"id": s.id, "title": s.title, "distribution": s.distribution,
                    "version": s.version, "source": s.source} for s in a.stack],
         "summary": a.summary(), "governing_check": _governing(a, q),
-        "effective_width": _envelope(a.effective_width, q) if a.effective_width else None,
+        "effective_width": _envelope(a.effective_width, q, n) if a.effective_width else None,
         "section": _section(a, q), "resistance": _resistance(a, q),
-        "demand": _envelope(a.demand, q) if a.demand else None,
-        "checks": [_check(c, q) for c in a.checks],
+        "demand": _envelope(a.demand, q, n) if a.demand else None,
+        "checks": [_check(c, q, n) for c in a.checks],
         "remarks": list(a.remarks),
-        "applicability": [_check(c, q) for c in a.applicability],
+        "applicability": [_check(c, q, n) for c in a.applicability],
         "factors": [_factor(f, q) for f in (*a.concrete_factors, *a.steel_factors)],
         "parameters": [{"name": p.name, "value": p.value, "unit": p.unit,
                         "description": p.description, "supplier": p.clause.edition,
