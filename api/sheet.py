@@ -67,7 +67,9 @@ figure { margin: 2mm 0; }
 figure svg { width: 100%; height: auto; }
 nav ol { columns: 2; column-gap: 8mm; margin: 1mm 0; padding-left: 7mm; }
 table.side { font-size: 7.5pt; width: 100%; table-layout: fixed; }
-table.side th { overflow-wrap: anywhere; font-weight: 600; }
+table.side th { font-weight: 600; }
+table.side th + th { writing-mode: vertical-rl; transform: rotate(180deg);
+                     white-space: nowrap; text-align: left; vertical-align: bottom; }
 table.side td, table.side th:first-child { white-space: nowrap; overflow-wrap: normal; }
 table.side a { text-decoration: none; }
 nav li { break-inside: avoid; }  /* a second column's numbers sit in its own gap */
@@ -108,9 +110,18 @@ def _table(head: Sequence[str], rows: Sequence[Sequence[str]], numeric: Sequence
     return f"<table{cls}>{thead}<tbody>{body}</tbody></table>"
 
 
+_NUMBER_THEN_WORD = re.compile(r"(?<=\d) (?=[^\W\d])")
+
+
+def _kept(text: str) -> str:
+    """A number held to the unit or word after it ("595 mm", "4 x 20 mm"), so a narrow
+    cell never ends a line between them."""
+    return _NUMBER_THEN_WORD.sub("\u00a0", text)
+
+
 def _facts(pairs: Sequence[tuple[str, str]], columns: int = 1) -> str:
     """Label/value pairs, in ``columns`` side-by-side pairs of columns."""
-    items = [(_e(k), _e(v)) for k, v in pairs if v]
+    items = [(_e(k), _e(_kept(v))) for k, v in pairs if v]
     rows = -(-len(items) // columns)
     cells = [[c for pair in items[i::rows] for c in pair] for i in range(rows)]
     return _table((), [row + [""] * (2 * columns - len(row)) for row in cells],
@@ -206,10 +217,12 @@ def _edition_part(outcome: Outcome, figures: bool) -> str:
     factors = [*a.concrete_factors, *a.steel_factors]
     if a.resistance is not None and a.design_resistance is not None:
         factors.append(a.resistance.factor)
+        times = n.nominal if n.nominal != n.resistance else \
+            "the section's moment at the design strengths"
         factors.append(Factor(n.resistance, a.design_resistance.value,
                               a.design_resistance.clause,
                               f"{a.resistance.factor.symbol} = "
-                              f"{number(a.resistance.factor.value, 4)} times {n.nominal}",
+                              f"{number(a.resistance.factor.value, 4)} times {times}",
                               "N·mm"))
     if factors:
         parts += ["<h4>factors, with clause and supplier</h4>", _factors(factors, units)]
@@ -219,7 +232,8 @@ def _edition_part(outcome: Outcome, figures: bool) -> str:
             ("compression zone", f"{r.block_case}; depth {units.length(r.zone_depth)}"),
             ("neutral axis", f"{n.neutral_axis} = {units.length(r.c)}"),
             ("net tensile strain", f"{n.strain} = {number(r.net_tensile_strain, 4)}"),
-            ("nominal moment", f"{n.nominal} = {units.moment(r.nominal_moment)}"),
+            ("nominal moment", f"{n.nominal} = {units.moment(r.nominal_moment)}"
+             if n.nominal != n.resistance else ""),  # partial factors: one moment
             ("design resistance", f"{n.resistance} = {units.moment(a.design_resistance.value)}"
              if a.design_resistance is not None else ""),
             ("regime", a.resistance.regime.name if a.resistance else ""),
@@ -233,6 +247,7 @@ def _edition_part(outcome: Outcome, figures: bool) -> str:
     shown = a.checks if a.checks else a.applicability
     parts += [f"<h4>{'checks' if a.checks else 'scope'}</h4>",
               _checks(shown, outcome, units, a.edition_id),
+              _not_checked(a.remarks),
               f'<p class="governing">▶ {_e(beam.id)} under {_e(a.edition_id)}: '
               f"{_unbroken_ids(_e(a.summary()))}</p></div>"]
     return "".join(parts)
@@ -280,7 +295,7 @@ def calculation_sheet(schedule: Schedule, outcomes: Sequence[Outcome],
     page_size = _page_rule(paper, f"{p.name or schedule.source}: {what}", made)
     contents = "".join(
         f'<li><a href="#{_anchor(b)}">{_e(b)}</a>: ' + ", ".join(
-            f'<a href="#{_anchor(b, o.edition)}">{_e(o.edition)}</a> '
+            f'<a href="#{_anchor(b, o.edition)}">{_edition(o.edition)}</a> '
             f'<span class="{_status_class(o.status)}">{_e(o.status)}</span>'
             for o in group) + "</li>" for b, group in by_beam.items())
     problems = ""
@@ -390,6 +405,14 @@ def screenshot(page: str, size: tuple[int, int] = (1000, 1400)) -> bytes:
         _headless(browser, source, f"--screenshot={target}",
                   f"--window-size={size[0]},{size[1]}")
         return target.read_bytes()
+
+
+def _not_checked(remarks: Sequence[str]) -> str:
+    """What this edition's assessment did not check, as the console report notes it: a
+    checker reading only the sheet must see it too."""
+    if not remarks:
+        return ""
+    return "<h4>not checked</h4><ul>" + "".join(f"<li>{_e(r)}</li>" for r in remarks) + "</ul>"
 
 
 _EDITION_REF = re.compile(r"\(([^()\s]+) ([^()]+)\)")

@@ -12,6 +12,7 @@ memory: 22.2.2.4.1, Table 21.2.2).
 
 from __future__ import annotations
 
+import html
 import io
 import os
 import re
@@ -238,3 +239,24 @@ def test_the_compare_sheet_puts_the_editions_side_by_side(outcomes):
         assert f"{check.utilisation:.2f}" in side and check.name in side
     assert "✓ pass" in side and "✗ fail" in side
     assert "Editions side by side" not in calculation_sheet(schedule, outcomes[1])
+
+
+def test_the_sheet_says_what_was_not_checked_and_keeps_ids_and_numbers_whole(outcomes):
+    """What the console notes as not checked is on the sheet too; an edition id in the
+    contents and a number with its unit are never broken across lines; under a
+    partial-factor edition the one moment is not called nominal."""
+    schedule, _ = outcomes
+    registry = default_registry()
+    editions = [registry.edition(e) for e in ("aci318-19", "en1992-1-1:2004")]
+    found = list(run(schedule, editions, None, "persistent"))
+    page = calculation_sheet(schedule, found, figures=False)
+    remarks = {r for o in found for r in o.assessment.remarks}
+    assert remarks  # EN 1992-1-1 crack control, for one
+    assert "<h4>not checked</h4>" in page
+    for remark in remarks:
+        assert html.escape(remark, quote=True) in page
+    assert '<span class="id">en1992-1-1:2004</span>' in page.split("<nav>")[1].split("</nav>")[0]
+    assert "4\u00a0x 25\u00a0mm" in page  # "4 x 25 mm" as given, held to its unit
+    en = page[page.index("under en1992-1-1:2004"):]
+    assert "nominal moment" not in en.split("</div>")[0]
+    assert "times the section&#x27;s moment at the design strengths" in en
