@@ -15,6 +15,10 @@ The ranges are the trade's, wide enough for every published edition:
 - a stress-block factor (α1, α2, β1, λ, η, αcc, AS 3600's γ) lies in (0, 1];
 - an ultimate concrete strain lies in [ULTIMATE_STRAIN] (0.002 to 0.01: published
   values are 0.0026 to 0.0035, common practice);
+- a material law is no stronger than the beam's materials: steel never yields above the
+  specified yield strength (a hardening branch may rise to 1.5 times it), and the
+  concrete's stress never exceeds 1.25 times the specified strength (room for a cylinder
+  given where an edition works in cube strength, and the other way round);
 - an effective flange width is positive and finite;
 - a factored moment is finite and not negative in the beam's own bending sense.
 """
@@ -122,7 +126,18 @@ def _factors_problems(factors: Iterable[Any]) -> list[str]:
     return [p for f in factors if isinstance(f, Factor) and (p := _factor_problem(f))]
 
 
-def _concrete(answer: MaterialModel) -> list[str]:
+STEEL_OVERSTRENGTH = 1.5  # a hardening branch's top stress over fy, beyond any class
+CONCRETE_OVERSTRENGTH = 1.25  # a block's stress over the specified strength, either basis
+
+
+def _stronger_than(values: Any, specified: Any, times: float) -> bool:
+    """Any beam whose law stress exceeds ``times`` its specified strength (NaN counts)."""
+    with np.errstate(invalid="ignore"):
+        ok = np.asarray(values, float) <= times * np.asarray(specified, float) * (1 + 1e-9)
+    return not bool(np.all(ok))
+
+
+def _concrete(answer: MaterialModel, beam: Any = None) -> list[str]:
     law = answer.law
     if not isinstance(law, CONCRETE_LAWS):
         return [f"law {type(law).__name__}, expected one of "
@@ -139,15 +154,34 @@ def _concrete(answer: MaterialModel) -> list[str]:
         if bad.any():
             problems.append(f"block depth factor {_shown(depth, bad)}, expected a value in "
                             "(0, 1]")
+    stress = law.stress if isinstance(law, RectangularBlock) else law.peak_stress
+    if beam is not None and _stronger_than(stress, beam.concrete_strength,
+                                           CONCRETE_OVERSTRENGTH):
+        problems.append(f"concrete stress {_values(stress).max():.6g} MPa, expected at most "
+                        f"{CONCRETE_OVERSTRENGTH:g} times the specified strength "
+                        f"({_values(beam.concrete_strength).min():.6g} MPa)")
     return problems
 
 
-def _steel(answer: MaterialModel) -> list[str]:
+def _steel(answer: MaterialModel, beam: Any = None) -> list[str]:
     law = answer.law
     if not isinstance(law, STEEL_LAWS):
         return [f"law {type(law).__name__}, expected one of "
                 f"{', '.join(t.__name__ for t in STEEL_LAWS)}"]
-    return _factors_problems(answer.factors)
+    problems = _factors_problems(answer.factors)
+    if beam is None:
+        return problems
+    fy = beam.yield_strength
+    if isinstance(law, PiecewiseLinear):
+        top = np.max([np.asarray(s, float) for _, s in law.points], axis=0)
+        if _stronger_than(top, fy, STEEL_OVERSTRENGTH):
+            problems.append(f"steel stress {_values(top).max():.6g} MPa on the design "
+                            f"curve, expected at most {STEEL_OVERSTRENGTH:g} fy "
+                            f"({_values(fy).min():.6g} MPa)")
+    elif _stronger_than(law.yield_stress, fy, 1.0):
+        problems.append(f"steel yield stress {_values(law.yield_stress).max():.6g} MPa, "
+                        f"expected at most the specified fy ({_values(fy).min():.6g} MPa)")
+    return problems
 
 
 def _resistance(answer: Resistance, response: Any = None) -> list[str]:
@@ -188,21 +222,27 @@ def _detailing(limits: DetailingLimits) -> list[str]:
     return [problem] if problem else []
 
 
-_CHECKS: dict[str, Callable[[Any], list[str]]] = {
+_LAW_CHECKS: dict[str, Callable[[Any, Any], list[str]]] = {
     "concrete_law": _concrete,
     "steel_law": _steel,
+}
+_CHECKS: dict[str, Callable[[Any], list[str]]] = {
     "effective_flange_width": _width,
     "design_actions": _demand,
     "detailing_limits": _detailing,
 }
 
 
-def answer_problems(hook: str, value: Any, response: Any = None) -> list[str]:
+def answer_problems(hook: str, value: Any, response: Any = None, beam: Any = None
+                    ) -> list[str]:
     """What is wrong with a typed answer of ``hook`` ([] when it makes sense);
-    ``response`` is the section's response a resistance factor was asked for."""
+    ``response`` is the section's response a resistance factor was asked for, ``beam``
+    the beam a material law was asked for (its specified strengths bound the law)."""
     if value is None:
         return []
     if hook == "resistance_factor":
         return _resistance(value, response)
+    if hook in _LAW_CHECKS:
+        return _LAW_CHECKS[hook](value, beam)
     check = _CHECKS.get(hook)
     return [] if check is None else check(value)

@@ -265,13 +265,13 @@ def _quiet_floats() -> Any:
     return np.errstate(all="ignore")
 
 
-def _sense_checked(edition: Edition, hook: str, value: Any, response: Any,
+def _sense_checked(edition: Edition, hook: str, value: Any, kwargs: dict[str, Any],
                    layers: tuple[str, ...]) -> None:
     """Values, not only types: see :mod:`clausewise.provisions.answer_checks`; ``layers``
     answered and wrapped the hook, the last one's answer is the one judged."""
     from clausewise.provisions.answer_checks import AnswerError, answer_problems
 
-    problems = answer_problems(hook, value, response)
+    problems = answer_problems(hook, value, kwargs.get("response"), kwargs.get("beam"))
     if problems:
         raise AnswerError(edition.id, layers[-1] if layers else "?", hook, problems)
 
@@ -358,7 +358,7 @@ class Edition:
         if value is None and spec.many:
             value = []
         self._check(spec, "the stack", value)
-        _sense_checked(self, hook, value, kwargs.get("response"), (*answered, *wrapped))
+        _sense_checked(self, hook, value, kwargs, (*answered, *wrapped))
         for trail in _TRAILS.get():
             trail[hook] = TopicAnswer(hook, answered, wrapped)
         return value

@@ -120,6 +120,12 @@ FAULTS = [
     ("concrete_law", lambda beam, clause: MaterialModel("not a law", ()), "law str"),
     ("steel_law", lambda beam, clause: MaterialModel(RectangularBlock(25.0, 0.85, 0.003), ()),
      "law RectangularBlock"),
+    # a wrapper that multiplied the strengths: right types, values no material has
+    ("steel_law", lambda beam, clause: MaterialModel(
+        ElasticPlastic(200_000.0, 5 * beam.yield_strength), ()), "steel yield stress 2100 MPa"),
+    ("concrete_law", lambda beam, clause: MaterialModel(
+        RectangularBlock(5 * 0.85 * beam.concrete_strength, 0.85, 0.003), ()),
+     "concrete stress 119 MPa"),
     ("effective_flange_width", width(-1000.0), "effective width -1000.0"),
     ("effective_flange_width", width(math.inf), "effective width inf"),
     ("effective_flange_width", width(math.nan), "effective width nan"),
@@ -185,6 +191,14 @@ def test_sensible_answers_pass_untouched():
     assert not answer_problems("steel_law", MaterialModel(
         ElasticPlastic(200_000.0, 500.0 / 1.15), (Factor("γs", 1.0, clause),)))
     assert answer_problems("design_actions", moment(0.0)(None, clause)) == []
+
+
+def test_the_kit_does_not_let_a_law_stronger_than_its_materials_conform():
+    plugin = answering("steel_law", lambda beam, clause: MaterialModel(
+        ElasticPlastic(200_000.0, 5 * np.asarray(beam.yield_strength)), ()))
+    edition = layered(plugin).edition(plugin.edition_info().id)
+    findings = answers_make_sense(Sample(edition))
+    assert findings and all("steel yield stress" in f.message for f in findings)
 
 
 def test_the_kit_no_longer_lets_a_negative_factored_moment_conform():
