@@ -160,9 +160,27 @@ def detailing_checks(beam: Beam, edition: Edition, params: Parameters,
             f"{', '.join(cand.label for cand in clear.candidates)}; cover "
             f"{shown(c, 'g')} mm, stirrup {shown(stirrup, 'g')} mm, "
             f"{shown(layer.count, 'g')} bars"))
+        if beam.cover is not None:
+            checks.append(_clear_of_cover(beam, name, i, layer, stirrup, limits))
     checks += _between_layers(beam, limits_for)
     checks += _crack_spacing(beam, limits_for, stirrup, remarks)
     return checks, remarks
+
+
+def _clear_of_cover(beam: Beam, name: str, i: int, layer: Layer, stirrup: Any,
+                    limits: DetailingLimits) -> Check:
+    """A layer's centroid at least cover + stirrup + db/2 from its own face, where the
+    engineer gave the cover: bars placed inside the cover the file states cannot be built
+    as drawn (a depth that assumes less cover is a slip of one input or the other)."""
+    depth = np.asarray(layer.depth, float)
+    from_face = np.asarray(beam.depth, float) - depth if name == "tension" else depth
+    needed = np.asarray(beam.cover, float) + np.asarray(stirrup, float) \
+        + 0.5 * np.asarray(layer.diameter, float)
+    return Check(f"bars clear of the cover: {name} layer {i}", per_beam(from_face),
+                 per_beam(needed), Sense.AT_LEAST, limits.cover.clause, "", "mm",
+                 "distance from the layer's centroid to its face, at least cover + stirrup "
+                 f"+ db/2 (cover {shown(beam.cover, 'g')} mm as given, stirrup "
+                 f"{shown(stirrup, 'g')} mm)")
 
 
 def _between_layers(beam: Beam, limits_for: Any) -> list[Check]:

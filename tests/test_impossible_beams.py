@@ -355,3 +355,24 @@ def test_a_cover_that_leaves_no_room_for_bars_is_refused():
     [full] = _design_problems('cover = "120 mm"\nstirrup_diameter = "12 mm"', bw="250 mm")
     assert full.field == "cover" and "264 mm" in full.expected and "web width" in full.expected
     assert not _design_problems('cover = "40 mm"')
+
+
+def test_bars_inside_the_cover_the_file_states_never_pass():
+    """A cover of 40 mm with 10 mm stirrups and 25 mm bars puts the bars' centroid at
+    least 40 + 10 + 12.5 = 62.5 mm from the face (common practice, hand arithmetic); a
+    depth of 580 mm on a 600 mm beam (20 mm from the soffit) cannot be built as stated
+    and is no longer a pass at 8 % more strength than the largest buildable depth."""
+    text = rectangle(d="580 mm") + 'cover = "40 mm"\nstirrup_diameter = "10 mm"\n' \
+        + 'moments = { factored = "200 kN m" }\n'
+    schedule = parse_schedule(text, "plan.toml")
+    assert not schedule.problems
+    beam = schedule.entries[0].beam
+    for edition in ("aci318-19", "en1992-1-1:2004"):
+        a = assess(beam, edition)
+        check = next(c for c in a.checks if c.name == "bars clear of the cover: tension layer 1")
+        assert check.value == pytest.approx(20.0) and check.limit == pytest.approx(62.5)
+        assert not check.passed and a.status == "fail"
+    buildable = parse_schedule(rectangle(d="537.5 mm") + 'cover = "40 mm"\n'
+                               'stirrup_diameter = "10 mm"\n', "plan.toml").entries[0].beam
+    assert all(c.passed for c in assess(buildable, "aci318-19").checks
+               if c.name.startswith("bars clear of the cover"))
