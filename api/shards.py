@@ -345,9 +345,15 @@ def _work(tables: BeamTables, part: range, editions: Sequence[Edition], form: st
 
 
 def _bound_to(parent: int) -> None:
-    """Ignore Ctrl-C (the parent stops the workers), and have the kernel stop this process
-    when the parent ends, however it ends."""
+    """Ignore Ctrl-C (the parent stops the workers), end quietly when the parent ends this
+    process (the command's own handlers, inherited, would raise in a worker that had
+    answered and was ending, and print a traceback after a run that went well), and have
+    the kernel stop this process when the parent ends, however it ends."""
     signal.signal(signal.SIGINT, signal.SIG_IGN)
+    for name in ("SIGTERM", "SIGHUP"):
+        number = getattr(signal, name, None)
+        if number is not None:
+            signal.signal(number, signal.SIG_DFL)
     signal.pthread_sigmask(signal.SIG_UNBLOCK, {signal.SIGINT})
     try:
         import ctypes

@@ -408,3 +408,32 @@ def test_check_on_a_large_file_shares_it_among_processes_too(tmp_path, capsys, s
     one = batch(schedule, tmp_path / "one", capsys, "--workers", "1")
     assert_same(checked, one)
     assert len(checked.rows) == 1 + BEAMS * len(EDITIONS)
+
+
+def _answered_worker(parent: int, ready) -> None:
+    """A worker as the command forks it: the command's signal handlers inherited, then
+    bound to its parent; it has answered and waits to end."""
+    from clausewise.cli import _interrupted_by_signals
+
+    _interrupted_by_signals()
+    shards._bound_to(parent)
+    ready.set()
+    time.sleep(30)
+
+
+@pytest.mark.skipif(not hasattr(signal, "SIGTERM") or sys.platform == "win32",
+                    reason="POSIX signals")
+def test_a_worker_ended_by_its_parent_ends_quietly():
+    """The parent ends workers that have answered with SIGTERM; a worker that kept the
+    command's handler raised in its teardown and printed a traceback after a good run.
+    Ended by the signal's default action, it exits with -SIGTERM and says nothing."""
+    import multiprocessing
+
+    context = multiprocessing.get_context("fork")
+    ready = context.Event()
+    worker = context.Process(target=_answered_worker, args=(os.getpid(), ready))
+    worker.start()
+    assert ready.wait(10)
+    worker.terminate()
+    worker.join(10)
+    assert worker.exitcode == -signal.SIGTERM
