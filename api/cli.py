@@ -272,8 +272,11 @@ def _name_broken(registry: Registry) -> None:
 
 def _only(annexes: Sequence[Path], named: Sequence[str]) -> frozenset[str] | None:
     """The entry points a run needs, or None for all (nothing named, the environment
-    chooses, or a name that is no entry point: the full registry then says what is known)."""
-    if not named or os.environ.get("CLAUSEWISE_EDITIONS", "").strip():
+    chooses, or a name that is no entry point: the full registry then says what is known).
+    Under CLAUSEWISE_STRICT=1 every plugin is loaded, so that a broken one stops the run
+    whichever editions it names."""
+    if not named or os.environ.get("CLAUSEWISE_EDITIONS", "").strip() \
+            or os.environ.get("CLAUSEWISE_STRICT") == "1":
         return None
     from clausewise.annexfile import annex_heading
     from clausewise.provisions.registry import plugin_names

@@ -568,6 +568,9 @@ def test_strict_stops_a_run_that_would_leave_a_broken_plugin_out(monkeypatch, tm
     path = write(tmp_path, PASSING)
     assert main(["compare", str(path)]) == 2
     assert "CLAUSEWISE_STRICT=1" in capsys.readouterr().err
+    # naming the edition loads only its plugin; strict must still find the broken one
+    assert main(["check", str(path), "--edition", "aci318-19"]) == 2
+    assert "CLAUSEWISE_STRICT=1" in capsys.readouterr().err
 
 
 def test_a_device_is_not_read_as_a_schedule(tmp_path, capsys):
