@@ -479,6 +479,18 @@ def _safe(name: str) -> str:
     return re.sub(r"[^A-Za-z0-9._-]+", "_", name).strip("_") or "beam"
 
 
+def _beam_stem(beam_id: str) -> str:
+    """A beam's part of a figure's file name: the id as it is where it is a plain name,
+    else cleaned and marked with a short digest of the id, so that ids that clean alike
+    ("a/b", "a_b", "ß", "é") never write over one another's figures."""
+    import hashlib
+
+    stem = _safe(beam_id)
+    if stem == beam_id:
+        return stem
+    return f"{stem}-{hashlib.sha1(beam_id.encode('utf-8')).hexdigest()[:6]}"
+
+
 def _beam_figures(folder: Path, outcomes: Sequence[Outcome], kind: str) -> None:
     from clausewise import figures
 
@@ -491,7 +503,7 @@ def _beam_figures(folder: Path, outcomes: Sequence[Outcome], kind: str) -> None:
                   f"({o.status})", file=sys.stderr)
             continue
         figure = figures.beam_figure(a, o.notation, o.entry.bar_groups)
-        figures.save(figure, folder / f"{_safe(o.entry.beam.id)}_{_safe(o.edition)}.{kind}")
+        figures.save(figure, folder / f"{_beam_stem(o.entry.beam.id)}_{_safe(o.edition)}.{kind}")
         written += 1
     print(f"{PROGRAM}: {written} figure(s) written to {folder}", file=sys.stderr)
 
@@ -507,7 +519,7 @@ def _comparison_figures(folder: Path, outcomes: Sequence[Outcome], kind: str) ->
     for beam_id, group in by_beam.items():
         if group:
             figures.save(figures.utilisation_figure(group),
-                         folder / f"{_safe(beam_id)}_editions.{kind}")
+                         folder / f"{_beam_stem(beam_id)}_editions.{kind}")
             written += 1
     print(f"{PROGRAM}: {written} figure(s) written to {folder}", file=sys.stderr)
 
@@ -881,7 +893,7 @@ def _design_figures(folder: Path, schedule: Schedule, designs: Sequence[Any],
                   f"({d.status})", file=sys.stderr)
             continue
         figures.save(design_figure(d, beams[d.beam_id]),
-                     folder / f"{_safe(d.beam_id)}_{_safe(d.edition_id)}_design.{kind}")
+                     folder / f"{_beam_stem(d.beam_id)}_{_safe(d.edition_id)}_design.{kind}")
         written += 1
     print(f"{PROGRAM}: {written} figure(s) written to {folder}", file=sys.stderr)
 

@@ -14,6 +14,7 @@ import io
 import math
 from collections.abc import Sequence
 from dataclasses import dataclass
+from itertools import groupby
 from pathlib import Path
 from typing import Any
 
@@ -94,14 +95,18 @@ class _Frame:
         return low * self.depth * self.scale, high * self.depth * self.scale
 
 
+LayerBars = tuple[float, ...] | None
+"""Each bar's diameter (mm) of a layer given by bars, in the order given; None for a layer
+given as an area."""
+
 ROW_GAP = 0.75  # inches between the rows of a stacked figure: the section's axis label
 
 
 def beam_figure(assessment: Assessment, notation: Notation | None = None,
-                bar_groups: Sequence[tuple[int, float] | None] = (),
+                bar_groups: Sequence[LayerBars] = (),
                 stacked: bool = False) -> Figure:
     """Three panels at one height scale: the section with its effective flange, the
-    compression zone shaded and every bar (``bar_groups``: count and diameter per layer,
+    compression zone shaded and every bar (``bar_groups``: each bar's diameter per layer,
     tension then compression; a layer given as an area is one marker); the strains; the
     stresses and forces. ``stacked``: the section on a row above the other two, so the
     figure is narrow enough to print on a page at nearly its own size (its text stays
@@ -191,7 +196,7 @@ def bar_positions(count: int, diameter: float, web: float, edge: float) -> np.nd
     return np.linspace(-reach, reach, count)
 
 
-def _side_edges(layers: Sequence[Any], bar_groups: Sequence[tuple[int, float] | None],
+def _side_edges(layers: Sequence[Any], bar_groups: Sequence[LayerBars],
                 overall: float) -> dict[bool, float]:
     """Distance of the bar centres from the side faces, for the layers near the top
     (True) and near the bottom (False): that of the outermost layer on that side, so
@@ -263,16 +268,27 @@ def _section_extent(a: Assessment, arrays: Any, labels: Sequence[str],
     return (left * scale, extent * scale), section_width, wanted
 
 
-def _padded(groups: Sequence[tuple[int, float] | None], count: int
-            ) -> list[tuple[int, float] | None]:
+def _padded(groups: Sequence[LayerBars], count: int
+            ) -> list[LayerBars]:
     return [groups[i] if i < len(groups) else None for i in range(count)]
 
 
-def _layer_label(layer: Any, group: tuple[int, float] | None, units: Units) -> str:
+def _layer_label(layer: Any, group: LayerBars, units: Units) -> str:
+    """"4 × 25 mm (1963 mm²)", or each size of a mixed layer as given: "2 × 25 mm + 2 ×
+    20 mm (1610 mm²)"."""
     if group is None:
         return units.value(layer.area, "mm²")
-    count, diameter = group
-    return f"{count} × {_bar_name(diameter, units)} ({units.value(layer.area, 'mm²')})"
+    runs = [(len(list(same)), diameter) for diameter, same in groupby(group)]
+    bars = " + ".join(f"{count} × {_bar_name(diameter, units)}" for count, diameter in runs)
+    return f"{bars} ({units.value(layer.area, 'mm²')})"
+
+
+def _outside_in(diameters: Sequence[float], xs: np.ndarray) -> list[tuple[float, float]]:
+    """Each bar's centre and diameter: the largest bars at the corners (the stirrup's
+    bends hold them), smaller ones between."""
+    order = sorted(range(len(xs)), key=lambda i: -abs(float(xs[i])))
+    placed = sorted(diameters, reverse=True)
+    return sorted((float(xs[i]), d) for i, d in zip(order, placed, strict=True))
 
 
 def _bar_name(diameter: float, units: Units) -> str:
@@ -289,7 +305,7 @@ def _bar_name(diameter: float, units: Units) -> str:
 
 
 def _draw_section(ax: Any, a: Assessment, arrays: Any, frame: _Frame, to_scale: bool,
-                  bar_groups: Sequence[tuple[int, float] | None] = (),
+                  bar_groups: Sequence[LayerBars] = (),
                   labels: Sequence[str] = ()) -> None:
     r = a.response
     assert r is not None
@@ -320,16 +336,16 @@ def _draw_section(ax: Any, a: Assessment, arrays: Any, frame: _Frame, to_scale: 
             xs = np.zeros(1)
             ax.plot(xs, [y], "s", color=STEEL, ms=6, gid="steel-layer")
         else:
-            count, diameter = group
+            diameter = max(group)
             edge = side_edge[float(layer.depth) < overall / 2]
-            xs = bar_positions(count, diameter, web, max(edge, diameter)) * s
-            for x in xs:
-                ax.add_patch(Circle((x, y), diameter / 2 * s, facecolor=STEEL,
+            xs = bar_positions(len(group), diameter, web, max(edge, diameter)) * s
+            for x, own in _outside_in(group, xs):
+                ax.add_patch(Circle((x, y), own / 2 * s, facecolor=STEEL,
                                     edgecolor="none", gid="bar"))
         label = labels[i] if i < len(labels) else _layer_label(layer, group, units)
         # from the outermost bar's edge, and never inside the web: a large bar or a bar
         # near the face put the label's first character on the bar or the web's edge
-        reach = float(xs.max()) + (group[1] / 2 * s if group is not None else 0.0)
+        reach = float(xs.max()) + (max(group) / 2 * s if group is not None else 0.0)
         ax.annotate(label, (max(reach, web / 2 * s), y), xytext=(LABEL_OFFSET, 0),
                     textcoords="offset points",
                     va="center", fontsize=SMALL)

@@ -280,13 +280,15 @@ BARS_EXPECTED = ("bars such as '4 x 25 mm', '3 #8', '2 N20 + 2 N16', '4 T16' or 
 @dataclass(frozen=True)
 class Bars:
     """A group of bars: total area (mm²), the text to show, the largest diameter (mm), and
-    the width the bars take side by side, touching (mm: the sum of count times diameter)."""
+    the width the bars take side by side, touching (mm: the sum of count times diameter),
+    and each bar's diameter in the order given (for drawing)."""
 
     area: float
     text: str
     largest_diameter: float
     count: int
     side_by_side: float = 0.0
+    diameters: tuple[float, ...] = ()
 
 
 _TERM = re.compile(
@@ -301,6 +303,7 @@ _TERM = re.compile(
 @lru_cache(maxsize=4096)
 def _bars(text: str, system: UnitSystem) -> Bars:
     total, count, largest, side_by_side = 0.0, 0, 0.0, 0.0
+    diameters: list[float] = []
     for term in text.split("+"):
         match = _TERM.match(term)
         if match is None or (match["length"] is not None and match["sep"] is None):
@@ -338,7 +341,8 @@ def _bars(text: str, system: UnitSystem) -> Bars:
         count += n
         largest = max(largest, diameter)
         side_by_side += n * diameter
-    return Bars(total, " ".join(text.split()), largest, count, side_by_side)
+        diameters += [diameter] * n
+    return Bars(total, " ".join(text.split()), largest, count, side_by_side, tuple(diameters))
 
 
 def read_bars(value: Any, system: UnitSystem = UnitSystem.SI) -> Bars:

@@ -494,6 +494,20 @@ def test_figures_option_draws_one_file_per_beam_and_edition(tmp_path, capsys):
     assert (folder / "RB-1_editions.png").read_bytes()[:8] == b"\x89PNG\r\n\x1a\n"
 
 
+def test_beams_whose_ids_clean_alike_keep_a_figure_each(tmp_path, capsys):
+    """"a/b" and "a_b" clean to one file name, "ß" and "é" to none: each beam still
+    gets its own figure, and a plain id keeps its plain name."""
+    ids = ["a/b", "a_b", "ß", "é"]
+    text = HEADER + "".join(RB1.replace('id = "RB-1"', f'id = "{i}"') % ("150 kN m", "100 kN m")
+                            for i in ids)
+    path = write(tmp_path, text)
+    folder = tmp_path / "figures"
+    assert main(["check", str(path), "--figures", str(folder), "--format", "json"]) == 0
+    names = sorted(p.name for p in folder.iterdir())
+    assert len(names) == len(ids) and "a_b_aci318-19.svg" in names
+    assert "4 figure(s) written" in capsys.readouterr().err
+
+
 # --- as installed -------------------------------------------------------------------------------
 
 def test_the_module_runs_as_a_program(tmp_path):

@@ -349,6 +349,23 @@ def test_a_us_beam_s_bars_are_labelled_by_their_designation():
     assert any(label.startswith("4 × #9 (4 in²)") for label in labels), labels
 
 
+def test_a_layer_of_two_sizes_is_labelled_and_drawn_as_given():
+    """2 x 25 mm + 2 x 20 mm: 2 x 490.9 + 2 x 314.2 = 1610 mm² (hand arithmetic); the label
+    names both sizes (it read "4 × 25 mm") and the two larger bars sit at the corners."""
+    text = SCHEDULE.split("[[beam]]")[1].replace(
+        'tension = [{ area = "2000 mm2", depth = "540 mm" }]',
+        'tension = [{ bars = "2 x 20 mm + 2 x 25 mm", depth = "540 mm" }]')
+    schedule = parse_schedule("[[beam]]" + text, "mixed.toml")
+    [outcome] = run(schedule, [default_registry().edition("aci318-19")], None, "persistent")
+    figure = figs.beam_figure(outcome.assessment, bar_groups=outcome.entry.bar_groups)
+    labels = [t.get_text() for t in figure.axes[0].texts]
+    assert any(label.startswith("2 × 20 mm + 2 × 25 mm (1610 mm²)") for label in labels), labels
+    bars = sorted((c for c in figure.axes[0].patches if c.get_gid() == "bar"),
+                  key=lambda c: c.center[0])
+    radii = [c.radius / bars[0].radius for c in bars]
+    assert radii == pytest.approx([1.0, 0.8, 0.8, 1.0])  # 25 mm outside, 20 mm between
+
+
 def test_labels_of_forty_close_layers_are_spread_apart_measuring_each_once(monkeypatch):
     """Forty layers 6 mm apart: every label ends clear of every other, and each is
     measured once (moving a label moves its box; measuring again after every move made a

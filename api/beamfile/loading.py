@@ -32,7 +32,7 @@ class BeamEntry:
     shown: dict[str, str]
     # per layer (tension, then compression): bar count and largest diameter (mm), or
     # None where the layer was given as an area; for drawing the bars
-    bar_groups: tuple[tuple[int, float] | None, ...] = ()
+    bar_groups: tuple[tuple[float, ...] | None, ...] = ()  # each bar's diameter, per layer
 
 
 @dataclass(frozen=True)

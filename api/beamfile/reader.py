@@ -89,7 +89,7 @@ class _BeamReader:
         self.design = design  # a design file may leave out the bars
         self.problems: list[tuple[str, str, str]] = []
         self.shown: dict[str, str] = {}
-        self.bar_groups: list[tuple[int, float] | None] = []  # per layer, for drawing
+        self.bar_groups: list[tuple[float, ...] | None] = []  # bar diameters per layer
         self.defaulted: list[str] = []  # fields whose plain number took the default unit
         self.geometry: tuple[tuple[float, str] | None, ...] = (None, None, None)  # bw, hf, bf
         self._bars: dict[str, Bars] = {}  # layers given by notation, by field
@@ -160,8 +160,7 @@ class _BeamReader:
                 read.append(Layer(area[0], depth[0]) if bars is None else Layer(
                     area[0], depth[0], bars.count, bars.largest_diameter, bars.side_by_side))
                 texts.append(f"{area[1]} {depth[1]}")
-                self.bar_groups.append(None if bars is None else
-                                       (bars.count, bars.largest_diameter))
+                self.bar_groups.append(None if bars is None else bars.diameters)
         self._texts[name] = texts
         if texts:
             self.shown[f"{name} steel"] = "; ".join(texts)
