@@ -675,9 +675,17 @@ def _run_batch(schedule: Schedule, editions: Sequence[Edition], form: str | None
     """The batch path: rows streamed to ``out`` (CSV, or JSON Lines for .jsonl), progress
     on a terminal for runs longer than a second, and a summary at the end."""
     from clausewise.outputs import rows_file, rows_kind
-    from clausewise.stream import LazyProgress, RowWriter, schedule_system, stream_schedule
+    from clausewise.stream import (
+        MIXED_UNITS,
+        LazyProgress,
+        RowWriter,
+        schedule_system,
+        stream_schedule,
+    )
 
     progress = LazyProgress(sys.stderr.isatty())
+    if out is not None and len({e.beam.unit_system for e in schedule.entries}) > 1:
+        _warn(MIXED_UNITS)
     try:
         if out is None:
             summary = stream_schedule(schedule, editions, form, situation, None, progress)

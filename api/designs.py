@@ -247,7 +247,9 @@ def design_report(schedule: Schedule, designs: Sequence[Design]) -> Group:
     if schedule.problems:
         parts.append(problems_table(schedule.problems))
     parts.append(Text("As req: the least tension steel that passes every check at the trial "
-                      "depth (top: compression steel); bars chosen: of the arrangements "
+                      "depth with the compression steel found beside it (top); bars chosen "
+                      "with more compression bars may need less tension steel than As req; "
+                      "bars chosen: of the arrangements "
                       f"that pass, within {PRACTICAL_MARGIN:.0%} of the lightest one's mass, "
                       "the fewest layers, then the fewest bars; +kg/m or +lb/ft: steel mass above "
                       "the lightest edition's; in the summary, +: compression steel needed too.",

@@ -51,7 +51,14 @@ from clausewise.beamfile import loading
 from clausewise.outputs import rows_file, rows_kind
 from clausewise.provisions import ClausewiseError, UnitSystem
 from clausewise.provisions.batch import cycle_collector_paused
-from clausewise.stream import LazyProgress, RowWriter, Summary, stream_beams, write_refused
+from clausewise.stream import (
+    MIXED_UNITS,
+    LazyProgress,
+    RowWriter,
+    Summary,
+    stream_beams,
+    write_refused,
+)
 
 if TYPE_CHECKING:
     from multiprocessing.connection import Connection
@@ -182,6 +189,8 @@ def run(tables: BeamTables, parts: Sequence[range], editions: Sequence[Edition],
         for warning in warnings:
             warn(warning)
         systems = set().union(*(r.systems for r in readings))
+        if len(systems) > 1 and out is not None:
+            warn(MIXED_UNITS)
         system = systems.pop() if len(systems) == 1 else UnitSystem.SI
         for worker in workers:
             worker.conn.send(system)

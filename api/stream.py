@@ -36,6 +36,9 @@ if TYPE_CHECKING:
 REFUSED = "refused"
 
 
+MIXED_UNITS = "the file mixes SI and US customary beams; the rows are in SI (one unit per column)"
+
+
 def schedule_system(schedule: Schedule) -> UnitSystem:
     """The unit system of the rows: the beams' own when they share one, else SI."""
     systems = {entry.beam.unit_system for entry in schedule.entries}

@@ -169,7 +169,8 @@ def test_a_shard_of_us_beams_in_a_mixed_file_writes_the_file_s_si_rows(tmp_path,
     assert sharded[0] is not None
     one = batch(schedule, tmp_path / "one", capsys, "--workers", "1")
     assert_same(three, one)
-    assert "M_Rd_kNm" in three.rows[0]  # a mixed file's rows are in SI
+    assert "M_Rd_kNm" in three.rows[0]  # a mixed file's rows are in SI, and it is said
+    assert "mixes SI and US customary beams; the rows are in SI" in one.err
 
 
 # a [run] table that only a whole reading sees: its edition is the run's (none is named)
