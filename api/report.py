@@ -32,7 +32,7 @@ from clausewise.provisions.engine import CAUTION, FAIL, PASS, Assessment
 from clausewise.provisions.hookspecs import HOOKS, TOPICS
 from clausewise.provisions.registry import TopicAnswer
 from clausewise.provisions.verdicts import CAPACITY_ONLY, ERROR, Status
-from clausewise.provisions.vocabulary import Check, Clause, Envelope, Factor, Sense
+from clausewise.provisions.vocabulary import Bound, Check, Clause, Envelope, Factor, Sense
 from clausewise.provisions.widths import OverhangEnvelope
 from clausewise.results import Outcome, Units, convert, number, utilisation_text
 from clausewise.results.display import in_notation, input_label
@@ -989,9 +989,16 @@ def factors_table(factors: Sequence[Factor], units: Units) -> Table:
     return table
 
 
+def away(envelope: Envelope) -> str:
+    """The sign of a candidate's distance from the governing one: + above the smallest,
+    − below the largest."""
+    return "+" if envelope.bound is Bound.SMALLEST else "\u2212"
+
+
 def envelope_table(envelope: Envelope, units: Units) -> Table:
-    """Every candidate, the governing one marked, the others with how far they exceed it."""
-    table = _plain_table("candidate", "value", "beyond the governing", "clause", "supplied by")
+    """Every candidate, the governing one marked, the others with how far they lie from it:
+    above it (+) where the smallest governs, below it (−) where the largest does."""
+    table = _plain_table("candidate", "value", "from the governing", "clause", "supplied by")
     for i, c in enumerate(envelope.candidates):
         governs = i == envelope.governing
         label = Text(("▶ " if governs else "  ") + c.label, style="bold" if governs else "")
@@ -1001,7 +1008,7 @@ def envelope_table(envelope: Envelope, units: Units) -> Table:
             table, label,
             units.value(c.value, envelope.unit),
             Text("governs", style="bold green") if governs else
-            "+" + units.value(envelope.excess(c), envelope.unit),
+            away(envelope) + units.value(envelope.excess(c), envelope.unit),
             two_lines(c.clause.ref, c.clause.title), c.clause.edition)
     return table
 

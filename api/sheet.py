@@ -27,6 +27,7 @@ from clausewise.report import (
     STATUS_MARK,
     _cell,
     _where,
+    away,
     governing_codes,
     same_cylinder,
 )
@@ -139,10 +140,10 @@ def _envelope(envelope: Envelope, units: Units) -> str:
         label = ("▶ " if governs else "") + _e(c.label)
         rows.append((f"<b>{label}</b>" if governs else label,
                      _e(units.value(c.value, envelope.unit)),
-                     "governs" if governs else _e("+" + units.value(envelope.excess(c),
-                                                                    envelope.unit)),
+                     "governs" if governs else _e(away(envelope) + units.value(
+                         envelope.excess(c), envelope.unit)),
                      _clause(c.clause.ref, c.clause.title), _edition(c.clause.edition)))
-    return _table(("candidate", "value", "beyond the governing", "clause", "supplied by"),
+    return _table(("candidate", "value", "from the governing", "clause", "supplied by"),
                   rows, numeric=(1, 2))
 
 

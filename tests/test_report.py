@@ -307,3 +307,24 @@ def test_two_checks_whose_names_give_one_code_get_distinct_codes_in_cells_and_le
     text = render(comparison_report(schedule, renamed, ["aci318-19"]), 120)
     assert "bit bars in tension layer 1" in text and "bit2 bars in tension layer 2" in text
     assert re.search(r"\d\.\d\d[✓✗○]bit\b", text) and re.search(r"\d\.\d\d[✓✗○]bit2\b", text)
+
+
+def test_an_envelope_says_which_way_each_candidate_lies_from_the_governing_one():
+    """Where the smallest governs the others lie above it (+); where the largest governs
+    (the factored moment) they lie below it (−): 1.4D = 210 sits 146 under 1.2D + 1.6L =
+    356 (hand arithmetic), and read "+146" before."""
+    from clausewise.provisions import Candidate, Clause, Envelope
+    from clausewise.report import envelope_table
+    from clausewise.results import Units
+
+    clause = Clause("5.3.1", "load combinations", "aci318-19")
+    moment = Envelope.largest("factored moment", "M_Ed", [
+        Candidate("1.4D", 210e6, clause), Candidate("1.2D + 1.6L", 356e6, clause)], "N·mm")
+    width = Envelope.smallest("effective flange width", "b_eff", [
+        Candidate("8hf", 1260.0, clause), Candidate("sw/2", 1100.0, clause)], "mm")
+    console = Console(width=120, record=True)
+    for envelope in (moment, width):
+        console.print(envelope_table(envelope, Units(UnitSystem.SI)))
+    text = console.export_text()
+    assert "\u2212146" in text and "+146" not in text
+    assert "+160" in text
