@@ -1232,12 +1232,18 @@ def parameters_report(edition: Edition, form: str) -> Group:
 def batch_summary(schedule: Schedule, summary: BatchSummary, out: Path | None,
                   situation: str = "persistent") -> Group:
     """Counts by status per edition and the worst beams, after a batch run."""
-    statuses = (*Status, "refused")
+    every = (*Status, "refused")
+    # a status no beam has under any edition is named below the table, not given a
+    # column of dots: eight columns of headings did not fit 80 columns uncut
+    statuses = [s for s in every if s in (PASS, FAIL) or any(
+        tally.get(s) for tally in summary.counts.values())]
+    none = [s for s in every if s not in statuses]
     counts = Table(title="beams by status, per edition", title_justify="left",
                    title_style="bold", box=box.SIMPLE_HEAD, pad_edge=False)
     counts.add_column("edition", no_wrap=True)
-    for status in statuses:
-        counts.add_column(status, justify="right")
+    for status in statuses:  # a heading may wrap at its space, never be cut in a word
+        counts.add_column(status, justify="right",
+                          min_width=max(len(word) for word in status.split()))
     for edition, tally in summary.counts.items():
         counts.add_row(edition, *(f"{tally.get(s, 0):,}" if tally.get(s) else "·"
                                   for s in statuses))
@@ -1257,5 +1263,8 @@ def batch_summary(schedule: Schedule, summary: BatchSummary, out: Path | None,
                                           list(summary.counts))]
     if schedule.problems:  # input problems come first, as in every report
         parts.append(problems_table(schedule.problems))
-    parts += [counts, worst, written, caution()]
+    parts.append(counts)
+    if none:
+        parts.append(Text(f"none under any edition: {', '.join(none)}\n", style="dim"))
+    parts += [worst, written, caution()]
     return Group(*parts)

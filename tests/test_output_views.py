@@ -343,3 +343,21 @@ def test_a_misspelt_field_does_not_hide_the_beam_s_other_problems():
     problems = [(p.beam, p.field) for p in parse_schedule(text, "hall.toml").problems]
     assert problems == [("SH-2", "web_widht"), ("SH-2", "web_width"),
                         ("SH-2", "yield_strength")]
+
+
+@pytest.mark.parametrize("width", WIDTHS)
+def test_the_batch_summary_cuts_no_status_heading(schedule, width):
+    """Eight status columns did not fit 80 columns ("outsi… scope", "no equil…"): a status
+    no beam has is named once below the counts instead, and the others keep whole words."""
+    from collections import Counter
+
+    from clausewise.report import batch_summary
+    from clausewise.stream import Summary
+
+    summary = Summary()
+    summary.counts = {"tarnwick-beams:2025": Counter({"pass": 1200, "no equilibrium": 3}),
+                      "en1992-1-1:2004": Counter({"pass": 1150, "fail": 53})}
+    text = render(batch_summary(schedule, summary, None), width)
+    readable(text, width)
+    assert "equilibrium" in text and "none under any edition: outside scope, capacity only, " \
+        "error, refused" in words(text)
