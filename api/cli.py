@@ -834,7 +834,7 @@ def _design_parser(commands: Any) -> None:
 
 
 def _designs(args: argparse.Namespace, audit: bool, at_given_depth: bool = False
-             ) -> tuple[Schedule, list[Any]]:
+             ) -> tuple[Schedule, list[Any], str]:
     """Every beam of the file designed under the chosen editions (bars may be left out);
     ``at_given_depth``: the required areas at the depth of the file's steel."""
     from clausewise.beamfile import load_schedule
@@ -851,7 +851,7 @@ def _designs(args: argparse.Namespace, audit: bool, at_given_depth: bool = False
     editions = _editions(registry, args.edition or list(schedule.project.editions)
                          or registry.ids())
     return schedule, design_schedule(schedule, editions, form, situation, audit=audit,
-                                     at_given_depth=at_given_depth)
+                                     at_given_depth=at_given_depth), situation
 
 
 def _publish_designs(args: argparse.Namespace, schedule: Schedule, designs: list[Any],
@@ -871,8 +871,9 @@ def design_command(args: argparse.Namespace) -> int:
     """Design every beam of a file (bars may be left out) under every edition."""
     from clausewise.designs import design_report
 
-    schedule, designs = _designs(args, audit=bool(args.figures))
-    status = _publish_designs(args, schedule, designs, design_report(schedule, designs))
+    schedule, designs, situation = _designs(args, audit=bool(args.figures))
+    status = _publish_designs(args, schedule, designs,
+                              design_report(schedule, designs, situation))
     if args.figures:
         _design_figures(args.figures, schedule, designs, args.figure_format)
     return status
@@ -882,9 +883,9 @@ def _steel_comparison(args: argparse.Namespace) -> int:
     """compare --steel: the required tension steel of every beam under every edition."""
     from clausewise.designs import steel_comparison_report
 
-    schedule, designs = _designs(args, audit=False, at_given_depth=True)
+    schedule, designs, situation = _designs(args, audit=False, at_given_depth=True)
     return _publish_designs(args, schedule, designs,
-                            steel_comparison_report(schedule, designs))
+                            steel_comparison_report(schedule, designs, situation))
 
 
 def _design_figures(folder: Path, schedule: Schedule, designs: Sequence[Any],

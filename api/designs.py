@@ -186,7 +186,12 @@ def _ref(clause: str) -> str:
     return clause.split(" ", 1)[-1] if clause else ""
 
 
-def design_report(schedule: Schedule, designs: Sequence[Design]) -> Group:
+def _editions_of(designs: Sequence[Design]) -> list[str]:
+    return list(dict.fromkeys(d.edition_id for d in designs))
+
+
+def design_report(schedule: Schedule, designs: Sequence[Design],
+                  situation: str = "persistent") -> Group:
     """Per beam, one row per edition: required steel, chosen bars, provided steel,
     utilisation, mass and the excess over the lightest edition; then what set the
     required area and what governs the bars. Readable at 80 columns."""
@@ -200,7 +205,7 @@ def design_report(schedule: Schedule, designs: Sequence[Design]) -> Group:
 
     entries = {e.beam.id: e for e in schedule.entries}
     lightest = _lightest(designs)
-    parts: list[Any] = [header(schedule, "design")]
+    parts: list[Any] = [header(schedule, "design", situation, _editions_of(designs))]
 
     def table(*columns: tuple[str, str, bool]) -> Table:
         t = Table(box=box.SIMPLE_HEAD, pad_edge=False, collapse_padding=True,
@@ -335,7 +340,8 @@ def design_figure(d: Design, beam: Any) -> Any:
     return figure
 
 
-def steel_comparison_report(schedule: Schedule, designs: Sequence[Design]) -> Group:
+def steel_comparison_report(schedule: Schedule, designs: Sequence[Design],
+                            situation: str = "persistent") -> Group:
     """``compare --steel``: every beam against every edition, the tension steel each
     requires beside the steel the file gives, and what set it where it is not strength."""
     from rich.console import Group
@@ -344,7 +350,8 @@ def steel_comparison_report(schedule: Schedule, designs: Sequence[Design]) -> Gr
     from clausewise.report import NumbersKept, caution, header, problems_table
 
     entries = {e.beam.id: e for e in schedule.entries}
-    parts: list[Any] = [header(schedule, "required steel compared")]
+    parts: list[Any] = [header(schedule, "required steel compared", situation,
+                               _editions_of(designs))]
     parts += _steel_by_edition(designs, entries, alone=True)
     set_by = sorted({(d.edition_id, d.set_by) for d in designs
                      if d.set_by and d.set_by != "flexural strength"})

@@ -432,3 +432,13 @@ def test_a_shallow_beam_gets_compression_steel_not_told_to_grow(edition):
     assert result.status == COMPRESSION and result.compression_area > 0
     assert result.arrangement is not None
     assert assess(with_bars(beam, result.arrangement), edition).passed  # re-checked
+
+
+def test_the_design_and_steel_reports_state_the_situation_and_the_editions(capsys):
+    """Every report's head names the design situation and the editions (the design and
+    compare --steel heads left both out)."""
+    for argv in (["design", str(DEMO)], ["compare", str(DEMO), "--steel"]):
+        main([*argv, "--edition", "aci318-19", "--edition", "en1992-1-1:2004"])
+        head = " ".join(capsys.readouterr().out.split()[:80])
+        assert "design situation persistent" in head, argv
+        assert "editions aci318-19, en1992-1-1:2004" in head, argv
