@@ -62,6 +62,7 @@ from clausewise.provisions.engine import (
     PASS,
     Assessment,
     assess,
+    check_situation,
     evaluate,
     resolve_form,
 )
@@ -708,6 +709,7 @@ def _design_members(edition: Edition, beams: list[Beam], form: str | None, situa
         chosen, _ = resolve_form(edition, group_beams[0], form)
         group = _Group(edition, group_beams, stack_beams(group_beams),
                        Context(form=chosen, situation=situation), form, given)
+        _ready(group)
         designs = _design_group(group, audit)
         if not group_beams[0].actions.given:  # the same for the whole group
             designs = [replace(d, message=NO_MOMENTS) if d.arrangement is not None else d
@@ -718,6 +720,16 @@ def _design_members(edition: Edition, beams: list[Beam], form: str | None, situa
             return [Design(beams[0].id, edition.id, "error",
                            message=f"{type(exc).__name__}: {exc}")]
         return None
+
+
+def _ready(group: _Group) -> None:
+    """Raise here, once, what would fail every trial of the search: a design situation the
+    edition does not distinguish, or actions it cannot factor (EN 1992-1-1's accidental
+    situation needs the factored moment). Each trial's error was taken for a failing
+    area: the beam was told to grow, after a search of every area row by row."""
+    check_situation(group.edition, group.context.situation)
+    params = group.edition.parameters(group.context)
+    group.edition.design_actions(group.batch, params, group.context)
 
 
 def design(beam: Beam, edition: str | Edition, **options: Any) -> Design:

@@ -442,3 +442,18 @@ def test_the_design_and_steel_reports_state_the_situation_and_the_editions(capsy
         head = " ".join(capsys.readouterr().out.split()[:80])
         assert "design situation persistent" in head, argv
         assert "editions aci318-19, en1992-1-1:2004" in head, argv
+
+
+def test_a_situation_the_edition_cannot_assess_is_an_error_not_a_beam_to_grow():
+    """ACI 318-19 has no accidental situation of its own, and EN 1992-1-1's accidental
+    combination needs the factored moment (EN 1990 6.11, from memory): every trial of the
+    search failed for that reason, and the beam was told the section must grow."""
+    from clausewise.beamfile import load_schedule
+    from clausewise.provisions.design import design_many
+
+    beams = [e.beam for e in load_schedule(DEMO, design=True).entries[:3]]
+    for edition, says in (("aci318-19", "no accidental design situation"),
+                          ("en1992-1-1:2004", "moments.factored")):
+        for d in design_many(beams, edition, situation="accidental"):
+            assert d.status == "error" and says in d.message, (edition, d.message)
+            assert "must grow" not in d.message
