@@ -107,20 +107,22 @@ def _row(table: Table, *cells: RenderableType) -> None:
 # a space after a number (or a limit's sign) that a unit, symbol or further digits follow,
 # or inside a count of bars ("271.2 kN·m", "0.85 l", "≤ 20 018 mm²", "5 x 12 mm"): a
 # line is never broken there
-_NUMBER_SPACE = re.compile(r"(?<=[\d≤≥]) (?=[^\s=≤≥<>+×(),;:])|(?<= [x×]) (?=\d)")
+_NUMBER_SPACE = re.compile(r"(?<=[\d≤≥]) (?=[^\s=≤≥<>+×(),;:\[])|(?<= [x×]) (?=\d)")
+_CITED = re.compile(r"[\[(][^\s\[\]()]+( )[^\s\[\]()]+[\])]")  # "[en1992-1-1:2004 6.1]"
 
 
 class NumbersKept:
     """Text that wraps at its spaces except after a number, so a number stays on the line
     of its unit or symbol: "271.2 kN·m", never "271.2 / kN·m" (rich breaks at every
-    space, a no-break space included)."""
+    space, a no-break space included); a cited "[edition clause]" stays whole too."""
 
     def __init__(self, text: Text | str) -> None:
         self.text = Text(text) if isinstance(text, str) else text
 
     @staticmethod
     def _breaks(plain: str) -> list[int]:
-        kept = {m.start() for m in _NUMBER_SPACE.finditer(plain)}
+        kept = {m.start() for m in _NUMBER_SPACE.finditer(plain)} | {
+            m.start(1) for m in _CITED.finditer(plain)}
         return [i for i, ch in enumerate(plain) if ch == " " and i not in kept]
 
     @classmethod
@@ -382,7 +384,7 @@ def beam_panel(outcome: Outcome) -> Group:
                                          "checks" if a.checks else "scope",
                                          notation=outcome.notation)]
     parts += [Text(f"note: {remark}", style="dim") for remark in a.remarks]
-    parts.append(_verdict(outcome))
+    parts.append(NumbersKept(_verdict(outcome)))
     upper = _upper_layers_line(a)
     if upper:
         parts.append(Text(upper, style="dim"))
@@ -413,7 +415,7 @@ def summary_table(outcomes: Sequence[Outcome]) -> RenderableType:
             a = o.assessment
             governing: RenderableType = Text(o.error, style="magenta")
             if check is not None and a is not None:
-                governing = Text(f"{check.name} [{_where(check.clause, o.edition)}]")
+                governing = NumbersKept(f"{check.name} [{_where(check.clause, o.edition)}]")
             _row(table, o.entry.beam.id, o.edition, _status(o.status),
                  utilisation_text(check.utilisation) if check else "", governing)
         return table
@@ -712,10 +714,13 @@ def details_tables(outcomes: Sequence[Outcome]) -> list[RenderableType]:
                  moment(a.design_resistance.value if a.design_resistance else None,
                         n.resistance),
                  moment(a.demand.value if a.demand else None, n.demand),
-                 f"{check.name} [{_where(check.clause, edition)}]" if check else a.summary())
+                 NumbersKept(f"{check.name} [{_where(check.clause, edition)}]" if check
+                             else a.summary()))
         governing = table.columns[-1]  # its words kept whole: "[en1992-1-1:2004", not cut
         governing.min_width = min(LONGEST_KEPT_WORD, max(
-            (len(word) for cell in governing.cells for word in str(cell).split()), default=1))
+            (len(word) for cell in governing.cells for word in NumbersKept.words(
+                cell.text.plain if isinstance(cell, NumbersKept) else str(cell))),
+            default=1))
         parts.append(table)
     return parts
 

@@ -361,3 +361,16 @@ def test_the_batch_summary_cuts_no_status_heading(schedule, width):
     readable(text, width)
     assert "equilibrium" in text and "none under any edition: outside scope, capacity only, " \
         "error, refused" in words(text)
+
+
+def test_a_cited_clause_stays_with_its_edition_in_verdicts_and_governing_cells(schedule,
+                                                                               everything):
+    """"(as3600:2018 2.2.2)" and "[en1992-1-1:2004 6.1]" were broken between the id and
+    the clause, at 80 columns in the verdict line and at 120 in compare's details."""
+    checked = render(check_report(schedule, of(everything, "as3600:2018")), 80)
+    ids = list(dict.fromkeys(o.edition for o in everything))
+    compared = render(comparison_report(schedule, everything, ids, details=True), 120)
+    for text in (checked, compared):
+        for line in text.splitlines():
+            assert not re.search(r"[(\[][a-z0-9.-]+:\d+\s*$", line), line  # an id, cut off
+    assert "(as3600:2018 2.2.2)" in checked
