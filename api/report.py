@@ -234,6 +234,13 @@ def _inputs_table(outcome: Outcome, pairs: int = 1) -> RenderableType:
 def _findings_table(outcome: Outcome, a: Assessment, units: Units) -> Table:
     n = outcome.notation
     table = _facts()
+    used = a.concrete_factors[0] if a.concrete_factors else None
+    if used is not None and used.unit == "MPa" and not math.isclose(
+            float(used.value), float(a.beam.concrete_strength), rel_tol=1e-9):
+        # given on the other basis (cube for cylinder, or the other way round): the
+        # strength the edition works with, and how it was found, stated with the results
+        _fact(table, "concrete strength used",
+              f"{used.symbol} = {units.value(used.value, 'MPa')}, {used.basis}")
     if a.effective_width is not None:
         e = a.effective_width
         g = e.governing_candidate

@@ -374,3 +374,16 @@ def test_a_cited_clause_stays_with_its_edition_in_verdicts_and_governing_cells(s
         for line in text.splitlines():
             assert not re.search(r"[(\[][a-z0-9.-]+:\d+\s*$", line), line  # an id, cut off
     assert "(as3600:2018 2.2.2)" in checked
+
+
+def test_a_beam_given_by_cube_strength_shows_the_cylinder_strength_used(tmp_path, capsys):
+    """ACI 318 works in f'c: a beam given as fck,cube 40 MPa is checked with f'c = 0.8 x 40
+    = 32 MPa (the common-practice ratio, a named parameter); the report says so beside the
+    results, not only in explain."""
+    text = SCHEDULE.replace('concrete_strength = "32 MPa"',
+                            'concrete_strength = "40 MPa"\nstrength_basis = "cube"', 1)
+    path = tmp_path / "cube.toml"
+    path.write_text(text, encoding="utf-8")
+    main(["check", str(path), "--edition", "aci318-19", "--details"])
+    out = words(capsys.readouterr().out)
+    assert "concrete strength used f'c = 32 MPa, from cube strength 40 MPa" in out
