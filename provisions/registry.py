@@ -173,7 +173,13 @@ class Registry:
     def _build(self, edition_id: str) -> Edition:
         by_id = self._by_id()
         if edition_id not in by_id:
-            known = ", ".join(sorted(by_id)) or "none installed"
+            failed = next((r for r in self.broken if r.name == edition_id), None)
+            if failed is not None and edition_id in plugin_names():
+                raise EditionError(f"edition {edition_id!r} is installed but its plugin is "
+                                   f"broken: {failed.error}")
+            # a registry that loaded only some plugins still names every installed one
+            installed = by_id.keys() if self.only is None else plugin_names()
+            known = ", ".join(sorted(installed)) or "none installed"
             broken = [r.name for r in self.broken]
             hint = f"; broken plugins: {', '.join(broken)}" if broken else ""
             raise EditionError(f"unknown edition {edition_id!r} (known: {known}{hint})")

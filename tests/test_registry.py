@@ -345,3 +345,17 @@ def test_a_form_choice_applies_to_editions_that_publish_it():
     assert resolve_form(registry.edition("aci318-19"), beam, "inch-pound")[0] == "inch-pound"
     form, basis = resolve_form(registry.edition("en1992-1-1:2004"), beam, "inch-pound")
     assert form == "SI" and "only form" in basis
+
+
+def test_an_unknown_edition_names_every_installed_one_when_only_some_were_loaded():
+    """A run that names its editions loads only their plugins; a wrong name must still be
+    told what is installed (it read "known: none installed" beside 18 editions)."""
+    from clausewise.provisions import EditionError, Registry
+
+    registry = Registry(only=frozenset({"aci318-19"}))
+    registry.load_entry_points()
+    with pytest.raises(EditionError) as caught:
+        registry.edition("aci318-91")
+    message = str(caught.value)
+    assert "none installed" not in message
+    assert "en1992-1-1:2004" in message and "is456:2000" in message
