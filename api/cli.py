@@ -609,8 +609,9 @@ def _publish(args: argparse.Namespace, schedule: Schedule, outcomes: Sequence[Ou
 def _units(args: argparse.Namespace, kind: str, schedule: Schedule) -> str:
     """The unit system of machine-readable results: as asked, but SI in a CSV of a file
     that mixes SI and US customary beams (one unit per column), said on stderr."""
-    if kind == "csv" and args.units == "beam" and len(
-            {e.beam.unit_system for e in schedule.entries}) > 1:
+    from clausewise.stream import mixes_systems
+
+    if kind == "csv" and args.units == "beam" and mixes_systems(schedule):
         print(f"{PROGRAM}: the file mixes SI and US customary beams; the CSV is in SI "
               "(one unit per column)", file=sys.stderr)
         return "SI"
@@ -679,12 +680,13 @@ def _run_batch(schedule: Schedule, editions: Sequence[Edition], form: str | None
         MIXED_UNITS,
         LazyProgress,
         RowWriter,
+        mixes_systems,
         schedule_system,
         stream_schedule,
     )
 
     progress = LazyProgress(sys.stderr.isatty())
-    if out is not None and len({e.beam.unit_system for e in schedule.entries}) > 1:
+    if out is not None and mixes_systems(schedule):
         _warn(MIXED_UNITS)
     try:
         if out is None:

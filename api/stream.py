@@ -39,10 +39,16 @@ REFUSED = "refused"
 MIXED_UNITS = "the file mixes SI and US customary beams; the rows are in SI (one unit per column)"
 
 
+def mixes_systems(schedule: Schedule) -> bool:
+    """The file holds both SI and US customary beams (its rows are then in SI)."""
+    return len({entry.beam.unit_system for entry in schedule.entries}) > 1
+
+
 def schedule_system(schedule: Schedule) -> UnitSystem:
     """The unit system of the rows: the beams' own when they share one, else SI."""
-    systems = {entry.beam.unit_system for entry in schedule.entries}
-    return systems.pop() if len(systems) == 1 else UnitSystem.SI
+    if mixes_systems(schedule) or not schedule.entries:
+        return UnitSystem.SI
+    return schedule.entries[0].beam.unit_system
 
 
 @dataclass

@@ -337,30 +337,30 @@ def test_a_stacked_figure_puts_the_section_above_and_prints_near_its_own_size(ou
     assert flange.get_width() == pytest.approx(300 + 2 * 6000 / 8)  # the same section drawn
 
 
+def _section_of(beam: int, given: str, bars: str):
+    """The section panel and its texts for one beam of SCHEDULE with its tension steel
+    ``given`` as an area replaced by ``bars``, under ACI 318-19."""
+    text = SCHEDULE.split("[[beam]]")[beam].replace(given, bars)
+    schedule = parse_schedule("[[beam]]" + text, "bars.toml")
+    [outcome] = run(schedule, [default_registry().edition("aci318-19")], None, "persistent")
+    panel = figs.beam_figure(outcome.assessment, bar_groups=outcome.entry.bar_groups).axes[0]
+    return panel, [t.get_text() for t in panel.texts]
+
+
 def test_a_us_beam_s_bars_are_labelled_by_their_designation():
     """4 #9 bars (ASTM A615 #9: 1.128 in, 1.00 in², from memory) are labelled as the file
     gives them, not by their diameter."""
-    text = SCHEDULE.split("[[beam]]")[2].replace('tension = [{ area = "2.37 in2"',
-                                                   'tension = [{ bars = "4 #9"')
-    schedule = parse_schedule("[[beam]]" + text, "us.toml")
-    [outcome] = run(schedule, [default_registry().edition("aci318-19")], None, "persistent")
-    figure = figs.beam_figure(outcome.assessment, bar_groups=outcome.entry.bar_groups)
-    labels = [t.get_text() for t in figure.axes[0].texts]
+    _, labels = _section_of(2, 'tension = [{ area = "2.37 in2"', 'tension = [{ bars = "4 #9"')
     assert any(label.startswith("4 × #9 (4 in²)") for label in labels), labels
 
 
 def test_a_layer_of_two_sizes_is_labelled_and_drawn_as_given():
     """2 x 25 mm + 2 x 20 mm: 2 x 490.9 + 2 x 314.2 = 1610 mm² (hand arithmetic); the label
     names both sizes (it read "4 × 25 mm") and the two larger bars sit at the corners."""
-    text = SCHEDULE.split("[[beam]]")[1].replace(
-        'tension = [{ area = "2000 mm2", depth = "540 mm" }]',
-        'tension = [{ bars = "2 x 20 mm + 2 x 25 mm", depth = "540 mm" }]')
-    schedule = parse_schedule("[[beam]]" + text, "mixed.toml")
-    [outcome] = run(schedule, [default_registry().edition("aci318-19")], None, "persistent")
-    figure = figs.beam_figure(outcome.assessment, bar_groups=outcome.entry.bar_groups)
-    labels = [t.get_text() for t in figure.axes[0].texts]
+    panel, labels = _section_of(1, 'tension = [{ area = "2000 mm2", depth = "540 mm" }]',
+                                'tension = [{ bars = "2 x 20 mm + 2 x 25 mm", depth = "540 mm" }]')
     assert any(label.startswith("2 × 20 mm + 2 × 25 mm (1610 mm²)") for label in labels), labels
-    bars = sorted((c for c in figure.axes[0].patches if c.get_gid() == "bar"),
+    bars = sorted((c for c in panel.patches if c.get_gid() == "bar"),
                   key=lambda c: c.center[0])
     radii = [c.radius / bars[0].radius for c in bars]
     assert radii == pytest.approx([1.0, 0.8, 0.8, 1.0])  # 25 mm outside, 20 mm between

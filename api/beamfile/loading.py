@@ -30,9 +30,9 @@ class BeamEntry:
 
     beam: Beam
     shown: dict[str, str]
-    # per layer (tension, then compression): bar count and largest diameter (mm), or
-    # None where the layer was given as an area; for drawing the bars
-    bar_groups: tuple[tuple[float, ...] | None, ...] = ()  # each bar's diameter, per layer
+    # per layer (tension, then compression): each bar's diameter (mm) in the order given,
+    # or None where the layer was given as an area; for drawing the bars
+    bar_groups: tuple[tuple[float, ...] | None, ...] = ()
 
 
 @dataclass(frozen=True)
