@@ -491,10 +491,21 @@ def _beam_stem(beam_id: str) -> str:
     return f"{stem}-{hashlib.sha1(beam_id.encode('utf-8')).hexdigest()[:6]}"
 
 
+def _make_folder(folder: Path) -> None:
+    """The --figures folder, made where missing; a failure said of the option."""
+    from clausewise.outputs import OutputError
+
+    try:
+        folder.mkdir(parents=True, exist_ok=True)
+    except OSError as exc:
+        raise OutputError(f"--figures {folder}: cannot make the folder: "
+                          f"{exc.strerror or exc}") from None
+
+
 def _beam_figures(folder: Path, outcomes: Sequence[Outcome], kind: str) -> None:
     from clausewise import figures
 
-    folder.mkdir(parents=True, exist_ok=True)
+    _make_folder(folder)
     written = 0
     for o in outcomes:
         a = o.assessment
@@ -511,7 +522,7 @@ def _beam_figures(folder: Path, outcomes: Sequence[Outcome], kind: str) -> None:
 def _comparison_figures(folder: Path, outcomes: Sequence[Outcome], kind: str) -> None:
     from clausewise import figures
 
-    folder.mkdir(parents=True, exist_ok=True)
+    _make_folder(folder)
     by_beam: dict[str, list[Outcome]] = {}
     for o in outcomes:
         by_beam.setdefault(o.entry.beam.id, []).append(o)
@@ -895,7 +906,7 @@ def _design_figures(folder: Path, schedule: Schedule, designs: Sequence[Any],
     from clausewise import figures
     from clausewise.designs import design_figure
 
-    folder.mkdir(parents=True, exist_ok=True)
+    _make_folder(folder)
     beams = {e.beam.id: e.beam for e in schedule.entries}
     written = 0
     for d in designs:
@@ -923,7 +934,7 @@ def main(argv: Sequence[str] | None = None) -> int:
     try:
         return int(args.handler(args))
     except (ClausewiseError, OSError, ValueError) as exc:
-        print(f"{PROGRAM}: error: {exc}", file=sys.stderr)
+        print(f"{PROGRAM}: error: {_in_words(exc)}", file=sys.stderr)
         return 2
     except KeyboardInterrupt as exc:
         return 128 + getattr(exc, "signal", 2)  # 130 for Ctrl-C, 143 for SIGTERM
@@ -934,6 +945,14 @@ def main(argv: Sequence[str] | None = None) -> int:
         gc.unfreeze()  # what the command set aside from the collector (the loaded beams)
         for number, handler in handlers.items():
             signal.signal(number, handler)
+
+
+def _in_words(exc: Exception) -> str:
+    """An error as the user reads it: an operating system's names its file, without its
+    number ("[Errno 28] ...")."""
+    if isinstance(exc, OSError) and not isinstance(exc, ClausewiseError) and exc.strerror:
+        return f"{exc.filename}: {exc.strerror}" if exc.filename else exc.strerror
+    return str(exc)
 
 
 class Stopped(KeyboardInterrupt):

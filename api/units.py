@@ -30,9 +30,24 @@ class QuantityError(ClausewiseError, ValueError):
     """
 
     def __init__(self, value: str, expected: str, detail: str = "") -> None:
+        value = shortened(value, ECHOED)
         super().__init__(f"expected {expected}, got {value!r}" + (f": {detail}" if detail else ""))
         self.value = value
         self.expected = f"{expected}; {detail}" if detail else expected
+
+
+ECHOED = 80
+"""Characters of a value as written that an error shows back."""
+LONGEST_UNIT = 40
+"""Characters after the number beyond which the text is not looked up as a unit."""
+
+
+def shortened(text: str, limit: int) -> str:
+    """``text`` cut to ``limit`` characters, saying how long it was: a hostile file's
+    megabyte of text is not echoed."""
+    if len(text) <= limit:
+        return text
+    return f"{text[:limit - 30]}… ({len(text):_} characters)".replace("_", " ")
 
 
 @dataclass(frozen=True, eq=False)  # compared and hashed by identity: cheap cache keys
@@ -171,11 +186,11 @@ def read_quantity(value: Any, kind: Kind, system: UnitSystem = UnitSystem.SI,
     if isinstance(value, str):
         return _read_text(str(value), kind, us, sign)
     if not isinstance(value, int | float) or isinstance(value, bool):
-        raise QuantityError(str(value)[:80], kind.expected)
+        raise QuantityError(str(value), kind.expected)
     try:
         number = float(value)
     except OverflowError:  # an integer beyond any float
-        raise QuantityError(str(value)[:80], f"a finite {kind.name} (e.g. {kind.examples})"
+        raise QuantityError(str(value), f"a finite {kind.name} (e.g. {kind.examples})"
                             ) from None
     factor, suffix = _default_unit(kind, us)
     return _signed(number * factor, f"{_number_text(value)}{suffix}", kind, sign)
@@ -206,6 +221,9 @@ def _read_text(value: str, kind: Kind, us: bool, sign: str) -> tuple[float, str]
         factor, suffix = _default_unit(kind, us)
         return _signed(number * factor, f"{number_text}{suffix}", kind, sign)
     shown = " ".join(value.split())
+    if len(unit_text) > LONGEST_UNIT:
+        raise QuantityError(shown, kind.expected, f"the {len(unit_text):_} characters after "
+                            "the number are not a unit".replace("_", " "))
     info = unit_info(unit_text)
     if info.kind != kind.name:
         why = _wrong_unit(unit_text, info)

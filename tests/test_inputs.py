@@ -184,7 +184,9 @@ def test_problem_message_format() -> None:
     assert problem.message == ("demo.toml, beam B3, field web_width: got '30 MPa', "
                                "expected a length (e.g. '300 mm' or '12 in')")
     long = InputProblem("demo.toml", "B3", "title", "x" * 500, "text")
-    assert len(long.message) < 150 and long.message.endswith("...', expected text")
+    assert len(long.message) < 150
+    assert long.message.endswith("… (500 characters)', expected text")
+    assert long.value == "x" * 50 + "… (500 characters)"  # the table's echo is as short
 
 
 # --- whole-file problems --------------------------------------------------------------

@@ -156,3 +156,45 @@ def test_an_id_in_any_script_is_kept(tmp_path, capsys):
     path.write_text(BEAM_WITH_ID.format(id="Träger 7/Ø–2"), encoding="utf-8")
     assert main(["check", str(path), "--edition", "aci318-19"]) == 0
     assert "Träger 7/Ø–2" in capsys.readouterr().out
+
+
+def test_a_figures_folder_that_cannot_be_made_is_said_of_the_option(tmp_path, capsys,
+                                                                    monkeypatch):
+    def refuse(self, *args, **kwargs):
+        raise PermissionError(13, "Permission denied")
+
+    monkeypatch.setattr(Path, "mkdir", refuse)
+    folder = tmp_path / "figs"
+    assert main(["check", str(CHECKED), "--edition", "aci318-19", "--figures",
+                 str(folder)]) == 2
+    err = capsys.readouterr().err
+    assert f"--figures {folder}: cannot make the folder: Permission denied" in err
+    assert "Errno" not in err
+
+
+def test_an_operating_system_error_names_its_file_without_its_number(tmp_path, capsys,
+                                                                     monkeypatch):
+    """A failure the command does not word itself (here the report's file, refused by the
+    system after it is opened) still names the file, in the user's words."""
+    import clausewise.results as results
+
+    def full(path, data):
+        raise OSError(28, "No space left on device", str(path))
+
+    monkeypatch.setattr(results, "write_atomic", full)
+    out = tmp_path / "r.json"
+    assert main(["check", str(CHECKED), "--edition", "aci318-19", "--out", str(out)]) == 2
+    err = capsys.readouterr().err
+    assert f"{out}: No space left on device" in err and "Errno" not in err
+    assert not out.exists()
+
+
+def test_a_megabyte_of_unit_text_is_not_echoed(tmp_path, capsys):
+    text = CHECKED.read_text(encoding="utf-8").replace(
+        'web_width = "350 mm"', 'web_width = "350 ' + "q" * 1_000_000 + '"', 1)
+    source = tmp_path / "hostile.toml"
+    source.write_text(text, encoding="utf-8")
+    main(["check", str(source), "--edition", "aci318-19"])
+    out, err = capsys.readouterr()
+    assert "q" * 100 not in out + err
+    assert "(1 000 004 characters)" in out

@@ -13,6 +13,7 @@ from pydantic import BaseModel, ValidationError
 
 from clausewise.beamfile.models import _UNION_TAGS, _Expect
 from clausewise.provisions import ClausewiseError
+from clausewise.units import ECHOED, shortened
 
 
 class InputError(ClausewiseError, ValueError):
@@ -38,6 +39,10 @@ class InputProblem:
     expected: str
     index: int | None = None
 
+    def __post_init__(self) -> None:  # a hostile file's megabyte of text is not echoed
+        object.__setattr__(self, "value", shortened(self.value, ECHOED))
+        object.__setattr__(self, "expected", shortened(self.expected, 4 * ECHOED))
+
     @property
     def message(self) -> str:
         where = [self.file]
@@ -47,8 +52,7 @@ class InputProblem:
             where.append(f"beam number {self.index} (no usable id)")
         if self.field:
             where.append(f"field {self.field}")
-        value = self.value if len(self.value) <= 80 else self.value[:77] + "..."
-        got = f"got {value!r}" if value else "missing"
+        got = f"got {self.value!r}" if self.value else "missing"
         return f"{', '.join(where)}: {got}, expected {self.expected}"
 
 
