@@ -158,7 +158,7 @@ def detailing_checks(beam: Beam, edition: Edition, params: Parameters,
             clear.candidates[0].clause, "width", "mm",
             f"needed 2(cover + stirrup) + Σdb + (n − 1)·s, clear spacing s = largest of "
             f"{', '.join(cand.label for cand in clear.candidates)}; cover "
-            f"{shown(c, 'g')} mm, stirrup {shown(stirrup, 'g')} mm, "
+            f"{_length(beam, c)}, stirrup {_length(beam, stirrup)}, "
             f"{shown(layer.count, 'g')} bars"))
         if beam.cover is not None:
             checks.append(_clear_of_cover(beam, name, i, layer, stirrup, limits))
@@ -179,8 +179,15 @@ def _clear_of_cover(beam: Beam, name: str, i: int, layer: Layer, stirrup: Any,
     return Check(f"bars clear of the cover: {name} layer {i}", per_beam(from_face),
                  per_beam(needed), Sense.AT_LEAST, limits.cover.clause, "", "mm",
                  "distance from the layer's centroid to its face, at least cover + stirrup "
-                 f"+ db/2 (cover {shown(beam.cover, 'g')} mm as given, stirrup "
-                 f"{shown(stirrup, 'g')} mm)")
+                 f"+ db/2 (cover {_length(beam, beam.cover)} as given, stirrup "
+                 f"{_length(beam, stirrup)})")
+
+
+def _length(beam: Beam, value: Any) -> str:
+    """A length of a note in the beam's own units, as its file gave them."""
+    if beam.unit_system is UnitSystem.US:
+        return f"{shown(np.asarray(value, float) / MM_PER_IN, 'g')} in"
+    return f"{shown(value, 'g')} mm"
 
 
 def _between_layers(beam: Beam, limits_for: Any) -> list[Check]:

@@ -246,3 +246,30 @@ def test_remarks_reach_the_json_results(tmp_path):
 
     (result,) = json.loads(out.read_text(encoding="utf-8"))["results"]
     assert any("given as an area" in r for r in result["remarks"])
+
+
+US_BEAM = """
+[[beam]]
+id = "Q1"
+units = "US"
+shape = "T"
+web_width = "14 in"
+overall_depth = "28 in"
+slab_thickness = "6 in"
+cover = "1.5 in"
+stirrup_diameter = "0.5 in"
+concrete_strength = "5000 psi"
+yield_strength = "60 ksi"
+tension = [{ bars = "4 #9", depth = "25.4 in" }]
+floor = { span = "30 ft", continuity = "simple" }
+moments = { factored = "500 kip ft" }
+"""
+
+
+def test_detailing_notes_of_a_us_beam_give_its_lengths_in_inches():
+    beam = parse_schedule(US_BEAM).entries[0].beam
+    notes = {c.name: c.note for c in assess(beam, "aci318-19").checks}
+    fit = notes["bars fit the web: tension layer 1"]
+    assert "cover 1.5 in, stirrup 0.5 in" in fit and " mm" not in fit
+    assert "(cover 1.5 in as given, stirrup 0.5 in)" in notes[
+        "bars clear of the cover: tension layer 1"]
