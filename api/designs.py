@@ -15,7 +15,7 @@ from clausewise.provisions.design import PRACTICAL_MARGIN, Design, bars_text, de
 from clausewise.provisions.engine import CAPACITY_ONLY, PASS
 from clausewise.provisions.verdicts import CAUTION
 from clausewise.results.display import convert
-from clausewise.results.records import DIGITS, ShownNumbers, units_table
+from clausewise.results.records import DIGITS, ShownNumbers, refused_beams, units_table
 from clausewise.results.writers import COLUMN_UNITS
 
 if TYPE_CHECKING:
@@ -161,9 +161,10 @@ def design_csv(data: dict[str, Any]) -> str:
         row = {names[k]: "" if v is None else "; ".join(map(str, v)) if isinstance(v, list)
                else v for k, v in rec.items() if k in names}
         columns.writerow(row)
-    for problem in data["problems"]:
-        columns.writerow({"beam": problem["beam"] or "", "status": "input problem",
-                          "message": problem["message"], "caution": data["caution"]})
+    for beam, messages in refused_beams((p["beam"], None, p["message"])
+                                        for p in data["problems"]):
+        columns.writerow({"beam": beam or "", "status": "input problem", "message": messages,
+                          "caution": data["caution"]})
     return out.getvalue()
 
 

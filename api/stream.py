@@ -25,7 +25,7 @@ from clausewise.provisions.engine import CAPACITY_ONLY, CAUTION, FAIL, PASS
 from clausewise.provisions.registry import Edition
 from clausewise.provisions.verdicts import NO_ACTIONS, governed_head
 from clausewise.results.display import scale
-from clausewise.results.records import units_table
+from clausewise.results.records import refused_beams, units_table
 from clausewise.results.writers import NUMBER_COLUMNS, result_columns
 from clausewise.rowtext import Column, CsvLines, JsonLines, Numbers
 
@@ -252,16 +252,16 @@ def stream_beams(beams: Sequence[Beam], editions: Sequence[Edition], form: str |
 def write_refused(summary: Summary, problems: Sequence[InputProblem],
                   edition_ids: Sequence[str], situation: str, writer: RowWriter | None) -> None:
     """The beams the input refused: counted once per id under every edition, and a row
-    per problem and edition (after the assessed rows)."""
+    per beam and edition (after the assessed rows) giving all of the beam's problems."""
     if not problems:
         return
     summary.refused(edition_ids, len({p.beam for p in problems}))
-    summary.rows += len(problems) * len(edition_ids)  # a row per problem and edition
+    refused = refused_beams((p.beam, p.index, p.message) for p in problems)
+    summary.rows += len(refused) * len(edition_ids)
     if writer is not None:
         blank = [""] * (len(writer.columns) - 7)
-        writer.write([[p.beam or "?", edition_id, "", situation, REFUSED, *blank,
-                       p.message, CAUTION]
-                      for p in problems for edition_id in edition_ids])
+        writer.write([[beam or "?", edition_id, "", situation, REFUSED, *blank, messages,
+                       CAUTION] for beam, messages in refused for edition_id in edition_ids])
 
 
 class LazyProgress:

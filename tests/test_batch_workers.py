@@ -438,3 +438,21 @@ def test_a_worker_ended_by_its_parent_ends_quietly():
     worker.terminate()
     worker.join(10)
     assert worker.exitcode == -signal.SIGTERM
+
+
+def test_a_beam_with_several_problems_is_one_refused_row_per_edition(tmp_path, capsys,
+                                                                     sharded):
+    """A table keyed by beam and edition has one row for each, refused or not: the beam's
+    problems are joined in that row (they were a row per problem and edition)."""
+    doc = document()
+    doc["beam"][950]["web_width"] = "30 MPa"
+    doc["beam"][950]["concrete_strength"] = "30 mm"
+    schedule = write(tmp_path, doc)
+    three = batch(schedule, tmp_path / "three", capsys, "--workers", "3")
+    one = batch(schedule, tmp_path / "one", capsys, "--workers", "1")
+    assert_same(three, one)
+    refused = [r for r in csv.reader(three.rows[1:]) if r[4] == "refused"]
+    assert sorted(r[1] for r in refused) == sorted(EDITIONS)
+    assert all("field web_width" in r[-2] and "field concrete_strength" in r[-2]
+               for r in refused)
+    assert len(three.rows) == 1 + BEAMS * len(EDITIONS)

@@ -4,6 +4,8 @@ changed on disk."""
 
 from __future__ import annotations
 
+import csv
+import io
 import shutil
 from pathlib import Path
 
@@ -198,3 +200,17 @@ def test_a_megabyte_of_unit_text_is_not_echoed(tmp_path, capsys):
     out, err = capsys.readouterr()
     assert "q" * 100 not in out + err
     assert "(1 000 004 characters)" in out
+
+
+def test_check_csv_gives_a_refused_beam_one_row_with_all_its_problems(tmp_path, capsys):
+    text = CHECKED.read_text(encoding="utf-8").replace(
+        'web_width = "350 mm"', 'web_width = "30 MPa"', 1).replace(
+        'overall_depth = "650 mm"', 'overall_depth = "650 kg"', 1)
+    source = tmp_path / "two-slips.toml"
+    source.write_text(text, encoding="utf-8")
+    main(["check", str(source), "--edition", "aci318-19", "--format", "csv"])
+    rows = [r for r in csv.DictReader(io.StringIO(capsys.readouterr().out))
+            if r["status"] == "input problem"]
+    assert [r["beam"] for r in rows] == ["B1"]
+    assert "field web_width" in rows[0]["summary"]
+    assert "field overall_depth" in rows[0]["summary"]

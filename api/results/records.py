@@ -188,6 +188,19 @@ def record(outcome: Outcome, units: str = "beam", digits: int = DIGITS) -> dict[
     }
 
 
+def refused_beams(problems: Iterable[tuple[str | None, int | None, str]]
+                  ) -> list[tuple[str | None, str]]:
+    """One ``(beam id, messages)`` per refused beam, its problems' messages joined in file
+    order, from ``(beam id, place in the file, message)``: a table keyed by beam (and
+    edition) then has one row for each, as for an assessed beam. Beams without an id stay
+    apart by their place; a problem of no beam is a row of its own."""
+    grouped: dict[Any, tuple[str | None, list[str]]] = {}
+    for beam, place, message in problems:
+        key = object() if beam is None and place is None else (beam, place)
+        grouped.setdefault(key, (beam, []))[1].append(message)
+    return [(beam, "; ".join(messages)) for beam, messages in grouped.values()]
+
+
 def problem_record(problem: InputProblem) -> dict[str, Any]:
     return {"file": problem.file, "beam": problem.beam, "field": problem.field,
             "value": problem.value, "expected": problem.expected, "message": problem.message}

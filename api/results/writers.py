@@ -9,7 +9,7 @@ import math
 from typing import Any
 
 from clausewise.results.display import UNITS
-from clausewise.results.records import INPUT_PROBLEM
+from clausewise.results.records import INPUT_PROBLEM, refused_beams
 
 
 def to_json(data: dict[str, Any]) -> str:
@@ -103,9 +103,10 @@ def to_csv(data: dict[str, Any]) -> str:
     writer.writeheader()
     for rec in data["results"]:
         writer.writerow({k: _cell(v) for k, v in csv_row(rec).items()})
-    for problem in data["problems"]:
-        writer.writerow({"beam": problem["beam"] or "", "status": INPUT_PROBLEM,
-                         "summary": problem["message"], "caution": CAUTION})
+    for beam, messages in refused_beams((p["beam"], None, p["message"])
+                                        for p in data["problems"]):
+        writer.writerow({"beam": beam or "", "status": INPUT_PROBLEM, "summary": messages,
+                         "caution": CAUTION})
     return out.getvalue()
 
 
