@@ -37,6 +37,7 @@ _EXPORTS = {
     "find_neutral_axis": "clausewise.core.solver",
     "solve": "clausewise.core.solver",
     "solve_arrays": "clausewise.core.solver",
+    "solve_together": "clausewise.core.solver",
 }
 
 if TYPE_CHECKING:
@@ -76,6 +77,7 @@ if TYPE_CHECKING:
         find_neutral_axis,
         solve,
         solve_arrays,
+        solve_together,
     )
 
 __all__ = [
@@ -105,6 +107,7 @@ __all__ = [
     "gross_properties",
     "solve",
     "solve_arrays",
+    "solve_together",
     "stack_laws",
 ]
 

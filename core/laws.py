@@ -14,6 +14,7 @@ contiguous row (numpy spends several times longer per number on rows of a few).
 from __future__ import annotations
 
 import math
+from collections.abc import Sequence
 from dataclasses import dataclass, fields
 from typing import Any, Protocol, TypeVar
 
@@ -339,3 +340,49 @@ def take_rows(law: _Law, rows: NDArray[np.int_], size: int) -> _Law:
     for name in names:
         object.__setattr__(subset, name, taken(getattr(law, name)))
     return subset
+
+
+class _Unjoinable(Exception):
+    """Parameters of laws that cannot stand side by side in one law."""
+
+
+def joined_laws(laws: Sequence[_Law], sizes: Sequence[int]) -> _Law | None:
+    """One law for batches side by side (``sizes[i]`` sections under ``laws[i]``): row by
+    row the same parameters, so the same numbers. None where the laws differ in type or in
+    the make of their parameters, or are not the core's own (a plugin's law may hold more
+    than parameters)."""
+    kind = type(laws[0])
+    if kind not in _JOINABLE or any(type(law) is not kind for law in laws):
+        return None
+
+    def join(values: list[Any]) -> Any:
+        first = values[0]
+        if isinstance(first, tuple):
+            if any(not isinstance(v, tuple) or len(v) != len(first) for v in values):
+                raise _Unjoinable
+            return tuple(join([v[i] for v in values]) for i in range(len(first)))
+        if not isinstance(first, np.ndarray) and all(
+                not isinstance(v, np.ndarray) and v == first for v in values):
+            return first  # one value for every row, as it is
+        parts = []
+        for value, size in zip(values, sizes, strict=True):
+            array = np.asarray(value, dtype=float)
+            if array.ndim == 0:
+                array = np.full(size, float(array))
+            elif array.shape != (size,):
+                raise _Unjoinable
+            parts.append(array)
+        return np.concatenate(parts)
+
+    whole = object.__new__(kind)  # checked laws side by side need no new checks
+    try:
+        for name in _parameter_names(kind):
+            object.__setattr__(whole, name, join([getattr(law, name) for law in laws]))
+    except _Unjoinable:
+        return None
+    return whole
+
+
+_JOINABLE = (RectangularBlock, ParabolaRectangle, ElasticPlastic, BilinearHardening,
+             PiecewiseLinear)
+

@@ -20,7 +20,7 @@ One implementation serves a single section and a batch: ``solve`` wraps
 from __future__ import annotations
 
 from collections.abc import Sequence
-from dataclasses import dataclass
+from dataclasses import dataclass, fields
 from typing import NamedTuple
 
 import numpy as np
@@ -33,6 +33,7 @@ from clausewise.core.laws import (
     ElasticPlastic,
     PiecewiseLinear,
     SteelLaw,
+    joined_laws,
     law_size,
     take_laws,
     take_rows,
@@ -386,6 +387,11 @@ class ResponseArrays:
     def equilibrium(self) -> NDArray[np.bool_]:
         return self.status == OK
 
+    def rows(self, part: slice) -> ResponseArrays:
+        """The sections of a run of rows, as a batch of their own (views, not copies)."""
+        return ResponseArrays(**{name: getattr(self, name) if name == "labels"
+                                 else getattr(self, name)[part] for name in _RESPONSE_FIELDS})
+
     @property
     def block_in_flange(self) -> NDArray[np.bool_]:
         return (self.zone_strip == 0) & (self.labels[0] == "flange")
@@ -437,6 +443,9 @@ class ResponseArrays:
             residual=float(self.residual[i]), iterations=int(self.iterations[i]),
             status=status, message=STATUS_TEXT[status],
         )
+
+
+_RESPONSE_FIELDS = tuple(f.name for f in fields(ResponseArrays))
 
 
 def solve_arrays(sec: SectionArrays, concrete: ConcreteLaw, *, rtol: float = 1e-12,
@@ -504,6 +513,56 @@ def solve_arrays(sec: SectionArrays, concrete: ConcreteLaw, *, rtol: float = 1e-
         iterations=iterations,
         status=status,
     )
+
+
+def solve_together(batches: Sequence[tuple[SectionArrays, ConcreteLaw]], *,
+                   rtol: float = 1e-12) -> list[ResponseArrays]:
+    """Solve several batches, in one call for each set that can stand side by side: the
+    same strips and layer count, laws of one kind shared by the same layers. Each section
+    is solved on its own numbers whatever its neighbours, so the results are those of a
+    call per batch; for many small batches (a schedule of many kinds of beam) the fixed
+    cost of a call, most of a small batch's time, is paid once per set."""
+    results: list[ResponseArrays | None] = [None] * len(batches)
+    sets: dict[tuple[object, ...], list[int]] = {}
+    for i, (sec, law) in enumerate(batches):
+        key = (sec.labels, _sharing(sec.steel), type(law), *map(type, sec.steel))
+        sets.setdefault(key, []).append(i)
+    for members in sets.values():
+        joined = _side_by_side([batches[i] for i in members]) if len(members) > 1 else None
+        if joined is None:
+            for i in members:
+                results[i] = solve_arrays(*batches[i], rtol=rtol)
+            continue
+        whole, start = solve_arrays(*joined, rtol=rtol), 0
+        for i in members:
+            size = batches[i][0].size
+            results[i], start = whole.rows(slice(start, start + size)), start + size
+    return [r for r in results if r is not None]
+
+
+def _side_by_side(batches: Sequence[tuple[SectionArrays, ConcreteLaw]]
+                  ) -> tuple[SectionArrays, ConcreteLaw] | None:
+    """Batches as one, or None where their laws cannot be joined."""
+    sections = [sec for sec, _ in batches]
+    sizes = [sec.size for sec in sections]
+    concrete = joined_laws([law for _, law in batches], sizes)
+    pattern = _sharing(sections[0].steel)
+    steel = {j: joined_laws([sec.steel[j] for sec in sections], sizes) for j in set(pattern)}
+    if concrete is None or any(law is None for law in steel.values()):
+        return None
+    whole = SectionArrays(
+        np.concatenate([sec.edges for sec in sections]),
+        np.concatenate([sec.widths for sec in sections]),
+        np.concatenate([sec.areas for sec in sections]),
+        np.concatenate([sec.depths for sec in sections]),
+        tuple(steel[j] for j in pattern), sections[0].labels,  # type: ignore[misc]
+        validate=False)  # each batch was checked when it was made
+    return whole, concrete
+
+
+def _sharing(laws: tuple[SteelLaw, ...]) -> tuple[int, ...]:
+    """Which layers share a law: for each layer, the first layer with the same law."""
+    return tuple(next(j for j, other in enumerate(laws) if other is law) for law in laws)
 
 
 def solve(section: Section, concrete: ConcreteLaw, *, rtol: float = 1e-12) -> Response:

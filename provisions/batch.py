@@ -5,7 +5,10 @@ layer counts, which optional inputs are given, unit system ...), each group is
 stacked into one array-valued ``Beam`` and run through ``engine.evaluate`` once
 per edition. Results stay columnar (:class:`BatchTable`) so a million rows cost
 numpy time, not Python time. Rows outside an edition's scope are cut out before
-the mechanics, exactly as the single-beam path stops after applicability.
+the mechanics, exactly as the single-beam path stops after applicability. The
+sections of an edition's small groups are solved side by side in one call
+(``core.solve_together``), the same numbers as one call each: a schedule of many kinds
+of beam would otherwise pay a solve's fixed cost for every kind.
 
 If a group raises (a plugin fault, a degenerate beam), its beams are retried one
 at a time so that one bad beam is reported and the rest go on.
@@ -16,7 +19,7 @@ from __future__ import annotations
 import gc
 import os
 import sys
-from collections.abc import Callable, Iterable, Iterator, Sequence
+from collections.abc import Callable, Generator, Iterable, Iterator, Sequence
 from contextlib import contextmanager
 from dataclasses import dataclass, fields, is_dataclass, replace
 from functools import cache
@@ -27,9 +30,14 @@ import numpy as np
 from numpy.typing import NDArray
 
 from clausewise.core.errors import ClausewiseError
-from clausewise.core.solver import OK, STATUS_TEXT
+from clausewise.core.solver import OK, STATUS_TEXT, ResponseArrays, solve_arrays, solve_together
 from clausewise.provisions.beam import NAMES, Beam, Context, field_roles, kind_of, number_fields
-from clausewise.provisions.engine import evaluate, resolve_form
+from clausewise.provisions.engine import (
+    SolveRequest,
+    evaluation,
+    resolve_form,
+    solved_at_once,
+)
 from clausewise.provisions.registry import Edition, Registry, default_registry
 from clausewise.provisions.verdicts import ERROR, governing, outside_scope_line, status
 
@@ -315,6 +323,12 @@ def _record_checks(table: BatchTable, checks: Sequence[Any]) -> None:
 def _group_table(edition: Edition, batch: Beam, ids: Sequence[str],
                  context: Context) -> BatchTable:
     """Evaluate one stacked group under one edition."""
+    return solved_at_once(_group_steps(edition, batch, ids, context))
+
+
+def _group_steps(edition: Edition, batch: Beam, ids: Sequence[str], context: Context
+                 ) -> Generator[SolveRequest, ResponseArrays, BatchTable]:
+    """:func:`_group_table` as steps that ask for the group's section to be solved."""
     n = len(ids)
     params = edition.parameters(context)
     scope_checks = edition.applicability(batch, params, context)
@@ -328,7 +342,8 @@ def _group_table(edition: Edition, batch: Beam, ids: Sequence[str],
         if rows.size == 0:
             return table
     sub = take_beam(batch, rows) if rows.size < n else batch
-    ev = evaluate(sub, edition, context, tuple(scope_checks) if rows.size == n else None)
+    ev = yield from evaluation(sub, edition, context,
+                               tuple(scope_checks) if rows.size == n else None)
     m = rows.size
     resp = ev.response
     equilibrium = resp.equilibrium
@@ -408,28 +423,90 @@ def iter_assess_many(beams: Sequence[Beam], editions: Iterable[str | Edition], *
               for start in range(0, len(members), chunk)]
     indices = [np.array(members) for members in chunks]
     stacked: dict[int, tuple[list[Beam], list[str], Beam]] = {}  # built once, for every edition
+    together = _runs([number for number, members in enumerate(chunks)
+                      if len(members) < SOLVED_TOGETHER], [len(c) for c in chunks], chunk)
     for edition in resolved:
-        for number, members in enumerate(chunks):
-            with cycle_collector_paused():  # not across the yield: the caller's time is its own
-                if number not in stacked:
-                    group = [beams[i] for i in members]
-                    stacked[number] = group, [b.id for b in group], stack_beams(group)
-                group, ids, batch = stacked[number]
-                table = _chunk_table(edition, group, ids, batch, form, situation)
-            yield indices[number], table
+        done: dict[int, BatchTable] = {}
+        with cycle_collector_paused():  # not across a yield: the caller's time is its own
+            for run in together:
+                for number in run:
+                    if number not in stacked:
+                        stacked[number] = _stacked([beams[i] for i in chunks[number]])
+                done.update(zip(run, _chunk_tables(edition, [stacked[k] for k in run], form,
+                                                   situation), strict=True))
+        for number, members in enumerate(chunks):  # in the order of the groups, as before
+            if number not in done:
+                with cycle_collector_paused():
+                    if number not in stacked:
+                        stacked[number] = _stacked([beams[i] for i in members])
+                    done[number] = _chunk_tables(edition, [stacked[number]], form,
+                                                 situation)[0]
+            yield indices[number], done.pop(number)
 
 
-def _chunk_table(edition: Edition, group: list[Beam], ids: list[str], batch: Beam,
-                 form: str | None, situation: str) -> BatchTable:
-    try:
-        chosen, _ = resolve_form(edition, group[0], form)
-        return _group_table(edition, batch, ids, Context(form=chosen, situation=situation))
-    except (ClausewiseError, ValueError, ArithmeticError):
-        tables = [_single_table(edition, b, form, situation) for b in group]
-        merged = BatchTable.empty(edition.id, [b.id for b in group])
-        for i, t in enumerate(tables):
-            merged.fill(np.array([i]), t)
-        return merged
+SOLVED_TOGETHER = 2_000
+"""Chunks of fewer beams than this have their sections solved side by side, in one call
+for every chunk of an edition whose sections can stand together (the fixed cost of a
+solve, most of a small chunk's time, is then paid once for them all)."""
+
+
+def _runs(numbers: list[int], sizes: list[int], most: int) -> list[list[int]]:
+    """``numbers`` cut, in order, into runs of at most ``most`` beams in all (a chunk's
+    worth: its arrays stay in the cache)."""
+    runs: list[list[int]] = []
+    total = most
+    for number in numbers:
+        if total + sizes[number] > most:
+            runs.append([])
+            total = 0
+        runs[-1].append(number)
+        total += sizes[number]
+    return runs
+
+
+def _stacked(group: list[Beam]) -> tuple[list[Beam], list[str], Beam]:
+    return group, [b.id for b in group], stack_beams(group)
+
+
+def _chunk_tables(edition: Edition, chunks: Sequence[tuple[list[Beam], list[str], Beam]],
+                  form: str | None, situation: str) -> list[BatchTable]:
+    """Each chunk's table under one edition, the sections of all solved together. A chunk
+    whose rules or section fail (a plugin fault, a degenerate beam) is done again beam by
+    beam, so the fault is recorded against its own beams alone."""
+    tables: dict[int, BatchTable] = {}
+    waiting: dict[int, tuple[Generator[SolveRequest, ResponseArrays, BatchTable],
+                             SolveRequest]] = {}
+    for i, (group, ids, batch) in enumerate(chunks):
+        try:
+            chosen, _ = resolve_form(edition, group[0], form)
+            steps = _group_steps(edition, batch, ids, Context(form=chosen, situation=situation))
+            waiting[i] = steps, next(steps)
+        except StopIteration as finished:  # every beam outside the edition's scope
+            tables[i] = finished.value
+        except (ClausewiseError, ValueError, ArithmeticError):
+            tables[i] = _one_by_one(edition, group, form, situation)
+    if waiting:
+        try:
+            solved = solve_together([request for _, request in waiting.values()])
+        except (ClausewiseError, ValueError, ArithmeticError):  # each on its own, below
+            solved = [None] * len(waiting)
+        for (i, (steps, request)), response in zip(waiting.items(), solved, strict=True):
+            try:
+                steps.send(response if response is not None else solve_arrays(*request))
+            except StopIteration as finished:
+                tables[i] = finished.value
+            except (ClausewiseError, ValueError, ArithmeticError):
+                tables[i] = _one_by_one(edition, chunks[i][0], form, situation)
+    return [tables[i] for i in range(len(chunks))]
+
+
+def _one_by_one(edition: Edition, group: list[Beam], form: str | None,
+                situation: str) -> BatchTable:
+    tables = [_single_table(edition, b, form, situation) for b in group]
+    merged = BatchTable.empty(edition.id, [b.id for b in group])
+    for i, t in enumerate(tables):
+        merged.fill(np.array([i]), t)
+    return merged
 
 
 def assess_many(beams: Sequence[Beam], editions: Iterable[str | Edition], *,

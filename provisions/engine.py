@@ -7,13 +7,15 @@ returns an audited, immutable :class:`Assessment`.
 
 from __future__ import annotations
 
+from collections.abc import Generator
 from dataclasses import dataclass, replace
 from functools import reduce
-from typing import Any
+from typing import Any, TypeVar
 
 import numpy as np
 
 from clausewise.core import (
+    ConcreteLaw,
     Response,
     ResponseArrays,
     SectionArrays,
@@ -166,12 +168,36 @@ def build_section(beam: Beam, width: Any, steel: MaterialModel) -> SectionArrays
         [layer.depth for layer in layers], [steel.law] * len(layers))
 
 
+_Done = TypeVar("_Done")
+SolveRequest = tuple[SectionArrays, ConcreteLaw]
+"""A section batch and its concrete law, to be solved (:func:`solve_arrays`)."""
+
+
 def evaluate(beam: Beam, edition: Edition, context: Context,
              applicability: tuple[Check, ...] | None = None) -> Evaluation:
     """Run every topic of ``edition`` on ``beam``; stop after applicability when a single
     beam is outside the edition's scope. ``applicability``: the edition's scope checks
     of these very beams, where the caller has them already (the batch path asks first,
     to cut out the beams outside scope)."""
+    return solved_at_once(evaluation(beam, edition, context, applicability))
+
+
+def solved_at_once(steps: Generator[SolveRequest, ResponseArrays, _Done]) -> _Done:
+    """Run steps that ask for a section to be solved, solving it as asked."""
+    try:
+        request = next(steps)
+        while True:
+            request = steps.send(solve_arrays(*request))
+    except StopIteration as finished:
+        return finished.value  # type: ignore[no-any-return]
+
+
+def evaluation(beam: Beam, edition: Edition, context: Context,
+               applicability: tuple[Check, ...] | None = None
+               ) -> Generator[SolveRequest, ResponseArrays, Evaluation]:
+    """:func:`evaluate` as steps: it yields its section and concrete law and is sent the
+    solved section, so a caller may solve the sections of many evaluations in one call
+    (:func:`clausewise.core.solve_together`)."""
     if beam.flanged and beam.flange_thickness is None:
         raise SectionError(f"beam {beam.id!r}: a {beam.shape.value} beam needs its flange "
                            "(slab) thickness hf in mm")
@@ -192,7 +218,7 @@ def evaluate(beam: Beam, edition: Edition, context: Context,
     concrete = edition.concrete_law(beam, params, context)
     steel = edition.steel_law(beam, params, context)
     arrays = build_section(beam, width, steel)
-    solved: ResponseArrays = solve_arrays(arrays, concrete.law)
+    solved: ResponseArrays = yield arrays, concrete.law
     response: Response | ResponseArrays = solved if beam.is_batch else solved.row(0)
     section = SectionView(arrays, single=not beam.is_batch)
 

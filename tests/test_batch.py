@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import math
+from dataclasses import replace
 
 import numpy as np
 import pytest
@@ -137,3 +138,42 @@ def test_column_input_gives_the_same_table_as_beam_objects(edition: str) -> None
     np.testing.assert_array_equal(a.status, b.status)
     np.testing.assert_allclose(a.design_resistance, b.design_resistance, rtol=1e-12)
     np.testing.assert_array_equal(a.governing_check, b.governing_check)
+
+
+def test_small_groups_solved_together_or_each_alone_give_one_table(monkeypatch) -> None:
+    """The sections of an edition's small groups are solved in one call; where that call
+    fails, each group is solved on its own: the same table either way, and a degenerate
+    beam among them still fails alone."""
+    import clausewise.provisions.batch as batch
+    from clausewise.core import SectionError
+
+    beams = synthetic_beams(400, seed=3)
+    beams[17] = replace(beams[17], tension=(replace(beams[17].tension[0], area=0.0),
+                                            *beams[17].tension[1:]))
+    editions = ("aci318-19", "en1992-1-1:2004")
+    together = assess_many(beams, editions)
+
+    def refused(requests):
+        raise SectionError("not side by side")
+
+    monkeypatch.setattr(batch, "solve_together", refused)
+    alone = assess_many(beams, editions)
+    for edition in editions:
+        for i in range(len(beams)):
+            assert together[edition].row(i) == alone[edition].row(i)
+        assert together[edition].row(17)["status"] != "pass"
+        assert sum(s == "pass" for s in together[edition].status) > 200
+
+
+def test_small_chunks_solved_in_runs_of_a_chunk_give_the_same_rows() -> None:
+    """With chunks of 50 beams, the small groups are solved together in runs of at most
+    50 beams: every row as one chunk per group gives it, in the order of the groups."""
+    from clausewise.provisions.batch import iter_assess_many
+
+    beams = synthetic_beams(300, seed=9)
+    whole = assess_many(beams, ["is456:2000"])["is456:2000"]
+    parts = list(iter_assess_many(beams, ["is456:2000"], chunk=50))
+    assert all(table.size <= 50 for _, table in parts)
+    for index, table in parts:
+        for i, row in zip(index.tolist(), range(table.size), strict=True):
+            assert table.row(row) == whole.row(i)

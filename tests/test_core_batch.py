@@ -221,3 +221,71 @@ def test_an_exact_root_at_the_first_split_is_taken_as_found():
     assert response.status == 0
     assert response.c == 256.0
     assert response.nominal_moment == pytest.approx(128.0 * (512.0 - 64.0), rel=1e-12)
+
+
+def _a_batch(rng, n, law, *, flanged=True, layers=2):
+    """n random T (or rectangular) sections with ``layers`` steel layers of one law."""
+    bf, bw, hf, h, d, area = random_tees(rng, n)
+    thick, wide, labels = ([hf, h - hf], [bf, bw], ("flange", "web")) if flanged else \
+        ([h], [bw], ("web",))
+    areas, depths = [area, 0.3 * area, 0.2 * area][:layers], [d, d - 60.0,
+                                                              np.full(n, 55.0)][:layers]
+    return SectionArrays.from_profile(thick, wide, labels, areas, depths, [law] * layers)
+
+
+def test_batches_solved_together_give_the_numbers_of_one_call_each(monkeypatch):
+    """Batches of several layouts and laws (some joinable, some not: other strips, other
+    layer counts, a law with parameters per section, another law kind) solved together:
+    every field of every batch as its own call gives it, bit for bit."""
+    from clausewise.core import solve_together
+    from clausewise.core.solver import _RESPONSE_FIELDS
+
+    rng = np.random.default_rng(5)
+    mild = ElasticPlastic(200_000.0, 500.0)
+    hard = BilinearHardening(200_000.0, 500.0, 2_000.0, 0.05)
+    per_section = ElasticPlastic(200_000.0, rng.uniform(400.0, 550.0, 9))
+    batches = [
+        (_a_batch(rng, 7, mild), RectangularBlock(25.5, 0.85, 0.003)),
+        (_a_batch(rng, 90, mild), RectangularBlock(rng.uniform(20.0, 40.0, 90), 0.8, 0.003)),
+        (_a_batch(rng, 9, per_section), RectangularBlock(25.5, 0.85, 0.003)),
+        (_a_batch(rng, 5, mild, flanged=False), RectangularBlock(25.5, 0.85, 0.003)),
+        (_a_batch(rng, 6, mild, layers=3), RectangularBlock(25.5, 0.85, 0.003)),
+        (_a_batch(rng, 4, hard), RectangularBlock(25.5, 0.85, 0.003)),
+        (_a_batch(rng, 8, mild), ParabolaRectangle(20.0, 0.002, 0.0035)),
+        (_a_batch(rng, 1, mild), RectangularBlock(30.0, 0.75, 0.003)),
+    ]
+    import clausewise.core.solver as solver
+
+    calls = []
+
+    def counted(sec, law, **kw):
+        calls.append(sec.size)
+        return solve_arrays(sec, law, **kw)
+
+    monkeypatch.setattr(solver, "solve_arrays", counted)
+    together = solve_together(batches)
+    monkeypatch.undo()
+    assert len(together) == len(batches)
+    assert sorted(calls) == [4, 5, 6, 8, 7 + 90 + 9 + 1]  # the four T batches under one block
+    for (sec, law), got in zip(batches, together, strict=True):
+        alone = solve_arrays(sec, law)
+        for name in _RESPONSE_FIELDS:
+            a, b = getattr(alone, name), getattr(got, name)
+            assert (a == b if name == "labels" else np.array_equal(a, b, equal_nan=True)), name
+
+
+def test_laws_of_other_kinds_or_a_plugins_own_are_not_joined():
+    from dataclasses import dataclass
+
+    from clausewise.core.laws import joined_laws
+
+    @dataclass(frozen=True)
+    class FirmBlock(RectangularBlock):  # a plugin's law: it may hold more than parameters
+        pass
+
+    block = RectangularBlock(25.5, 0.85, 0.003)
+    assert joined_laws([block, ParabolaRectangle(20.0, 0.002, 0.0035)], [1, 1]) is None
+    assert joined_laws([block, FirmBlock(25.5, 0.85, 0.003)], [1, 1]) is None
+    both = joined_laws([block, RectangularBlock(np.array([20.0, 30.0]), 0.85, 0.003)], [3, 2])
+    assert np.array_equal(both.stress, [25.5, 25.5, 25.5, 20.0, 30.0])
+    assert both.depth_factor == 0.85  # one value for every row stays one value
