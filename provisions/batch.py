@@ -486,8 +486,9 @@ def _chunk_tables(edition: Edition, chunks: Sequence[tuple[list[Beam], list[str]
         except (ClausewiseError, ValueError, ArithmeticError):
             tables[i] = _one_by_one(edition, group, form, situation)
     if waiting:
+        solved: list[ResponseArrays | None]
         try:
-            solved = solve_together([request for _, request in waiting.values()])
+            solved = [*solve_together([request for _, request in waiting.values()])]
         except (ClausewiseError, ValueError, ArithmeticError):  # each on its own, below
             solved = [None] * len(waiting)
         for (i, (steps, request)), response in zip(waiting.items(), solved, strict=True):

@@ -189,7 +189,7 @@ def solved_at_once(steps: Generator[SolveRequest, ResponseArrays, _Done]) -> _Do
         while True:
             request = steps.send(solve_arrays(*request))
     except StopIteration as finished:
-        return finished.value  # type: ignore[no-any-return]
+        return finished.value
 
 
 def evaluation(beam: Beam, edition: Edition, context: Context,
