@@ -47,7 +47,12 @@ def shortened(text: str, limit: int) -> str:
     megabyte of text is not echoed."""
     if len(text) <= limit:
         return text
-    return f"{text[:limit - 30]}… ({len(text):_} characters)".replace("_", " ")
+    return f"{text[:limit - 30]}… ({_grouped(len(text))} characters)"
+
+
+def _grouped(count: int) -> str:
+    """A count with its thousands spaced: "2 000 004"."""
+    return f"{count:_}".replace("_", " ")
 
 
 @dataclass(frozen=True, eq=False)  # compared and hashed by identity: cheap cache keys
@@ -222,8 +227,8 @@ def _read_text(value: str, kind: Kind, us: bool, sign: str) -> tuple[float, str]
         return _signed(number * factor, f"{number_text}{suffix}", kind, sign)
     shown = " ".join(value.split())
     if len(unit_text) > LONGEST_UNIT:
-        raise QuantityError(shown, kind.expected, f"the {len(unit_text):_} characters after "
-                            "the number are not a unit".replace("_", " "))
+        raise QuantityError(shown, kind.expected, f"the {_grouped(len(unit_text))} "
+                            "characters after the number are not a unit")
     info = unit_info(unit_text)
     if info.kind != kind.name:
         why = _wrong_unit(unit_text, info)

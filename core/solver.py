@@ -522,7 +522,7 @@ def solve_together(batches: Sequence[tuple[SectionArrays, ConcreteLaw]], *,
     is solved on its own numbers whatever its neighbours, so the results are those of a
     call per batch; for many small batches (a schedule of many kinds of beam) the fixed
     cost of a call, most of a small batch's time, is paid once per set."""
-    results: list[ResponseArrays | None] = [None] * len(batches)
+    results: dict[int, ResponseArrays] = {}
     sets: dict[tuple[object, ...], list[int]] = {}
     for i, (sec, law) in enumerate(batches):
         key = (sec.labels, _sharing(sec.steel), type(law), *map(type, sec.steel))
@@ -537,7 +537,7 @@ def solve_together(batches: Sequence[tuple[SectionArrays, ConcreteLaw]], *,
         for i in members:
             size = batches[i][0].size
             results[i], start = whole.rows(slice(start, start + size)), start + size
-    return [r for r in results if r is not None]
+    return [results[i] for i in range(len(batches))]
 
 
 def _side_by_side(batches: Sequence[tuple[SectionArrays, ConcreteLaw]]

@@ -425,22 +425,24 @@ def iter_assess_many(beams: Sequence[Beam], editions: Iterable[str | Edition], *
     stacked: dict[int, tuple[list[Beam], list[str], Beam]] = {}  # built once, for every edition
     together = _runs([number for number, members in enumerate(chunks)
                       if len(members) < SOLVED_TOGETHER], [len(c) for c in chunks], chunk)
+
+    def tables(edition: Edition, numbers: list[int]) -> dict[int, BatchTable]:
+        for number in numbers:
+            if number not in stacked:
+                group = [beams[i] for i in chunks[number]]
+                stacked[number] = group, [b.id for b in group], stack_beams(group)
+        return dict(zip(numbers, _chunk_tables(edition, [stacked[k] for k in numbers], form,
+                                               situation), strict=True))
+
     for edition in resolved:
         done: dict[int, BatchTable] = {}
         with cycle_collector_paused():  # not across a yield: the caller's time is its own
             for run in together:
-                for number in run:
-                    if number not in stacked:
-                        stacked[number] = _stacked([beams[i] for i in chunks[number]])
-                done.update(zip(run, _chunk_tables(edition, [stacked[k] for k in run], form,
-                                                   situation), strict=True))
-        for number, members in enumerate(chunks):  # in the order of the groups, as before
+                done.update(tables(edition, run))
+        for number in range(len(chunks)):  # in the order of the groups, as before
             if number not in done:
                 with cycle_collector_paused():
-                    if number not in stacked:
-                        stacked[number] = _stacked([beams[i] for i in members])
-                    done[number] = _chunk_tables(edition, [stacked[number]], form,
-                                                 situation)[0]
+                    done.update(tables(edition, [number]))
             yield indices[number], done.pop(number)
 
 
@@ -454,18 +456,14 @@ def _runs(numbers: list[int], sizes: list[int], most: int) -> list[list[int]]:
     """``numbers`` cut, in order, into runs of at most ``most`` beams in all (a chunk's
     worth: its arrays stay in the cache)."""
     runs: list[list[int]] = []
-    total = most
+    total = 0
     for number in numbers:
-        if total + sizes[number] > most:
+        if not runs or total + sizes[number] > most:
             runs.append([])
             total = 0
         runs[-1].append(number)
         total += sizes[number]
     return runs
-
-
-def _stacked(group: list[Beam]) -> tuple[list[Beam], list[str], Beam]:
-    return group, [b.id for b in group], stack_beams(group)
 
 
 def _chunk_tables(edition: Edition, chunks: Sequence[tuple[list[Beam], list[str], Beam]],

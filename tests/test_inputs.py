@@ -720,3 +720,8 @@ def test_fuzzed_beams_load_or_are_reported(changes: list[tuple[str, Any]]) -> No
     loaded = len(schedule.entries) == 2
     assert loaded != bool(schedule.problems)
     assert all(p.index == 2 for p in schedule.problems)
+
+
+def test_a_shortened_echo_keeps_the_text_as_written() -> None:
+    long = InputProblem("demo.toml", None, "beam[3].id", "B_12_" + "x" * 200, "text")
+    assert long.value.startswith("B_12_x") and long.value.endswith("… (205 characters)")
